@@ -1,0 +1,28 @@
+#pragma once
+
+#include "input_error.hpp"
+#include "intake_settings.hpp"
+
+#include <CLI/CLI.hpp>
+
+#include <expected>
+#include <string>
+
+namespace plumbline::cli {
+
+// The intake options shared by the commands that read a cohort (names from the interface page).
+struct IntakeOptions {
+    IntakeSettings settings;
+    std::string outcomesFile;
+    std::string idColumn;
+    std::string outcomesIdColumn;
+    std::string eventValue;
+    std::string scale = "probability";
+    std::string delimiter;
+
+    void addTo(CLI::App& command);
+    // Copies the parsed strings into settings; an InputError for a delimiter that is not one character.
+    std::expected<IntakeSettings, InputError> resolved(const CLI::App& command) const;
+};
+
+} // namespace plumbline::cli

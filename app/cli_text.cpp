@@ -1,0 +1,82 @@
+#include "cli_text.hpp"
+
+#include "cautions.hpp"
+#include "version.hpp"
+
+#include <cstdio>
+#include <iomanip>
+
+namespace plumbline::cli {
+
+namespace {
+
+std::string lineList(const std::vector<std::size_t>& lines, std::size_t rows)
+{
+    std::string out = rows == 1 ? "line " : "lines ";
+    for (std::size_t i = 0; i < lines.size(); ++i)
+        out += (i ? ", " : "") + std::to_string(lines[i]);
+    if (rows > lines.size())
+        out += ", ...";
+    return out;
+}
+
+void printTally(std::ostream& out, const ExclusionTally& tally)
+{
+    std::string label = exclusionReasonText(tally.reason);
+    if (!tally.column.empty())
+        label += " (" + tally.column + ")";
+    out << "    " << std::left << std::setw(44) << label << std::right << std::setw(9) << withThousands(tally.rows)
+        << "   " << lineList(tally.firstLines, tally.rows) << '\n';
+}
+
+} // namespace
+
+std::string withThousands(std::size_t value)
+{
+    std::string digits = std::to_string(value);
+    for (int i = static_cast<int>(digits.size()) - 3; i > 0; i -= 3)
+        digits.insert(static_cast<std::size_t>(i), ",");
+    return digits;
+}
+
+void printIntakeSummary(std::ostream& out, const IntakeSettings& settings, const IntakeResult& result)
+{
+    const IntakeAudit& audit = result.audit;
+    out << "Plumbline " << versionString << " - cohort intake\n";
+    for (const auto& input : result.inputs)
+        out << "  " << std::left << std::setw(9) << input.role << std::right << input.path << "  (SHA-256 "
+            << input.sha256.substr(0, 12) << "...)\n";
+    out << "  outcome    " << settings.outcomeColumn << " (event = '" << audit.eventValue << "')\n";
+    for (const auto& model : result.cohort.models)
+        out << "  model      " << model.name << " (" << scaleName(result.cohort.scale) << " scale)\n";
+    char rate[32];
+    std::snprintf(rate, sizeof rate, "%.1f %%", audit.rowsUsed ? 100.0 * double(audit.events) / double(audit.rowsUsed) : 0.0);
+    out << "\n  rows read      " << std::setw(9) << withThousands(audit.rowsRead) << '\n';
+    out << "  rows used      " << std::setw(9) << withThousands(audit.rowsUsed) << "   (" << withThousands(audit.events)
+        << " events, " << withThousands(audit.nonEvents) << " non-events, event rate " << rate << ")\n";
+    out << "  rows excluded  " << std::setw(9) << withThousands(audit.rowsExcluded()) << '\n';
+    for (const auto& tally : audit.exclusions)
+        printTally(out, tally);
+    if (audit.join) {
+        const JoinSummary& join = *audit.join;
+        out << "\n  join on id: " << withThousands(join.matched) << " matched; " << withThousands(join.scoresWithoutOutcome)
+            << " score rows without an outcome; " << withThousands(join.outcomesWithoutScore)
+            << " outcome rows without a score row\n";
+        out << "  outcomes file: " << withThousands(join.outcomeRows) << " rows\n";
+        for (const auto& tally : join.outcomeFileExclusions)
+            printTally(out, tally);
+    }
+    for (const auto& warning : audit.warnings)
+        out << "\n  warning: " << warning << '\n';
+    out << '\n';
+    printCautions(out);
+}
+
+void printCautions(std::ostream& out)
+{
+    out << "Cautions:\n";
+    for (const auto caution : standardCautions)
+        out << "  - " << caution << '\n';
+}
+
+} // namespace plumbline::cli

@@ -1,0 +1,28 @@
+#pragma once
+
+#include <cstddef>
+#include <cstdint>
+#include <string>
+
+namespace plumbline {
+
+// The invented demo scenario (see sample-data/README.md): three hospitals of one network,
+// 24 months of discharges, a supplier's 30-day readmission score and a locally refitted score,
+// with built-in truths the workbench should reveal and a few data-entry defects for the audit.
+struct SimulationSettings {
+    std::size_t rows = 24000;
+    std::uint64_t seed = 20240101;
+};
+
+// The cohort as CSV text and, on request, the same discharges as a shuffled scores file and a
+// shuffled outcomes file with unmatched ids, duplicated ids and malformed rows. Deterministic:
+// the same settings give the same bytes.
+struct SimulatedFiles {
+    std::string cohort;
+    std::string scores;
+    std::string outcomes;
+};
+
+SimulatedFiles simulateCohort(const SimulationSettings& settings, bool withSplitFiles);
+
+} // namespace plumbline

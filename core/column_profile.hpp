@@ -1,0 +1,38 @@
+#pragma once
+
+#include "delimited_table.hpp"
+
+#include <cstddef>
+#include <expected>
+#include <optional>
+#include <string>
+#include <vector>
+
+namespace plumbline {
+
+// What `inspect` reports about one column.
+struct ColumnProfile {
+    std::string name;
+    std::string type;             // empty, binary, integer, number, date, text
+    std::size_t nonMissing = 0;
+    std::size_t missing = 0;
+    std::size_t distinct = 0;     // exact up to distinctCap
+    bool distinctCapped = false;
+    std::string minimum;          // numeric or date columns; empty otherwise
+    std::string maximum;
+    std::vector<std::string> notes; // problems found and likely roles
+};
+
+struct TableProfile {
+    std::size_t rows = 0;
+    std::size_t raggedRows = 0;           // rows whose field count differs from the header
+    std::size_t firstRaggedLine = 0;
+    std::vector<ColumnProfile> columns;
+};
+
+inline constexpr std::size_t distinctCap = 100000;
+
+// Profiles every column of the table in one pass: sniffed type, counts, range and problems.
+std::expected<TableProfile, InputError> profileColumns(const DelimitedTable& table);
+
+} // namespace plumbline

@@ -1,0 +1,13 @@
+#pragma once
+
+#include <string>
+#include <string_view>
+#include <vector>
+
+namespace plumbline {
+
+// Up to three header names closest to a name the user typed (case-insensitive edit distance,
+// a name containing the other counts as close), best first.
+std::vector<std::string> closestColumnNames(std::string_view wanted, const std::vector<std::string>& header);
+
+} // namespace plumbline

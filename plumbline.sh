@@ -1,0 +1,78 @@
+#!/usr/bin/env bash
+# Plumbline's one entry point for people and CI.
+#   ./plumbline.sh run     install what is missing, build, open the sample cohort
+#   ./plumbline.sh test    install what is missing, build, run every test (ctest)
+#   ./plumbline.sh bench   install what is missing, build, run the benchmark harness
+# A second call is quick: installed packages are skipped and the build is incremental.
+set -euo pipefail
+cd "$(dirname "$(readlink -f "$0")")"
+
+BUILD_PACKAGES=(g++ cmake ninja-build pkg-config libssl-dev
+  qt6-base-dev qt6-charts-dev qt6-svg-dev libgl-dev
+  libeigen3-dev libboost-dev nlohmann-json3-dev libcli11-dev libxlsxwriter-dev catch2)
+# Reference libraries for the cross-check tests and the benchmark peers (Debian's, not pip's).
+TEST_PACKAGES=(python3 python3-pandas python3-sklearn python3-statsmodels python3-scipy)
+
+say() { printf '\033[1mplumbline:\033[0m %s\n' "$*"; }
+
+install_missing() {
+  local missing=() p
+  for p in "$@"; do
+    dpkg-query -W -f='${Status}' "$p" 2>/dev/null | grep -q "install ok installed" || missing+=("$p")
+  done
+  [[ ${#missing[@]} -eq 0 ]] && return 0
+  say "installing ${#missing[@]} Debian packages: ${missing[*]}"
+  local sudo=()
+  if [[ $(id -u) -ne 0 ]]; then
+    command -v sudo >/dev/null || { say "need root or sudo to install: ${missing[*]}"; exit 1; }
+    sudo=(sudo)
+  fi
+  "${sudo[@]}" apt-get update -qq
+  DEBIAN_FRONTEND=noninteractive "${sudo[@]}" apt-get install -y -qq --no-install-recommends "${missing[@]}"
+}
+
+build() {
+  if [[ ! -f build/CMakeCache.txt ]]; then
+    cmake -S . -B build -G Ninja -DCMAKE_BUILD_TYPE=Release
+  fi
+  cmake --build build --parallel "$(nproc)"
+}
+
+has_display() { [[ -n ${DISPLAY:-} || -n ${WAYLAND_DISPLAY:-} ]]; }
+
+run_headless_sample() {
+  local out=plumbline-output
+  mkdir -p "$out"
+  say "no display (or no workbench yet): validating the sample cohort headless"
+  build/app/plumbline-cli validate sample-data/readmissions.csv \
+    --outcome readmitted_30d --score supplier_score --score local_score \
+    --group hospital --group payer \
+    --json "$out/sample-validation.json" | tee "$out/sample-validation.txt"
+  say "outputs written to $(pwd)/$out/ (sample-validation.json, sample-validation.txt)"
+}
+
+cmd=${1:-}
+case "$cmd" in
+  run)
+    install_missing "${BUILD_PACKAGES[@]}"
+    build
+    if has_display && [[ -x build/app/plumbline ]]; then
+      exec build/app/plumbline sample-data/readmissions.csv
+    fi
+    run_headless_sample
+    ;;
+  test)
+    install_missing "${BUILD_PACKAGES[@]}" "${TEST_PACKAGES[@]}"
+    build
+    ctest --test-dir build --output-on-failure --schedule-random -j "$(nproc)"
+    ;;
+  bench)
+    install_missing "${BUILD_PACKAGES[@]}" "${TEST_PACKAGES[@]}"
+    build
+    tests/benchmarks/run_benchmarks.sh build
+    ;;
+  *)
+    echo "usage: ./plumbline.sh run | test | bench" >&2
+    exit 2
+    ;;
+esac

@@ -1,0 +1,76 @@
+#!/usr/bin/env bash
+# End-to-end checks of plumbline-cli: exit statuses (0 done, 2 unusable input, 3 impossible
+# analysis) and that each message names file, line, column and value and says what to do.
+set -uo pipefail
+cli=$1
+samples=$2
+work=$(mktemp -d)
+trap 'rm -rf "$work"' EXIT
+failures=0
+
+expect() { # expect STATUS "needle in stderr" -- command...
+  local want=$1 needle=$2; shift 3
+  local out status
+  out=$("$@" 2>&1 >/dev/null); status=$?
+  if [[ $status -ne $want ]]; then
+    echo "FAIL: exit $status, wanted $want: $*"; echo "  stderr: $out"; failures=$((failures+1)); return
+  fi
+  if [[ -n $needle && $out != *"$needle"* ]]; then
+    echo "FAIL: message lacks '$needle': $*"; echo "  stderr: $out"; failures=$((failures+1)); return
+  fi
+  echo "ok: exit $status $*"
+}
+
+sample=$samples/readmissions.csv
+# Done, and the JSON holds the interface's blocks with a balanced audit.
+expect 0 "" -- "$cli" validate "$sample" --outcome readmitted_30d --score supplier_score --score local_score --json "$work/r.json"
+/usr/bin/python3 - "$work/r.json" <<'PY' || failures=$((failures+1))
+import json, sys
+r = json.load(open(sys.argv[1]))
+for block in ("plumbline", "inputs", "settings", "cohort", "warnings"):
+    assert block in r, block
+c = r["cohort"]
+assert c["rows_read"] == c["rows_used"] + sum(e["rows"] for e in c["exclusions"]), "audit does not balance"
+assert len(r["inputs"][0]["sha256"]) == 64
+assert c["events"] + c["non_events"] == c["rows_used"]
+print("ok: result JSON has every block and the audit balances")
+PY
+
+# Unusable inputs: exit 2 with file, line, column and a remedy.
+expect 2 "readmissions.csv, line 1, column 'supplier_scor'" -- "$cli" validate "$sample" --outcome readmitted_30d --score supplier_scor
+expect 2 "did you mean 'supplier_score'" -- "$cli" validate "$sample" --outcome readmitted_30d --score supplier_scor
+expect 2 "cannot be opened" -- "$cli" validate "$work/none.csv" --outcome y --score p
+printf 'y,p\n1,30\n0,45\n1,80\n' > "$work/percent.csv"
+expect 2 "--scale percent" -- "$cli" validate "$work/percent.csv" --outcome y --score p
+printf 'y,p\nyes,0.2\nno,0.3\nmaybe,0.5\n' > "$work/three.csv"
+expect 2 "'maybe' (1 rows, first on line 4)" -- "$cli" validate "$work/three.csv" --outcome y --score p
+printf 'y,p\nZ\xfcrich,0.2\n' > "$work/latin1.csv"
+expect 2 "line 2, column 'y'" -- "$cli" validate "$work/latin1.csv" --outcome y --score p
+expect 2 "delimiter" -- "$cli" validate "$sample" --outcome readmitted_30d --score supplier_score --delimiter ';'
+expect 2 "" -- "$cli" validate "$sample" --outcome readmitted_30d
+expect 2 "" -- "$cli" validate "$sample" --outcome readmitted_30d --score supplier_score --scale odds
+# Impossible analyses: exit 3.
+printf 'y,p\n0,0.2\n0,0.3\n' > "$work/oneclass.csv"
+expect 3 "both patients with and without the event" -- "$cli" validate "$work/oneclass.csv" --outcome y --score p
+# Inputs are never modified.
+before=$(sha256sum "$sample")
+"$cli" validate "$sample" --outcome readmitted_30d --score supplier_score >/dev/null
+[[ "$(sha256sum "$sample")" == "$before" ]] && echo "ok: input unchanged" || { echo "FAIL: input changed"; failures=$((failures+1)); }
+# inspect and the two-file join.
+expect 0 "" -- "$cli" inspect "$sample"
+"$cli" inspect "$sample" | grep -q "readmitted_30d.*binary" && echo "ok: inspect types the outcome" || { echo "FAIL: inspect"; failures=$((failures+1)); }
+expect 0 "" -- "$cli" validate "$samples/readmission-scores.csv" --outcomes "$samples/readmission-outcomes.csv" \
+  --id encounter_id --outcome readmitted_30d --score supplier_score --json "$work/join.json"
+/usr/bin/python3 - "$work/join.json" <<'PY' || failures=$((failures+1))
+import json, sys
+c = json.load(open(sys.argv[1]))["cohort"]
+j = c["join"]
+assert c["rows_read"] == c["rows_used"] + sum(e["rows"] for e in c["exclusions"])
+assert j["outcome_rows"] == j["matched"] + j["outcomes_without_score"] + sum(e["rows"] for e in j["outcome_file_exclusions"])
+assert j["scores_without_outcome"] > 0 and j["outcomes_without_score"] > 0
+print("ok: join balances on both sides")
+PY
+expect 2 "need an id" -- "$cli" validate "$samples/readmission-scores.csv" --outcomes "$samples/readmission-outcomes.csv" --outcome readmitted_30d --score supplier_score
+
+echo "$failures failure(s)"
+[[ $failures -eq 0 ]]

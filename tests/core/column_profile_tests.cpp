@@ -1,0 +1,48 @@
+#include "column_profile.hpp"
+
+#include <catch2/catch.hpp>
+
+using namespace plumbline;
+
+namespace {
+TableProfile profileOf(std::string text)
+{
+    auto table = DelimitedTable::open(*TextFile::fromBytes("f.csv", std::move(text)), std::nullopt);
+    return *profileColumns(*table);
+}
+
+bool hasNote(const ColumnProfile& column, const std::string& fragment)
+{
+    for (const auto& note : column.notes)
+        if (note.find(fragment) != std::string::npos)
+            return true;
+    return false;
+}
+} // namespace
+
+TEST_CASE("inspect sniffs each column's type counts and range", "[inspect]")
+{
+    const auto profile = profileOf("id,y,p,pts,day,site\na,yes,0.2,3,2024-01-05,N\nb,no,0.7,11,2024-03-01,S\nc,NA,0.4,7,2024-02-10,N\n");
+    REQUIRE(profile.columns.size() == 6);
+    CHECK(profile.rows == 3);
+    CHECK(profile.columns[0].type == "text");
+    CHECK(hasNote(profile.columns[0], "could be an id"));
+    CHECK(profile.columns[1].type == "binary");
+    CHECK(profile.columns[1].missing == 1);
+    CHECK(profile.columns[2].type == "number");
+    CHECK(profile.columns[2].minimum == "0.2");
+    CHECK(profile.columns[2].maximum == "0.7");
+    CHECK(hasNote(profile.columns[2], "risk score"));
+    CHECK(profile.columns[3].type == "integer");
+    CHECK(profile.columns[4].type == "date");
+    CHECK(profile.columns[4].minimum == "2024-01-05");
+    CHECK(profile.columns[5].distinct == 2);
+}
+
+TEST_CASE("inspect reports ragged rows and stray text in numeric columns", "[inspect]")
+{
+    const auto profile = profileOf("y,p\n1,0.2\n0,0.3\n1,oops\n0,0.5\n0\n");
+    CHECK(profile.raggedRows == 1);
+    CHECK(profile.firstRaggedLine == 6);
+    CHECK(hasNote(profile.columns[1], "not numbers (first on line 4: 'oops')"));
+}
