@@ -25,7 +25,7 @@ void printTally(std::ostream& out, const ExclusionTally& tally)
     std::string label = exclusionReasonText(tally.reason);
     if (!tally.column.empty())
         label += " (" + tally.column + ")";
-    out << "    " << std::left << std::setw(44) << label << std::right << std::setw(9) << withThousands(tally.rows)
+    out << "    " << std::left << std::setw(50) << label << std::right << std::setw(9) << withThousands(tally.rows)
         << "   " << lineList(tally.firstLines, tally.rows) << '\n';
 }
 
@@ -44,7 +44,7 @@ void printIntakeSummary(std::ostream& out, const IntakeSettings& settings, const
     const IntakeAudit& audit = result.audit;
     out << "Plumbline " << versionString << " - cohort intake\n";
     for (const auto& input : result.inputs)
-        out << "  " << std::left << std::setw(9) << input.role << std::right << input.path << "  (SHA-256 "
+        out << "  " << std::left << std::setw(11) << input.role << std::right << input.path << "  (SHA-256 "
             << input.sha256.substr(0, 12) << "...)\n";
     out << "  outcome    " << settings.outcomeColumn << " (event = '" << audit.eventValue << "')\n";
     for (const auto& model : result.cohort.models)

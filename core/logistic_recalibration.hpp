@@ -1,0 +1,42 @@
+#pragma once
+
+#include <cstdint>
+#include <optional>
+#include <span>
+#include <vector>
+
+namespace plumbline {
+
+// Linear predictors logit(p), with p clamped to [1e-12, 1 − 1e-12] so that a risk of exactly
+// 0 or 1 stays usable in a regression (the caller warns when clamping happened).
+std::vector<double> clampedLogits(std::span<const double> risk, std::size_t* clampedCount = nullptr);
+
+// Calibration-in-the-large: logit P(y=1) = α + lp with lp as offset, α by Newton's method
+// (Van Calster et al. 2016, J Clin Epidemiol 74:167). Weights are frequency weights (all 1 when
+// empty). nullopt when the fit does not converge (e.g. one class only).
+struct InterceptFit {
+    double alpha;
+    double se;
+    double logLikelihood;
+};
+std::optional<InterceptFit> fitCalibrationIntercept(std::span<const std::uint8_t> outcome, std::span<const double> lp,
+                                                    std::span<const double> weights = {});
+
+// Logistic recalibration: logit P(y=1) = a + b·lp by Newton–Raphson (Cox 1958); a, b with Wald
+// SEs. nullopt on separation or when lp is constant (the slope is then not identifiable).
+struct SlopeFit {
+    double intercept;
+    double slope;
+    double interceptSe;
+    double slopeSe;
+    double logLikelihood;
+};
+std::optional<SlopeFit> fitCalibrationSlope(std::span<const std::uint8_t> outcome, std::span<const double> lp,
+                                            std::span<const double> weights = {}, double startIntercept = 0.0,
+                                            double startSlope = 1.0);
+
+// Log-likelihood of the unmodified risks, Σ y ln p + (1−y) ln(1−p), from clamped logits.
+double logLikelihoodOfLogits(std::span<const std::uint8_t> outcome, std::span<const double> lp,
+                             std::span<const double> weights = {});
+
+} // namespace plumbline

@@ -1,0 +1,70 @@
+#include "check_datasets.hpp"
+#include "logistic_recalibration.hpp"
+
+#include <catch2/catch.hpp>
+
+using namespace plumbline;
+using namespace plumbline::test;
+using Catch::Matchers::WithinAbs;
+
+// Check values: shared/methods.md §3.1-§3.2 and §5.2, computed there with statsmodels 0.13.5
+// (GLM with offset, Logit) and R 4.2.2 glm, which agree to all printed digits [C].
+TEST_CASE("Calibration-in-the-large matches the offset-GLM check values", "[calibration]")
+{
+    const auto a = toy20A(), gen = gen1000();
+    const auto toy = fitCalibrationIntercept(a.y, clampedLogits(a.p));
+    REQUIRE(toy);
+    CHECK_THAT(toy->alpha, WithinAbs(0.2603346, 1e-7));
+    // methods §3.1 prints SE 0.5320226; statsmodels 0.13.5 GLM(offset).fit(tol=1e-14) under
+    // Debian's /usr/bin/python3 gives 0.53202336, as does 1/sqrt(Σπ(1−π)) at the exact root.
+    CHECK_THAT(toy->se, WithinAbs(0.53202336, 1e-8));
+    CHECK_THAT(toy->logLikelihood, WithinAbs(-13.2256309, 1e-7));
+    const auto g = fitCalibrationIntercept(gen.y, clampedLogits(gen.p));
+    REQUIRE(g);
+    CHECK_THAT(g->alpha, WithinAbs(-0.1235969, 1e-7));
+    CHECK_THAT(g->se, WithinAbs(0.0765274, 1e-7));
+}
+
+TEST_CASE("Calibration slope and intercept match the logistic-regression check values", "[calibration]")
+{
+    const auto a = toy20A(), gen = gen1000();
+    const auto toy = fitCalibrationSlope(a.y, clampedLogits(a.p));
+    REQUIRE(toy);
+    CHECK_THAT(toy->intercept, WithinAbs(-0.0550359, 1e-7));
+    CHECK_THAT(toy->interceptSe, WithinAbs(0.5411643, 1e-7));
+    CHECK_THAT(toy->slope, WithinAbs(0.5024740, 1e-7));
+    // methods §3.2 prints 0.3853744; statsmodels 0.13.5 Logit(tol=1e-14) gives 0.38537464.
+    CHECK_THAT(toy->slopeSe, WithinAbs(0.38537464, 1e-8));
+    CHECK_THAT(toy->logLikelihood, WithinAbs(-12.5117291, 1e-7));
+    CHECK_THAT(logLikelihoodOfLogits(a.y, clampedLogits(a.p)), WithinAbs(-13.3436788, 1e-7));
+    const auto g = fitCalibrationSlope(gen.y, clampedLogits(gen.p));
+    REQUIRE(g);
+    CHECK_THAT(g->intercept, WithinAbs(-0.2381924, 1e-7));
+    CHECK_THAT(g->interceptSe, WithinAbs(0.0867097, 1e-7));
+    CHECK_THAT(g->slope, WithinAbs(0.7979601, 1e-7));
+    CHECK_THAT(g->slopeSe, WithinAbs(0.0748764, 1e-7));
+}
+
+TEST_CASE("Frequency-weighted recalibration equals the fit on the expanded rows", "[calibration]")
+{
+    // shared/methods.md §5.2 [C]: Toy-20 with these counts gives (a, b) = (−0.9669542, 0.2015165).
+    const auto a = toy20A();
+    const std::vector<double> c{2, 0, 1, 1, 0, 3, 1, 0, 1, 2, 1, 0, 1, 1, 0, 2, 1, 1, 0, 2};
+    const auto fit = fitCalibrationSlope(a.y, clampedLogits(a.p), c);
+    REQUIRE(fit);
+    CHECK_THAT(fit->intercept, WithinAbs(-0.9669542, 1e-7));
+    CHECK_THAT(fit->slope, WithinAbs(0.2015165, 1e-7));
+}
+
+TEST_CASE("Separation and constant risks make the slope not estimable", "[calibration]")
+{
+    const std::vector<std::uint8_t> y{0, 0, 0, 1, 1, 1};
+    const std::vector<double> separated{0.1, 0.2, 0.3, 0.6, 0.7, 0.8};
+    CHECK_FALSE(fitCalibrationSlope(y, clampedLogits(separated)));
+    const std::vector<double> constant(6, 0.4);
+    CHECK_FALSE(fitCalibrationSlope(y, clampedLogits(constant)));
+    CHECK(fitCalibrationIntercept(y, clampedLogits(constant)));
+    std::size_t clamped = 0;
+    clampedLogits(std::vector<double>{0.0, 0.5, 1.0}, &clamped);
+    CHECK(clamped == 2);
+}
