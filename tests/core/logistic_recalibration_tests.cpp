@@ -1,4 +1,5 @@
 #include "check_datasets.hpp"
+#include "calibration_lr_tests.hpp"
 #include "logistic_recalibration.hpp"
 
 #include <catch2/catch.hpp>
@@ -67,4 +68,27 @@ TEST_CASE("Separation and constant risks make the slope not estimable", "[calibr
     std::size_t clamped = 0;
     clampedLogits(std::vector<double>{0.0, 0.5, 1.0}, &clamped);
     CHECK(clamped == 2);
+}
+
+TEST_CASE("The three calibration likelihood-ratio tests match the check values", "[calibration]")
+{
+    // shared/methods.md §3.2 [C; statsmodels 0.13.5 and R 4.2.2 log-likelihoods, scipy 1.10 chi2.sf].
+    const auto a = toy20A(), gen = gen1000();
+    const auto toy = calibrationLikelihoodRatioTests(a.y, clampedLogits(a.p));
+    REQUIRE(toy);
+    CHECK_THAT(toy->joint.statistic, WithinAbs(1.663900, 1e-6));
+    CHECK_THAT(toy->joint.pValue, WithinAbs(0.435200, 1e-6));
+    CHECK(toy->joint.df == 2);
+    CHECK_THAT(toy->interceptOnly.statistic, WithinAbs(0.236096, 1e-6));
+    CHECK_THAT(toy->interceptOnly.pValue, WithinAbs(0.627040, 1e-6));
+    CHECK_THAT(toy->slopeGivenIntercept.statistic, WithinAbs(1.427804, 1e-6));
+    CHECK_THAT(toy->slopeGivenIntercept.pValue, WithinAbs(0.232123, 1e-6));
+    const auto g = calibrationLikelihoodRatioTests(gen.y, clampedLogits(gen.p));
+    REQUIRE(g);
+    CHECK_THAT(g->joint.statistic, WithinAbs(9.556620, 1e-6));
+    CHECK_THAT(g->joint.pValue, WithinAbs(0.008410, 1e-6));
+    CHECK_THAT(g->interceptOnly.statistic, WithinAbs(2.635690, 1e-6));
+    CHECK_THAT(g->interceptOnly.pValue, WithinAbs(0.104487, 1e-6));
+    CHECK_THAT(g->slopeGivenIntercept.statistic, WithinAbs(6.920930, 1e-6));
+    CHECK_THAT(g->slopeGivenIntercept.pValue, WithinAbs(0.008519, 1e-6));
 }

@@ -1,0 +1,32 @@
+#include "calibration_lr_tests.hpp"
+
+#include "distributions.hpp"
+#include "logistic_recalibration.hpp"
+
+#include <algorithm>
+
+namespace plumbline {
+
+namespace {
+LikelihoodRatioTest lrTest(double reduced, double full, int df)
+{
+    // A tiny negative 2ΔLL can only come from rounding at convergence: clamp it to zero.
+    const double statistic = std::max(0.0, 2.0 * (full - reduced));
+    return {statistic, df, chiSquaredUpperTail(statistic, df)};
+}
+} // namespace
+
+std::optional<CalibrationLikelihoodRatioTests> calibrationLikelihoodRatioTests(std::span<const std::uint8_t> outcome,
+                                                                               std::span<const double> lp)
+{
+    const auto intercept = fitCalibrationIntercept(outcome, lp);
+    const auto slope = fitCalibrationSlope(outcome, lp);
+    if (!intercept || !slope)
+        return std::nullopt;
+    const double original = logLikelihoodOfLogits(outcome, lp);
+    return CalibrationLikelihoodRatioTests{lrTest(original, slope->logLikelihood, 2),
+                                           lrTest(original, intercept->logLikelihood, 1),
+                                           lrTest(intercept->logLikelihood, slope->logLikelihood, 1)};
+}
+
+} // namespace plumbline

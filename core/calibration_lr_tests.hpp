@@ -1,0 +1,28 @@
+#pragma once
+
+#include <cstdint>
+#include <optional>
+#include <span>
+
+namespace plumbline {
+
+// The three likelihood-ratio tests of the calibration framework (methods reference §3.2;
+// Cox 1958, Miller, Hui & Tierney 1991): joint a = 0, b = 1 (2 df); calibration-in-the-large
+// (1 df); slope given calibration-in-the-large (1 df). Statistics are 2·ΔLL, p from χ².
+struct LikelihoodRatioTest {
+    double statistic;
+    int df;
+    double pValue;
+};
+
+struct CalibrationLikelihoodRatioTests {
+    LikelihoodRatioTest joint;
+    LikelihoodRatioTest interceptOnly;
+    LikelihoodRatioTest slopeGivenIntercept;
+};
+
+// nullopt when either fit is not estimable (one class, separation, constant risks).
+std::optional<CalibrationLikelihoodRatioTests> calibrationLikelihoodRatioTests(std::span<const std::uint8_t> outcome,
+                                                                               std::span<const double> lp);
+
+} // namespace plumbline
