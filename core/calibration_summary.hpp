@@ -12,6 +12,7 @@ namespace plumbline {
 // delta method; Debray et al. 2017, BMJ 356:i6460, as given in the methods reference §3.4), or
 // the exact Poisson interval with E fixed when O < 10 (from the methods reference; O = 0 gives
 // [0, χ²_{1−α/2}(2)/(2E)]).
+// The estimate's `se` is SE(ln O/E), on the log scale; it is empty for the exact interval.
 // The interval is chosen by `method` (LogNormal or ExactPoisson); with nullopt the exact interval
 // is used when O < 10 [common practice] and the log-normal one otherwise.
 Estimate observedExpectedRatio(std::span<const std::uint8_t> outcome, std::span<const double> risk, double confidence,

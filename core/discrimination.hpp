@@ -46,8 +46,10 @@ struct RocPoint {
 };
 std::vector<RocPoint> rocCurve(std::span<const std::uint8_t> outcome, std::span<const double> score);
 
-// Thins a ROC curve to at most maxPoints without changing its trapezoidal area: points that lie on
-// the straight line between their neighbours go first, then the closest to that line.
+// Thins a ROC curve for output to at most maxPoints. Points on the straight line between their
+// neighbours are dropped first (no change of area); if still too many, an even spread along the
+// curve is kept with both ends, which changes the trapezoidal area by far less than 0.001 on
+// dense curves (tested). Reported C statistics always come from the full data.
 std::vector<RocPoint> thinRocCurve(const std::vector<RocPoint>& curve, std::size_t maxPoints);
 
 // Area under the precision–recall curve as average precision, step-wise: Σ (R_k − R_{k−1}) P_k

@@ -82,17 +82,36 @@ TEST_CASE("Tie-aware risk groups and Hosmer-Lemeshow match the check values", "[
 
 TEST_CASE("Risk groups never split a tie block and merge a small last group", "[calibration]")
 {
+    // Target 7/3 patients per group: the four 0.2s close the first group at 5 patients; the
+    // single 0.3 and 0.4 would form groups of 1, and the last (< half a target) is merged.
     const std::vector<std::uint8_t> y{0, 1, 0, 1, 0, 1, 0};
     const std::vector<double> p{0.1, 0.2, 0.2, 0.2, 0.2, 0.3, 0.4};
     const auto groups = riskGroups(y, p, 3, 0.95, CiMethod::Wilson);
-    std::size_t total = 0;
-    for (const auto& g : groups) {
-        total += g.n;
-        CHECK((g.riskMax < 0.2 || g.riskMin >= 0.2 || g.riskMin == g.riskMax || (g.riskMin <= 0.2 && g.riskMax >= 0.2)));
-    }
-    CHECK(total == 7);
-    CHECK(groups[0].riskMax == 0.2); // the block of 0.2s stays with the first group
+    REQUIRE(groups.size() == 2);
+    CHECK(groups[0].n == 5);
+    CHECK(groups[0].riskMax == 0.2);
+    CHECK(groups[1].n == 2);
     CHECK(groups[1].riskMin == 0.3);
+    CHECK(groups[1].riskMax == 0.4);
+}
+
+TEST_CASE("Risk groups on heavily tied data keep every tie block whole", "[calibration]")
+{
+    std::vector<std::uint8_t> y;
+    std::vector<double> p;
+    for (int i = 0; i < 500; ++i) {
+        p.push_back(double(i % 7) / 10.0 + 0.05); // seven values, 71-72 patients each
+        y.push_back(i % 3 == 0 ? 1 : 0);
+    }
+    const auto groups = riskGroups(y, p, 10, 0.95, CiMethod::Wilson);
+    std::size_t total = 0;
+    for (std::size_t k = 0; k < groups.size(); ++k) {
+        total += groups[k].n;
+        if (k + 1 < groups.size())
+            CHECK(groups[k].riskMax < groups[k + 1].riskMin);
+    }
+    CHECK(total == 500);
+    CHECK(groups.size() == 7);
 }
 
 TEST_CASE("Wilson and Clopper-Pearson intervals match statsmodels proportion_confint", "[calibration]")

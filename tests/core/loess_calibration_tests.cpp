@@ -4,6 +4,9 @@
 
 #include <catch2/catch.hpp>
 
+#include <algorithm>
+#include <cmath>
+
 using namespace plumbline;
 using namespace plumbline::test;
 using Catch::Matchers::WithinAbs;
@@ -63,7 +66,69 @@ TEST_CASE("The binned approximation keeps ICI within 0.001 of the exact value on
     CHECK_THAT(binned->ici, WithinAbs(exact->ici, 0.001));
 }
 
-TEST_CASE("Tied risks give the same curve as the expanded data and too few distinct risks give none", "[loess]")
+namespace {
+// The direct loess of shared/methods.md §3.9, row by row (no collapsing of ties): q = floor(N·span),
+// h = q-th smallest distance, tricube weights, weighted least squares on [1, d, d²].
+double bruteForceLoessAt(const std::vector<std::uint8_t>& y, const std::vector<double>& p, double x0)
+{
+    const std::size_t n = p.size();
+    std::vector<double> d(n);
+    for (std::size_t i = 0; i < n; ++i)
+        d[i] = std::abs(p[i] - x0);
+    std::vector<double> sorted = d;
+    const auto q = static_cast<std::size_t>(std::floor(double(n) * 0.75));
+    std::nth_element(sorted.begin(), sorted.begin() + static_cast<long>(q - 1), sorted.end());
+    const double h = sorted[q - 1];
+    double m[3][3] = {}, r[3] = {};
+    for (std::size_t i = 0; i < n; ++i) {
+        if (d[i] >= h)
+            continue;
+        const double u = d[i] / h, w = std::pow(1.0 - u * u * u, 3);
+        const double x[3] = {1.0, p[i] - x0, (p[i] - x0) * (p[i] - x0)};
+        for (int a = 0; a < 3; ++a) {
+            r[a] += w * x[a] * y[i];
+            for (int b = 0; b < 3; ++b)
+                m[a][b] += w * x[a] * x[b];
+        }
+    }
+    // Gaussian elimination for the intercept.
+    for (int c = 0; c < 3; ++c)
+        for (int row = c + 1; row < 3; ++row) {
+            const double f = m[row][c] / m[c][c];
+            for (int k = c; k < 3; ++k)
+                m[row][k] -= f * m[c][k];
+            r[row] -= f * r[c];
+        }
+    double beta[3];
+    for (int c = 2; c >= 0; --c) {
+        beta[c] = r[c];
+        for (int k = c + 1; k < 3; ++k)
+            beta[c] -= m[c][k] * beta[k];
+        beta[c] /= m[c][c];
+    }
+    return beta[0];
+}
+} // namespace
+
+TEST_CASE("Collapsing tied risks gives the same curve as loess on the rows themselves", "[loess]")
+{
+    RandomStream random(77);
+    for (int trial = 0; trial < 5; ++trial) {
+        const std::size_t n = 300 + random.below(300);
+        std::vector<std::uint8_t> y(n);
+        std::vector<double> p(n);
+        for (std::size_t i = 0; i < n; ++i) {
+            p[i] = 0.02 + 0.01 * double(random.below(40)); // 40 values, many ties
+            y[i] = random.uniform() < p[i] ? 1 : 0;
+        }
+        const auto fit = loessCalibration(y, p);
+        REQUIRE(fit);
+        for (std::size_t i = 0; i < n; i += 7)
+            CHECK_THAT(fit->fitted[i], WithinAbs(bruteForceLoessAt(y, p, p[i]), 1e-9));
+    }
+}
+
+TEST_CASE("Fewer than ten distinct risks give no smoothed curve", "[loess]")
 {
     const std::vector<std::uint8_t> y{0, 1, 0, 0, 1, 0, 1, 1, 0, 0, 1, 0};
     const std::vector<double> points{1, 2, 3, 4, 5, 6, 7, 8, 9, 1, 2, 3};
