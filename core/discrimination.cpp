@@ -8,52 +8,57 @@
 
 namespace plumbline {
 
-std::vector<double> midRanks(std::span<const double> values)
+Placements delongPlacements(std::span<const std::uint8_t> outcome, std::span<const double> score,
+                            const ScoreOrder& order)
 {
-    const std::size_t n = values.size();
-    std::vector<std::size_t> order(n);
-    std::iota(order.begin(), order.end(), std::size_t{0});
-    std::sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) { return values[a] < values[b]; });
-    std::vector<double> ranks(n);
-    for (std::size_t i = 0; i < n;) {
-        std::size_t j = i;
-        while (j + 1 < n && values[order[j + 1]] == values[order[i]])
-            ++j;
-        const double rank = 0.5 * double(i + j) + 1.0; // positions i..j (0-based) → mean 1-based rank
-        for (std::size_t k = i; k <= j; ++k)
-            ranks[order[k]] = rank;
-        i = j + 1;
+    const std::size_t total = outcome.size();
+    const auto m = static_cast<std::size_t>(std::count(outcome.begin(), outcome.end(), std::uint8_t{1}));
+    const std::size_t n = total - m;
+    Placements out;
+    if (m == 0 || n == 0)
+        return out;
+    // Position of each row among the events (or non-events) in data order.
+    std::vector<std::uint32_t> classIndex(total);
+    std::size_t eventsSeen = 0, nonEventsSeen = 0;
+    for (std::size_t i = 0; i < total; ++i)
+        classIndex[i] = static_cast<std::uint32_t>(outcome[i] ? eventsSeen++ : nonEventsSeen++);
+    out.eventPlacements.resize(m);
+    out.nonEventPlacements.resize(n);
+    // Sun & Xu: V10 = (rank among all − rank among events)/n, V01 = 1 − (rank among all − rank
+    // among non-events)/m, all ranks mid-ranks; a tie block shares them.
+    double eventRankSum = 0.0;
+    std::size_t below = 0, eventsBelow = 0, nonEventsBelow = 0;
+    for (std::size_t k = 0; k < total;) {
+        std::size_t end = k;
+        std::size_t blockEvents = 0;
+        while (end < total && score[order[end]] == score[order[k]])
+            blockEvents += outcome[order[end++]];
+        const std::size_t size = end - k;
+        const std::size_t blockNonEvents = size - blockEvents;
+        const double rankAll = double(below) + (double(size) + 1.0) / 2.0;
+        const double rankEvents = double(eventsBelow) + (double(blockEvents) + 1.0) / 2.0;
+        const double rankNonEvents = double(nonEventsBelow) + (double(blockNonEvents) + 1.0) / 2.0;
+        for (std::size_t j = k; j < end; ++j) {
+            const std::uint32_t row = order[j];
+            if (outcome[row]) {
+                out.eventPlacements[classIndex[row]] = (rankAll - rankEvents) / double(n);
+                eventRankSum += rankAll;
+            } else {
+                out.nonEventPlacements[classIndex[row]] = 1.0 - (rankAll - rankNonEvents) / double(m);
+            }
+        }
+        below += size;
+        eventsBelow += blockEvents;
+        nonEventsBelow += blockNonEvents;
+        k = end;
     }
-    return ranks;
+    out.c = (eventRankSum - double(m) * double(m + 1) / 2.0) / (double(m) * double(n));
+    return out;
 }
 
 Placements delongPlacements(std::span<const std::uint8_t> outcome, std::span<const double> score)
 {
-    std::vector<double> events;
-    std::vector<double> nonEvents;
-    for (std::size_t i = 0; i < outcome.size(); ++i)
-        (outcome[i] ? events : nonEvents).push_back(score[i]);
-    const std::size_t m = events.size();
-    const std::size_t n = nonEvents.size();
-    Placements out;
-    if (m == 0 || n == 0)
-        return out;
-    std::vector<double> all(events);
-    all.insert(all.end(), nonEvents.begin(), nonEvents.end());
-    const std::vector<double> rankAll = midRanks(all);
-    const std::vector<double> rankEvents = midRanks(events);
-    const std::vector<double> rankNonEvents = midRanks(nonEvents);
-    out.eventPlacements.resize(m);
-    out.nonEventPlacements.resize(n);
-    double eventRankSum = 0.0;
-    for (std::size_t i = 0; i < m; ++i) {
-        out.eventPlacements[i] = (rankAll[i] - rankEvents[i]) / double(n);
-        eventRankSum += rankAll[i];
-    }
-    for (std::size_t j = 0; j < n; ++j)
-        out.nonEventPlacements[j] = 1.0 - (rankAll[m + j] - rankNonEvents[j]) / double(m);
-    out.c = (eventRankSum - double(m) * double(m + 1) / 2.0) / (double(m) * double(n));
-    return out;
+    return delongPlacements(outcome, score, ascendingOrder(score));
 }
 
 namespace {
@@ -81,7 +86,11 @@ double delongVariance(const Placements& placements)
 Estimate cStatistic(std::span<const std::uint8_t> outcome, std::span<const double> score, CStatisticScale scale,
                     double confidence)
 {
-    const Placements placements = delongPlacements(outcome, score);
+    return cStatistic(delongPlacements(outcome, score), scale, confidence);
+}
+
+Estimate cStatistic(const Placements& placements, CStatisticScale scale, double confidence)
+{
     if (placements.eventPlacements.empty() || placements.nonEventPlacements.empty())
         return Estimate::undefined();
     Estimate estimate = Estimate::point(placements.c);
@@ -109,22 +118,26 @@ Estimate cStatistic(std::span<const std::uint8_t> outcome, std::span<const doubl
 
 std::vector<RocPoint> rocCurve(std::span<const std::uint8_t> outcome, std::span<const double> score)
 {
-    std::vector<std::size_t> order(score.size());
-    std::iota(order.begin(), order.end(), std::size_t{0});
-    std::sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) { return score[a] > score[b]; });
+    return rocCurve(outcome, score, ascendingOrder(score));
+}
+
+std::vector<RocPoint> rocCurve(std::span<const std::uint8_t> outcome, std::span<const double> score,
+                               const ScoreOrder& ascending)
+{
     const double events = double(std::count(outcome.begin(), outcome.end(), std::uint8_t{1}));
     const double nonEvents = double(outcome.size()) - events;
     std::vector<RocPoint> curve;
     if (events == 0 || nonEvents == 0)
         return curve;
-    curve.push_back({order.empty() ? 1.0 : score[order.front()] + 1.0, 0.0, 1.0});
+    // Highest score first: walk the shared ascending order backwards, one point per tie block.
+    curve.push_back({score[ascending.back()] + 1.0, 0.0, 1.0});
     double tp = 0.0;
     double fp = 0.0;
-    for (std::size_t i = 0; i < order.size();) {
-        const double threshold = score[order[i]];
-        while (i < order.size() && score[order[i]] == threshold) {
-            (outcome[order[i]] ? tp : fp) += 1.0;
-            ++i;
+    for (std::size_t k = ascending.size(); k > 0;) {
+        const double threshold = score[ascending[k - 1]];
+        while (k > 0 && score[ascending[k - 1]] == threshold) {
+            (outcome[ascending[k - 1]] ? tp : fp) += 1.0;
+            --k;
         }
         curve.push_back({threshold, tp / events, 1.0 - fp / nonEvents});
     }
@@ -159,11 +172,16 @@ std::vector<RocPoint> thinRocCurve(const std::vector<RocPoint>& curve, std::size
 
 std::optional<double> averagePrecision(std::span<const std::uint8_t> outcome, std::span<const double> score)
 {
-    const auto curve = rocCurve(outcome, score);
+    const auto events = static_cast<std::size_t>(std::count(outcome.begin(), outcome.end(), std::uint8_t{1}));
+    return averagePrecision(rocCurve(outcome, score), events, outcome.size() - events);
+}
+
+std::optional<double> averagePrecision(const std::vector<RocPoint>& curve, std::size_t eventCount, std::size_t nonEventCount)
+{
     if (curve.empty())
         return std::nullopt;
-    const double events = double(std::count(outcome.begin(), outcome.end(), std::uint8_t{1}));
-    const double nonEvents = double(outcome.size()) - events;
+    const double events = double(eventCount);
+    const double nonEvents = double(nonEventCount);
     double ap = 0.0;
     for (std::size_t k = 1; k < curve.size(); ++k) {
         const double tp = curve[k].sensitivity * events;

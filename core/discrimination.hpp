@@ -1,6 +1,7 @@
 #pragma once
 
 #include "estimate.hpp"
+#include "score_order.hpp"
 
 #include <cstddef>
 #include <cstdint>
@@ -21,10 +22,11 @@ struct Placements {
     std::vector<double> eventPlacements;
     std::vector<double> nonEventPlacements;
 };
+// One sweep over the ascending order: mid-ranks among all, among events and among non-events
+// come from the same tie blocks, so no further sort is needed.
+Placements delongPlacements(std::span<const std::uint8_t> outcome, std::span<const double> score,
+                            const ScoreOrder& order);
 Placements delongPlacements(std::span<const std::uint8_t> outcome, std::span<const double> score);
-
-// Mid-ranks (ties get the mean of the positions they occupy), 1-based.
-std::vector<double> midRanks(std::span<const double> values);
 
 // DeLong variance of one C from its placements (n−1 denominators, as in DeLong 1988).
 double delongVariance(const Placements& placements);
@@ -34,6 +36,7 @@ double delongCovariance(const Placements& a, const Placements& b);
 // C statistic (Mann–Whitney with mid-ranks; Hanley & McNeil 1982) with the DeLong SE and a 95 %
 // (or `confidence`) interval on the chosen scale. Undefined without both classes; no interval
 // with fewer than two of either class or C at 0 or 1 on the logit scale.
+Estimate cStatistic(const Placements& placements, CStatisticScale scale, double confidence);
 Estimate cStatistic(std::span<const std::uint8_t> outcome, std::span<const double> score, CStatisticScale scale,
                     double confidence);
 
@@ -44,6 +47,8 @@ struct RocPoint {
     double sensitivity;
     double specificity;
 };
+std::vector<RocPoint> rocCurve(std::span<const std::uint8_t> outcome, std::span<const double> score,
+                               const ScoreOrder& order);
 std::vector<RocPoint> rocCurve(std::span<const std::uint8_t> outcome, std::span<const double> score);
 
 // Thins a ROC curve for output to at most maxPoints. Points on the straight line between their
@@ -54,6 +59,7 @@ std::vector<RocPoint> thinRocCurve(const std::vector<RocPoint>& curve, std::size
 
 // Area under the precision–recall curve as average precision, step-wise: Σ (R_k − R_{k−1}) P_k
 // over distinct thresholds (the definition of scikit-learn's average_precision_score).
+std::optional<double> averagePrecision(const std::vector<RocPoint>& curve, std::size_t events, std::size_t nonEvents);
 std::optional<double> averagePrecision(std::span<const std::uint8_t> outcome, std::span<const double> score);
 
 // Discrimination slope: mean risk among events minus among non-events (Yates 1982).

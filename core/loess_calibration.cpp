@@ -15,7 +15,7 @@ struct SupportPoints {
     std::vector<double> events;
 };
 
-SupportPoints collapse(std::span<const std::uint8_t> y, std::span<const double> p, const std::vector<std::size_t>& order)
+SupportPoints collapse(std::span<const std::uint8_t> y, std::span<const double> p, const ScoreOrder& order)
 {
     SupportPoints s;
     for (std::size_t k = 0; k < order.size(); ++k) {
@@ -105,13 +105,17 @@ std::optional<double> fitAt(const SupportPoints& s, double x0, double q)
     return det0 / det;
 }
 
-double quantileType7(std::vector<double> values, double probability)
+// R's type-7 quantile (numpy's default) by selection, not a full sort: O(n).
+double quantileType7(std::vector<double>& values, double probability)
 {
-    std::sort(values.begin(), values.end());
     const double position = probability * double(values.size() - 1);
     const auto below = static_cast<std::size_t>(std::floor(position));
-    const std::size_t above = std::min(below + 1, values.size() - 1);
-    return values[below] + (position - double(below)) * (values[above] - values[below]);
+    std::nth_element(values.begin(), values.begin() + static_cast<long>(below), values.end());
+    const double low = values[below];
+    if (below + 1 >= values.size())
+        return low;
+    const double high = *std::min_element(values.begin() + static_cast<long>(below) + 1, values.end());
+    return low + (position - double(below)) * (high - low);
 }
 
 } // namespace
@@ -119,10 +123,13 @@ double quantileType7(std::vector<double> values, double probability)
 std::optional<LoessCalibration> loessCalibration(std::span<const std::uint8_t> outcome, std::span<const double> risk,
                                                  const LoessOptions& options)
 {
+    return loessCalibration(outcome, risk, ascendingOrder(risk), options);
+}
+
+std::optional<LoessCalibration> loessCalibration(std::span<const std::uint8_t> outcome, std::span<const double> risk,
+                                                 const ScoreOrder& order, const LoessOptions& options)
+{
     const std::size_t n = risk.size();
-    std::vector<std::size_t> order(n);
-    std::iota(order.begin(), order.end(), std::size_t{0});
-    std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) { return risk[a] < risk[b]; });
     SupportPoints support = collapse(outcome, risk, order);
     constexpr std::size_t minimumDistinct = 10; // fewer: a points score, not a smooth risk [common practice]
     const double q = std::floor(double(n) * options.span);

@@ -1,5 +1,7 @@
 #pragma once
 
+#include "score_order.hpp"
+
 #include <cstddef>
 #include <cstdint>
 #include <optional>
@@ -33,6 +35,8 @@ struct LoessOptions {
 
 // nullopt when the curve cannot be fitted: fewer than 10 distinct risks (e.g. a points score),
 // or a neighbourhood too small for a local quadratic.
+std::optional<LoessCalibration> loessCalibration(std::span<const std::uint8_t> outcome, std::span<const double> risk,
+                                                 const ScoreOrder& order, const LoessOptions& options = {});
 std::optional<LoessCalibration> loessCalibration(std::span<const std::uint8_t> outcome, std::span<const double> risk,
                                                  const LoessOptions& options = {});
 

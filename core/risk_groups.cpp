@@ -4,20 +4,22 @@
 #include "distributions.hpp"
 
 #include <algorithm>
-#include <numeric>
 
 namespace plumbline {
 
 std::vector<RiskGroup> riskGroups(std::span<const std::uint8_t> outcome, std::span<const double> risk,
                                   std::size_t groups, double confidence, CiMethod method)
 {
+    return riskGroups(outcome, risk, ascendingOrder(risk), groups, confidence, method);
+}
+
+std::vector<RiskGroup> riskGroups(std::span<const std::uint8_t> outcome, std::span<const double> risk,
+                                  const ScoreOrder& order, std::size_t groups, double confidence, CiMethod method)
+{
     const std::size_t n = risk.size();
     std::vector<RiskGroup> out;
     if (n == 0 || groups == 0)
         return out;
-    std::vector<std::size_t> order(n);
-    std::iota(order.begin(), order.end(), std::size_t{0});
-    std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) { return risk[a] < risk[b]; });
     const double target = double(n) / double(groups);
     // Boundaries: close a group once it reaches its cumulative target, at the end of a tie block.
     std::vector<std::pair<std::size_t, std::size_t>> spans;

@@ -1,6 +1,7 @@
 #pragma once
 
 #include "estimate.hpp"
+#include "score_order.hpp"
 
 #include <cstddef>
 #include <cstdint>
@@ -27,6 +28,8 @@ struct RiskGroup {
 // Groups of about N/g patients by ascending risk; a block of equal risks is never split across
 // groups, and a last group smaller than half the target is merged into the previous one
 // (tie-aware grouping as documented for general-purpose packages; methods reference §3.6).
+std::vector<RiskGroup> riskGroups(std::span<const std::uint8_t> outcome, std::span<const double> risk,
+                                  const ScoreOrder& order, std::size_t groups, double confidence, CiMethod method);
 std::vector<RiskGroup> riskGroups(std::span<const std::uint8_t> outcome, std::span<const double> risk,
                                   std::size_t groups, double confidence, CiMethod method);
 

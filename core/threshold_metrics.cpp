@@ -16,13 +16,19 @@ ProportionWithCi proportion(std::size_t x, std::size_t n, double confidence, CiM
 std::vector<ThresholdMetrics> thresholdMetrics(std::span<const std::uint8_t> outcome, std::span<const double> risk,
                                                std::span<const double> thresholds, double confidence, CiMethod method)
 {
-    // Sort once; each threshold is then a binary search over the sorted risks.
+    return thresholdMetrics(outcome, risk, ascendingOrder(risk), thresholds, confidence, method);
+}
+
+std::vector<ThresholdMetrics> thresholdMetrics(std::span<const std::uint8_t> outcome, std::span<const double> risk,
+                                               const ScoreOrder& order, std::span<const double> thresholds,
+                                               double confidence, CiMethod method)
+{
+    // Risks of each class in ascending order from the shared order; each threshold is then a
+    // binary search.
     std::vector<double> eventRisks;
     std::vector<double> nonEventRisks;
-    for (std::size_t i = 0; i < outcome.size(); ++i)
-        (outcome[i] ? eventRisks : nonEventRisks).push_back(risk[i]);
-    std::sort(eventRisks.begin(), eventRisks.end());
-    std::sort(nonEventRisks.begin(), nonEventRisks.end());
+    for (const std::uint32_t row : order)
+        (outcome[row] ? eventRisks : nonEventRisks).push_back(risk[row]);
     const std::size_t n = outcome.size();
     const double rate = n ? double(eventRisks.size()) / double(n) : 0.0;
     std::vector<ThresholdMetrics> out;

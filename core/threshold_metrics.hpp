@@ -1,6 +1,7 @@
 #pragma once
 
 #include "binomial_interval.hpp"
+#include "score_order.hpp"
 
 #include <cstddef>
 #include <cstdint>
@@ -29,6 +30,9 @@ struct ThresholdMetrics {
 };
 
 // thresholds must lie in (0, 1).
+std::vector<ThresholdMetrics> thresholdMetrics(std::span<const std::uint8_t> outcome, std::span<const double> risk,
+                                               const ScoreOrder& order, std::span<const double> thresholds,
+                                               double confidence, CiMethod method);
 std::vector<ThresholdMetrics> thresholdMetrics(std::span<const std::uint8_t> outcome, std::span<const double> risk,
                                                std::span<const double> thresholds, double confidence, CiMethod method);
 
