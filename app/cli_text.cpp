@@ -68,13 +68,11 @@ void printIntakeSummary(std::ostream& out, const IntakeSettings& settings, const
     }
     for (const auto& warning : audit.warnings)
         out << "\n  warning: " << warning << '\n';
-    out << '\n';
-    printCautions(out);
 }
 
 void printCautions(std::ostream& out)
 {
-    out << "Cautions:\n";
+    out << "\nCautions:\n";
     for (const auto caution : standardCautions)
         out << "  - " << caution << '\n';
 }

@@ -3,9 +3,12 @@
 #include "atomic_file.hpp"
 #include "cli_exit.hpp"
 #include "cli_intake_options.hpp"
+#include "cli_panel_options.hpp"
+#include "cli_panel_report.hpp"
 #include "cli_text.hpp"
 #include "intake.hpp"
 #include "result_json.hpp"
+#include "validation_json.hpp"
 
 #include <iostream>
 #include <memory>
@@ -16,17 +19,23 @@ namespace {
 
 struct ValidateOptions {
     IntakeOptions intake;
+    PanelOptions panel;
     std::string jsonFile;
 };
 
-nlohmann::ordered_json resultJson(const IntakeSettings& settings, const IntakeResult& result)
+nlohmann::ordered_json resultJson(const IntakeSettings& settings, const IntakeResult& intake,
+                                  const ValidationResult& validation)
 {
     nlohmann::ordered_json json;
     json["plumbline"] = provenanceJson(utcTimestamp());
-    json["inputs"] = inputsJson(result.inputs);
+    json["inputs"] = inputsJson(intake.inputs);
     json["settings"] = intakeSettingsJson(settings);
-    json["cohort"] = cohortJson(result.audit);
-    json["warnings"] = result.audit.warnings;
+    json["settings"]["panel"] = panelSettingsJson(validation.settings);
+    json["cohort"] = cohortJson(intake.audit);
+    json["models"] = modelsJson(validation);
+    std::vector<std::string> warnings = intake.audit.warnings;
+    warnings.insert(warnings.end(), validation.warnings.begin(), validation.warnings.end());
+    json["warnings"] = warnings;
     return json;
 }
 
@@ -35,12 +44,18 @@ int runValidate(const ValidateOptions& options, const CLI::App& command)
     const auto settings = options.intake.resolved(command);
     if (!settings)
         return reportError(settings.error());
+    const auto panel = options.panel.resolved();
+    if (!panel)
+        return reportError(panel.error());
     const auto result = runIntake(*settings);
     if (!result)
         return reportError(result.error());
+    const ValidationResult validation = runValidation(result->cohort, *panel);
     printIntakeSummary(std::cout, *settings, *result);
+    printPanel(std::cout, validation);
+    printCautions(std::cout);
     if (!options.jsonFile.empty()) {
-        const std::string text = resultJson(*settings, *result).dump(2) + "\n";
+        const std::string text = resultJson(*settings, *result, validation).dump(2) + "\n";
         if (auto written = writeFileAtomically(options.jsonFile, text); !written)
             return reportError(written.error());
         std::cout << "Result file: " << options.jsonFile << '\n';
@@ -55,6 +70,7 @@ void addValidateCommand(CLI::App& app, int& exitStatus)
     auto options = std::make_shared<ValidateOptions>();
     CLI::App* command = app.add_subcommand("validate", "Validate one or more risk models on a cohort.");
     options->intake.addTo(*command);
+    options->panel.addTo(*command);
     command->add_option("--json", options->jsonFile, "Write the full result as JSON");
     command->callback([options, command, &exitStatus] { exitStatus = runValidate(*options, *command); });
 }

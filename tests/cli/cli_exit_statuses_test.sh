@@ -27,7 +27,7 @@ expect 0 "" -- "$cli" validate "$sample" --outcome readmitted_30d --score suppli
 /usr/bin/python3 - "$work/r.json" <<'PY' || failures=$((failures+1))
 import json, sys
 r = json.load(open(sys.argv[1]))
-for block in ("plumbline", "inputs", "settings", "cohort", "warnings"):
+for block in ("plumbline", "inputs", "settings", "cohort", "models", "warnings"):
     assert block in r, block
 c = r["cohort"]
 assert c["rows_read"] == c["rows_used"] + sum(e["rows"] for e in c["exclusions"]), "audit does not balance"
@@ -49,6 +49,13 @@ expect 2 "line 2, column 'y'" -- "$cli" validate "$work/latin1.csv" --outcome y 
 expect 2 "delimiter" -- "$cli" validate "$sample" --outcome readmitted_30d --score supplier_score --delimiter ';'
 expect 2 "" -- "$cli" validate "$sample" --outcome readmitted_30d
 expect 2 "" -- "$cli" validate "$sample" --outcome readmitted_30d --score supplier_score --scale odds
+expect 2 "strictly between 0 and 1" -- "$cli" validate "$sample" --outcome readmitted_30d --score supplier_score --thresholds 0.1,1.5
+expect 2 "" -- "$cli" validate "$sample" --outcome readmitted_30d --score supplier_score --groups 1
+# The printed panel names its metrics, intervals and readings, and the cautions close it.
+out=$("$cli" validate "$sample" --outcome readmitted_30d --score supplier_score)
+for needle in "C statistic" "Calibration slope" "predictions too extreme" "positive if risk >= t" "Cautions:"; do
+  [[ $out == *"$needle"* ]] && echo "ok: table shows '$needle'" || { echo "FAIL: table lacks '$needle'"; failures=$((failures+1)); }
+done
 # Impossible analyses: exit 3.
 printf 'y,p\n0,0.2\n0,0.3\n' > "$work/oneclass.csv"
 expect 3 "both patients with and without the event" -- "$cli" validate "$work/oneclass.csv" --outcome y --score p

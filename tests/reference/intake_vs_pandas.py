@@ -5,37 +5,17 @@ intake rules (missing tokens, numbers, the probability range, complete cases, th
 applied here in plain Python, and every count must equal what plumbline-cli wrote to its JSON.
 Tolerance: exact (counts).
 """
-import json
-import subprocess
 import sys
-import tempfile
 
 import pandas as pd
 
+from reference_rows import is_missing, run_cli as run_full, score_status
+
 cli, samples = sys.argv[1], sys.argv[2]
-MISSING = {"", "na", "n/a", "null", ".", "nan"}
-
-
-def is_missing(value):
-    return value.strip().lower() in MISSING
-
-
-def score_status(value):
-    if is_missing(value):
-        return "missing score"
-    try:
-        x = float(value.strip())
-    except ValueError:
-        return "score is not a number"
-    if x != x or x in (float("inf"), float("-inf")):
-        return "score is not finite"
-    return "score outside the scale's range" if not 0.0 <= x <= 1.0 else None
 
 
 def run_cli(args):
-    with tempfile.NamedTemporaryFile(suffix=".json") as out:
-        subprocess.run([cli, "validate", *args, "--json", out.name], check=True, capture_output=True)
-        return json.load(open(out.name))["cohort"]
+    return run_full(cli, args)["cohort"]
 
 
 def expected_single(frame, scores):

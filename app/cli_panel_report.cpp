@@ -1,0 +1,109 @@
+#include "cli_panel_report.hpp"
+
+#include "metric_reading.hpp"
+
+#include <cstdio>
+#include <iomanip>
+#include <string>
+
+namespace plumbline::cli {
+
+namespace {
+
+std::string number(const std::optional<double>& value, int digits = 3)
+{
+    if (!value)
+        return "-";
+    char buffer[32];
+    std::snprintf(buffer, sizeof buffer, "%.*f", digits, *value);
+    return buffer;
+}
+
+std::string pValue(double p)
+{
+    if (p < 0.001)
+        return "< 0.001";
+    return number(p, 3);
+}
+
+std::string interval(const Estimate& e)
+{
+    if (!e.lower || !e.upper)
+        return e.value ? "(no interval)" : "not estimable";
+    return number(e.lower) + " to " + number(e.upper);
+}
+
+void printMetrics(std::ostream& out, const ModelValidation& model, double confidence)
+{
+    char ciHeader[32];
+    std::snprintf(ciHeader, sizeof ciHeader, "%g %% CI", confidence * 100.0);
+    out << "  " << std::left << std::setw(27) << "metric" << std::right << std::setw(9) << "estimate" << "   "
+        << std::left << std::setw(18) << ciHeader << "reading\n";
+    for (const auto& entry : model.metrics) {
+        const bool small = entry.key == "ici" || entry.key == "e50" || entry.key == "e90" || entry.key == "emax"
+            || entry.key == "brier";
+        out << "  " << std::left << std::setw(27) << metricLabel(entry.key) << std::right << std::setw(9)
+            << number(entry.estimate.value, small ? 4 : 3) << "   " << std::left << std::setw(18)
+            << interval(entry.estimate) << entry.reading << '\n';
+    }
+}
+
+void printTests(std::ostream& out, const ModelValidation& model)
+{
+    if (model.hosmerLemeshow)
+        out << "  Hosmer-Lemeshow: chi2 " << number(model.hosmerLemeshow->statistic, 2) << ", df "
+            << model.hosmerLemeshow->df << " (one per risk group: external validation), p "
+            << pValue(model.hosmerLemeshow->pValue) << "; large cohorts reject small miscalibration, read the table\n";
+    if (model.spiegelhalter)
+        out << "  Spiegelhalter: z " << number(model.spiegelhalter->z, 2) << ", p " << pValue(model.spiegelhalter->pValue) << '\n';
+    if (model.likelihoodRatio) {
+        const auto& lr = *model.likelihoodRatio;
+        out << "  Likelihood-ratio tests: intercept 0 and slope 1 jointly p " << pValue(lr.joint.pValue)
+            << "; calibration-in-the-large p " << pValue(lr.interceptOnly.pValue) << "; slope given intercept p "
+            << pValue(lr.slopeGivenIntercept.pValue) << '\n';
+    }
+}
+
+void printRiskGroups(std::ostream& out, const ModelValidation& model)
+{
+    if (model.riskGroups.empty())
+        return;
+    out << "  Risk groups:  group       n   events  expected  mean risk  observed  (CI)\n" << std::right;
+    for (const auto& g : model.riskGroups)
+        out << "                " << std::setw(5) << g.group << std::setw(8) << g.n << std::setw(9) << g.events
+            << std::setw(10) << number(g.expected, 1) << std::setw(11) << number(g.meanPredicted) << std::setw(10)
+            << number(g.observedRate) << "  (" << number(g.ciLower) << "-" << number(g.ciUpper) << ")\n";
+}
+
+void printThresholds(std::ostream& out, const ModelValidation& model)
+{
+    if (model.thresholds.empty())
+        return;
+    out << "  At thresholds (positive if risk >= t):\n"
+        << "      t   flagged   sens   spec    PPV    NPV   net benefit  treat all\n" << std::right;
+    for (const auto& t : model.thresholds)
+        out << "  " << std::setw(5) << number(t.threshold, 2) << std::setw(10) << number(t.flagRate.value) << std::setw(7)
+            << number(t.sensitivity.value) << std::setw(7) << number(t.specificity.value) << std::setw(7)
+            << number(t.ppv.value) << std::setw(7) << number(t.npv.value) << std::setw(14) << number(t.netBenefit, 4)
+            << std::setw(11) << number(t.netBenefitTreatAll, 4) << '\n';
+}
+
+} // namespace
+
+void printPanel(std::ostream& out, const ValidationResult& result)
+{
+    for (const auto& model : result.models) {
+        out << "\nModel " << model.name << "\n";
+        printMetrics(out, model, result.settings.confidence);
+        printTests(out, model);
+        printRiskGroups(out, model);
+        printThresholds(out, model);
+    }
+    if (!result.warnings.empty()) {
+        out << "\nWarnings:\n";
+        for (const auto& warning : result.warnings)
+            out << "  - " << warning << '\n';
+    }
+}
+
+} // namespace plumbline::cli

@@ -1,0 +1,150 @@
+#include "metric_reading.hpp"
+
+#include <array>
+#include <cmath>
+#include <cstdio>
+#include <utility>
+
+namespace plumbline {
+
+namespace {
+
+enum class Side { Below, Inside, Above, Unknown };
+
+// Where the interval lies relative to the value of no miscalibration (or of chance).
+Side sideOf(const Estimate& e, double reference)
+{
+    if (!e.lower || !e.upper)
+        return Side::Unknown;
+    if (*e.upper < reference)
+        return Side::Below;
+    if (*e.lower > reference)
+        return Side::Above;
+    return Side::Inside;
+}
+
+std::string percentPoints(double value)
+{
+    char buffer[48];
+    std::snprintf(buffer, sizeof buffer, "%.1f percentage points", 100.0 * value);
+    return buffer;
+}
+
+std::string readC(const Estimate& e)
+{
+    const double c = *e.value;
+    if (sideOf(e, 0.5) == Side::Inside)
+        return "not clearly better than chance (the interval includes 0.5)";
+    if (c < 0.5)
+        return "ranks patients in the wrong order more often than not";
+    // Verbal labels of Hosmer & Lemeshow, Applied Logistic Regression (from memory).
+    if (c < 0.6)
+        return "poor discrimination";
+    if (c < 0.7)
+        return "modest discrimination";
+    if (c < 0.8)
+        return "acceptable discrimination";
+    if (c < 0.9)
+        return "excellent discrimination";
+    return "outstanding discrimination; check for information from after the time of prediction";
+}
+
+std::string readIntercept(const Estimate& e)
+{
+    switch (sideOf(e, 0.0)) {
+    case Side::Below: return "over-predicts on average (fewer events than the risks imply)";
+    case Side::Above: return "under-predicts on average (more events than the risks imply)";
+    case Side::Inside: return "average risk consistent with the observed rate";
+    case Side::Unknown: return *e.value < 0 ? "risks on average above the observed rate" : "risks on average below the observed rate";
+    }
+    return {};
+}
+
+std::string readSlope(const Estimate& e)
+{
+    switch (sideOf(e, 1.0)) {
+    case Side::Below: return "predictions too extreme (high risks too high, low risks too low)";
+    case Side::Above: return "predictions too moderate (risks not spread out enough)";
+    case Side::Inside: return "spread of risks consistent with the outcomes";
+    case Side::Unknown: return *e.value < 1 ? "predictions look too extreme" : "predictions look too moderate";
+    }
+    return {};
+}
+
+std::string readOe(const Estimate& e)
+{
+    switch (sideOf(e, 1.0)) {
+    case Side::Below: return "fewer events observed than expected: the model over-predicts";
+    case Side::Above: return "more events observed than expected: the model under-predicts";
+    case Side::Inside: return "observed events consistent with expected";
+    case Side::Unknown: return "observed / expected events";
+    }
+    return {};
+}
+
+} // namespace
+
+std::string metricLabel(std::string_view key)
+{
+    static const std::array<std::pair<std::string_view, std::string_view>, 15> labels{{
+        {"c_statistic", "C statistic"},
+        {"auprc", "Average precision (AUPRC)"},
+        {"discrimination_slope", "Discrimination slope"},
+        {"calibration_intercept", "Calibration-in-the-large"},
+        {"calibration_slope", "Calibration slope"},
+        {"recalibration_intercept", "Recalibration intercept"},
+        {"oe_ratio", "Observed / expected"},
+        {"ici", "ICI"},
+        {"e50", "E50"},
+        {"e90", "E90"},
+        {"emax", "Emax"},
+        {"brier", "Brier score"},
+        {"scaled_brier", "Scaled Brier score"},
+        {"log_loss", "Log loss"},
+        {"nagelkerke_r2", "Nagelkerke R2"},
+    }};
+    for (const auto& [k, label] : labels)
+        if (k == key)
+            return std::string(label);
+    return std::string(key);
+}
+
+std::string metricReading(std::string_view key, const Estimate& e)
+{
+    if (!e.value)
+        return {};
+    const double v = *e.value;
+    if (key == "c_statistic")
+        return readC(e);
+    if (key == "calibration_intercept")
+        return readIntercept(e);
+    if (key == "calibration_slope")
+        return readSlope(e);
+    if (key == "oe_ratio")
+        return readOe(e);
+    if (key == "recalibration_intercept")
+        return "intercept of the recalibration fit, read with the slope (not the calibration-in-the-large)";
+    if (key == "auprc")
+        return "precision averaged over recall; compare with the event rate (its value for a useless score)";
+    if (key == "discrimination_slope")
+        return "mean risk of patients with the event minus mean risk of those without";
+    if (key == "ici")
+        return "smoothed observed and predicted risk differ by " + percentPoints(v) + " on average";
+    if (key == "e50")
+        return "half of patients have a calibration error below " + percentPoints(v);
+    if (key == "e90")
+        return "90 % of patients have a calibration error below " + percentPoints(v);
+    if (key == "emax")
+        return "largest calibration error on the smoothed curve";
+    if (key == "brier")
+        return "mean squared error of the risks (lower is better; read the scaled version)";
+    if (key == "scaled_brier")
+        return v <= 0 ? "no better than giving everyone the observed rate" : "improvement over giving everyone the observed rate";
+    if (key == "log_loss")
+        return "mean negative log-likelihood of the risks (lower is better)";
+    if (key == "nagelkerke_r2")
+        return v <= 0 ? "explains no variation beyond the observed rate" : "share of variation explained";
+    return {};
+}
+
+} // namespace plumbline

@@ -1,0 +1,18 @@
+#pragma once
+
+#include "estimate.hpp"
+
+#include <string>
+#include <string_view>
+
+namespace plumbline {
+
+// One line of plain words on what an estimate means for the model ("predictions too extreme"),
+// judged on the interval where there is one, so that chance is not read as a finding.
+// Empty when the metric is undefined. Shared by the CLI, the window and the reports.
+std::string metricReading(std::string_view key, const Estimate& estimate);
+
+// The metric's name for people ("Calibration slope").
+std::string metricLabel(std::string_view key);
+
+} // namespace plumbline

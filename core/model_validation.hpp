@@ -1,0 +1,53 @@
+#pragma once
+
+#include "calibration_lr_tests.hpp"
+#include "calibration_summary.hpp"
+#include "cohort.hpp"
+#include "discrimination.hpp"
+#include "estimate.hpp"
+#include "panel_settings.hpp"
+#include "risk_groups.hpp"
+#include "threshold_metrics.hpp"
+
+#include <optional>
+#include <string>
+#include <string_view>
+#include <vector>
+
+namespace plumbline {
+
+// One metric of the panel: its interface key, the estimate and a plain-words reading.
+struct MetricEntry {
+    std::string key;
+    Estimate estimate;
+    std::string reading;
+};
+
+struct CalibrationCurvePoint {
+    double predicted;
+    double observed; // smoothed observed risk (raw loess value, may leave 0-1)
+};
+
+// Everything the panel says about one model on one cohort. An immutable snapshot.
+struct ModelValidation {
+    std::string name;
+    std::vector<MetricEntry> metrics; // every panel key, in display order; undefined → empty value
+    std::optional<HosmerLemeshowTest> hosmerLemeshow;
+    std::optional<SpiegelhalterTest> spiegelhalter;
+    std::optional<CalibrationLikelihoodRatioTests> likelihoodRatio;
+    std::vector<RiskGroup> riskGroups;
+    std::vector<RocPoint> roc;
+    std::vector<CalibrationCurvePoint> calibrationCurve;
+    std::string calibrationCurveMethod; // "direct", "binned" or empty when no curve
+    std::vector<ThresholdMetrics> thresholds;
+    std::vector<std::string> warnings; // each says which value is missing or doubtful, and why
+
+    const Estimate* metric(std::string_view key) const;
+};
+
+// The metric panel for one model (discrimination, calibration, overall accuracy, thresholds),
+// with analytic intervals. A points-scale score gets discrimination only.
+ModelValidation validateModel(const std::vector<std::uint8_t>& outcome, const ModelScores& model, ScoreScale scale,
+                              const PanelSettings& settings);
+
+} // namespace plumbline

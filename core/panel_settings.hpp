@@ -1,0 +1,22 @@
+#pragma once
+
+#include "discrimination.hpp"
+#include "estimate.hpp"
+
+#include <cstddef>
+#include <vector>
+
+namespace plumbline {
+
+// The options of the metric panel (the analysis file records them).
+struct PanelSettings {
+    double confidence = 0.95;
+    std::size_t riskGroups = 10;
+    std::vector<double> thresholds{0.1, 0.2, 0.3}; // each in (0, 1); "positive" means p ≥ t
+    CStatisticScale cStatisticScale = CStatisticScale::Logit;
+    CiMethod binomialInterval = CiMethod::Wilson; // or ClopperPearson
+    std::size_t rocPoints = 1000;                  // ROC points written out (C uses all data)
+    std::size_t calibrationCurvePoints = 200;      // smoothed-curve points written out
+};
+
+} // namespace plumbline

@@ -1,0 +1,25 @@
+#pragma once
+
+#include "cohort.hpp"
+#include "model_validation.hpp"
+#include "panel_settings.hpp"
+
+#include <string>
+#include <vector>
+
+namespace plumbline {
+
+// The metric panel for every model of a cohort: one immutable snapshot.
+struct ValidationResult {
+    PanelSettings settings;
+    std::vector<ModelValidation> models;
+    std::vector<std::string> warnings; // cohort-level, then each model's
+
+    const ModelValidation* model(const std::string& name) const;
+};
+
+// Runs the panel for each model, models in parallel on up to `threads` threads (the result does
+// not depend on the thread count), and adds the cohort-level cautions on precision.
+ValidationResult runValidation(const Cohort& cohort, const PanelSettings& settings, unsigned threads = 2);
+
+} // namespace plumbline

@@ -1,0 +1,127 @@
+#include "validation_json.hpp"
+
+#include <cmath>
+
+namespace plumbline {
+
+namespace {
+
+using Json = nlohmann::ordered_json;
+
+Json estimateJson(const Estimate& e)
+{
+    return {{"estimate", numberOrNull(e.value)},
+            {"se", numberOrNull(e.se)},
+            {"ci_lower", numberOrNull(e.lower)},
+            {"ci_upper", numberOrNull(e.upper)},
+            {"ci_method", e.value ? Json(ciMethodName(e.ciMethod)) : Json(nullptr)}};
+}
+
+Json testsJson(const ModelValidation& m)
+{
+    Json tests = Json::object();
+    if (m.hosmerLemeshow) {
+        const auto& hl = *m.hosmerLemeshow;
+        tests["hosmer_lemeshow"] = {{"statistic", hl.statistic}, {"df", hl.df}, {"groups", hl.groups}, {"p_value", hl.pValue},
+                                    {"df_rule", "g (external validation: nothing estimated on these data)"}};
+    } else {
+        tests["hosmer_lemeshow"] = nullptr;
+    }
+    tests["spiegelhalter"] = m.spiegelhalter ? Json{{"z", m.spiegelhalter->z}, {"p_value", m.spiegelhalter->pValue}} : Json(nullptr);
+    if (m.likelihoodRatio) {
+        auto lr = [](const LikelihoodRatioTest& t) { return Json{{"statistic", t.statistic}, {"df", t.df}, {"p_value", t.pValue}}; };
+        tests["likelihood_ratio_joint"] = lr(m.likelihoodRatio->joint);
+        tests["likelihood_ratio_calibration_in_the_large"] = lr(m.likelihoodRatio->interceptOnly);
+        tests["likelihood_ratio_slope_given_intercept"] = lr(m.likelihoodRatio->slopeGivenIntercept);
+    }
+    return tests;
+}
+
+Json riskGroupsJson(const ModelValidation& m)
+{
+    Json out = Json::array();
+    for (const auto& g : m.riskGroups)
+        out.push_back({{"group", g.group}, {"n", g.n}, {"events", g.events}, {"expected", g.expected},
+                       {"mean_predicted", g.meanPredicted}, {"observed_rate", g.observedRate}, {"ci_lower", g.ciLower},
+                       {"ci_upper", g.ciUpper}, {"risk_min", g.riskMin}, {"risk_max", g.riskMax}});
+    return out;
+}
+
+void proportion(Json& row, const std::string& key, const ProportionWithCi& value)
+{
+    row[key] = numberOrNull(value.value);
+    row[key + "_ci_lower"] = value.ci ? Json(value.ci->lower) : Json(nullptr);
+    row[key + "_ci_upper"] = value.ci ? Json(value.ci->upper) : Json(nullptr);
+}
+
+Json thresholdsJson(const ModelValidation& m)
+{
+    Json out = Json::array();
+    for (const auto& t : m.thresholds) {
+        Json row{{"threshold", t.threshold}, {"positive_if", "risk >= threshold"},
+                 {"tp", t.tp}, {"fp", t.fp}, {"tn", t.tn}, {"fn", t.fn}};
+        proportion(row, "sensitivity", t.sensitivity);
+        proportion(row, "specificity", t.specificity);
+        proportion(row, "ppv", t.ppv);
+        proportion(row, "npv", t.npv);
+        proportion(row, "flag_rate", t.flagRate);
+        row["number_needed_to_evaluate"] = numberOrNull(t.numberNeededToEvaluate);
+        row["net_benefit"] = t.netBenefit;
+        row["net_benefit_treat_all"] = t.netBenefitTreatAll;
+        out.push_back(row);
+    }
+    return out;
+}
+
+Json modelJson(const ModelValidation& m)
+{
+    Json model;
+    model["name"] = m.name;
+    Json metrics = Json::object();
+    Json readings = Json::object();
+    for (const auto& entry : m.metrics) {
+        metrics[entry.key] = estimateJson(entry.estimate);
+        readings[entry.key] = entry.reading.empty() ? Json(nullptr) : Json(entry.reading);
+    }
+    model["metrics"] = metrics;
+    model["readings"] = readings;
+    model["tests"] = testsJson(m);
+    model["risk_groups"] = riskGroupsJson(m);
+    Json roc = Json::array();
+    for (const auto& point : m.roc)
+        roc.push_back({{"threshold", point.threshold}, {"sensitivity", point.sensitivity}, {"specificity", point.specificity}});
+    model["roc"] = roc;
+    Json curve = Json::array();
+    for (const auto& point : m.calibrationCurve)
+        curve.push_back({{"predicted", point.predicted}, {"observed", point.observed}, {"ci_lower", nullptr}, {"ci_upper", nullptr}});
+    model["calibration_curve"] = curve;
+    model["calibration_curve_method"] = m.calibrationCurveMethod.empty() ? Json(nullptr) : Json(m.calibrationCurveMethod);
+    model["thresholds"] = thresholdsJson(m);
+    return model;
+}
+
+} // namespace
+
+Json numberOrNull(const std::optional<double>& value)
+{
+    return value && std::isfinite(*value) ? Json(*value) : Json(nullptr);
+}
+
+Json modelsJson(const ValidationResult& result)
+{
+    Json out = Json::array();
+    for (const auto& model : result.models)
+        out.push_back(modelJson(model));
+    return out;
+}
+
+Json panelSettingsJson(const PanelSettings& settings)
+{
+    return {{"confidence", settings.confidence},
+            {"risk_groups", settings.riskGroups},
+            {"thresholds", settings.thresholds},
+            {"c_statistic_interval", settings.cStatisticScale == CStatisticScale::Logit ? "logit" : "plain"},
+            {"binomial_interval", settings.binomialInterval == CiMethod::ClopperPearson ? "clopper-pearson" : "wilson"}};
+}
+
+} // namespace plumbline

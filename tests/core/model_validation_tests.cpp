@@ -1,0 +1,137 @@
+#include "check_datasets.hpp"
+#include "model_validation.hpp"
+#include "validation.hpp"
+#include "validation_json.hpp"
+
+#include <catch2/catch.hpp>
+
+using namespace plumbline;
+using namespace plumbline::test;
+using Catch::Matchers::WithinAbs;
+
+namespace {
+
+Cohort cohortOf(const CheckData& data, ScoreScale scale = ScoreScale::Probability)
+{
+    Cohort cohort;
+    cohort.outcome = data.y;
+    cohort.models.push_back({"model", data.p});
+    cohort.scale = scale;
+    return cohort;
+}
+
+bool mentions(const std::vector<std::string>& warnings, const std::string& fragment)
+{
+    for (const auto& w : warnings)
+        if (w.find(fragment) != std::string::npos)
+            return true;
+    return false;
+}
+
+} // namespace
+
+TEST_CASE("The panel carries the estimators' check values for Toy-20", "[panel]")
+{
+    // Values: shared/methods.md §1-§4 (see the estimator tests for their sources).
+    const ValidationResult result = runValidation(cohortOf(toy20A()), PanelSettings{});
+    const ModelValidation& m = result.models.at(0);
+    CHECK_THAT(*m.metric("c_statistic")->value, WithinAbs(0.703125, 1e-12));
+    CHECK_THAT(*m.metric("calibration_intercept")->value, WithinAbs(0.2603346, 1e-7));
+    CHECK_THAT(*m.metric("calibration_slope")->value, WithinAbs(0.5024740, 1e-7));
+    CHECK_THAT(*m.metric("recalibration_intercept")->value, WithinAbs(-0.0550359, 1e-7));
+    CHECK_THAT(*m.metric("oe_ratio")->value, WithinAbs(1.1267606, 1e-7));
+    CHECK_THAT(*m.metric("ici")->value, WithinAbs(0.1072957, 1e-6));
+    CHECK_THAT(*m.metric("brier")->value, WithinAbs(0.22629, 1e-9));
+    CHECK_THAT(*m.metric("nagelkerke_r2")->value, WithinAbs(0.0156650, 1e-7));
+    CHECK_THAT(*m.metric("discrimination_slope")->value, WithinAbs(0.1583333, 1e-7));
+    CHECK(m.metric("calibration_slope")->ciMethod == CiMethod::Wald);
+    // Wald interval of the slope: b ± 1.959964·SE (SE from statsmodels 0.13.5, see the fit tests).
+    CHECK_THAT(*m.metric("calibration_slope")->lower, WithinAbs(0.5024740 - 1.959963984540054 * 0.38537464, 1e-6));
+    CHECK(m.hosmerLemeshow->groups == 10);
+    CHECK(m.thresholds.size() == 3);
+    CHECK(m.metrics.size() == 15);
+    for (const auto& entry : m.metrics)
+        CHECK_FALSE(entry.reading.empty());
+}
+
+TEST_CASE("Every metric key of the interface is in the JSON and undefined values are null", "[panel][json]")
+{
+    CheckData data = toy20A();
+    data.p[3] = 0.0; // an event predicted with certainty not to happen: log loss infinite
+    const ValidationResult result = runValidation(cohortOf(data), PanelSettings{});
+    const auto json = modelsJson(result);
+    const auto& metrics = json.at(0).at("metrics");
+    for (const char* key : {"c_statistic", "auprc", "brier", "scaled_brier", "log_loss", "nagelkerke_r2",
+                            "discrimination_slope", "oe_ratio", "calibration_intercept", "calibration_slope",
+                            "recalibration_intercept", "ici", "e50", "e90", "emax"})
+        CHECK(metrics.contains(key));
+    CHECK(metrics.at("log_loss").at("estimate").is_null());
+    CHECK(mentions(result.warnings, "log loss and Nagelkerke R2 are infinite"));
+    CHECK(mentions(result.warnings, "exactly 0 or 1"));
+    CHECK(json.dump().find("NaN") == std::string::npos);
+}
+
+TEST_CASE("A points score gets discrimination only with a warning", "[panel]")
+{
+    const ValidationResult result = runValidation(cohortOf(hm109(), ScoreScale::Points), PanelSettings{});
+    const ModelValidation& m = result.models.at(0);
+    CHECK_THAT(*m.metric("c_statistic")->value, WithinAbs(1321.0 / 1479.0, 1e-12));
+    CHECK_FALSE(m.metric("calibration_slope")->value);
+    CHECK_FALSE(m.metric("brier")->value);
+    CHECK_FALSE(m.metric("discrimination_slope")->value);
+    CHECK(m.thresholds.empty());
+    CHECK(m.riskGroups.empty());
+    CHECK(mentions(result.warnings, "points scale"));
+}
+
+TEST_CASE("Equal scores and separation leave the undefined values empty with reasons", "[panel]")
+{
+    CheckData equal = toy20A();
+    std::fill(equal.p.begin(), equal.p.end(), 0.3);
+    const ValidationResult flatResult = runValidation(cohortOf(equal), PanelSettings{});
+    const ModelValidation& flat = flatResult.models.at(0);
+    CHECK(*flat.metric("c_statistic")->value == 0.5);
+    CHECK_FALSE(flat.metric("calibration_slope")->value);
+    CHECK(flat.metric("calibration_intercept")->value);
+    CHECK_FALSE(flat.metric("ici")->value);
+    CHECK(mentions(flat.warnings, "calibration slope cannot be estimated"));
+    CHECK(mentions(flat.warnings, "at least 10 distinct risks"));
+    CHECK(mentions(flat.warnings, "risk groups could be formed"));
+
+    CheckData separated = toy20A();
+    for (std::size_t i = 0; i < separated.p.size(); ++i)
+        separated.p[i] = separated.y[i] ? 0.6 + 0.01 * double(i) : 0.1 + 0.01 * double(i);
+    const ValidationResult result = runValidation(cohortOf(separated), PanelSettings{});
+    const ModelValidation& sep = result.models.at(0);
+    CHECK(*sep.metric("c_statistic")->value == 1.0);
+    CHECK_FALSE(sep.metric("c_statistic")->lower);
+    CHECK_FALSE(sep.metric("calibration_slope")->value);
+    CHECK(mentions(result.warnings, "above 0.85"));
+    CHECK(mentions(result.warnings, "smaller outcome class")); // 8 events
+}
+
+TEST_CASE("Results do not depend on the number of threads", "[panel]")
+{
+    Cohort cohort = cohortOf(gen1000());
+    cohort.models.push_back({"second", toy20A().p});
+    cohort.models.back().values.resize(1000, 0.2);
+    cohort.models.push_back({"third", gen1000().p});
+    const auto one = modelsJson(runValidation(cohort, PanelSettings{}, 1)).dump();
+    const auto two = modelsJson(runValidation(cohort, PanelSettings{}, 2)).dump();
+    const auto four = modelsJson(runValidation(cohort, PanelSettings{}, 4)).dump();
+    CHECK(one == two);
+    CHECK(one == four);
+}
+
+TEST_CASE("Readings follow the interval not just the estimate", "[panel]")
+{
+    const ValidationResult result = runValidation(cohortOf(gen1000()), PanelSettings{});
+    const ModelValidation& gen = result.models.at(0);
+    // Gen-1000's slope is 0.80 with an interval below 1 (methods §3.2): too extreme.
+    for (const auto& entry : gen.metrics) {
+        if (entry.key == "calibration_slope")
+            CHECK(entry.reading.find("too extreme") != std::string::npos);
+        if (entry.key == "oe_ratio") // interval 0.85-1.03 includes 1
+            CHECK(entry.reading.find("consistent") != std::string::npos);
+    }
+}
