@@ -1,7 +1,6 @@
 #include "calibration_lr_tests.hpp"
 
 #include "distributions.hpp"
-#include "logistic_recalibration.hpp"
 
 #include <algorithm>
 
@@ -16,6 +15,13 @@ LikelihoodRatioTest lrTest(double reduced, double full, int df)
 }
 } // namespace
 
+CalibrationLikelihoodRatioTests calibrationLikelihoodRatioTests(double original, const InterceptFit& intercept,
+                                                                const SlopeFit& slope)
+{
+    return {lrTest(original, slope.logLikelihood, 2), lrTest(original, intercept.logLikelihood, 1),
+            lrTest(intercept.logLikelihood, slope.logLikelihood, 1)};
+}
+
 std::optional<CalibrationLikelihoodRatioTests> calibrationLikelihoodRatioTests(std::span<const std::uint8_t> outcome,
                                                                                std::span<const double> lp)
 {
@@ -23,10 +29,7 @@ std::optional<CalibrationLikelihoodRatioTests> calibrationLikelihoodRatioTests(s
     const auto slope = fitCalibrationSlope(outcome, lp);
     if (!intercept || !slope)
         return std::nullopt;
-    const double original = logLikelihoodOfLogits(outcome, lp);
-    return CalibrationLikelihoodRatioTests{lrTest(original, slope->logLikelihood, 2),
-                                           lrTest(original, intercept->logLikelihood, 1),
-                                           lrTest(intercept->logLikelihood, slope->logLikelihood, 1)};
+    return calibrationLikelihoodRatioTests(logLikelihoodOfLogits(outcome, lp), *intercept, *slope);
 }
 
 } // namespace plumbline

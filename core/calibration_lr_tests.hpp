@@ -1,5 +1,7 @@
 #pragma once
 
+#include "logistic_recalibration.hpp"
+
 #include <cstdint>
 #include <optional>
 #include <span>
@@ -21,7 +23,13 @@ struct CalibrationLikelihoodRatioTests {
     LikelihoodRatioTest slopeGivenIntercept;
 };
 
-// nullopt when either fit is not estimable (one class, separation, constant risks).
+// From fits already made (no refitting): the log-likelihoods of the unmodified risks, of the
+// intercept-only and of the intercept-and-slope recalibration.
+CalibrationLikelihoodRatioTests calibrationLikelihoodRatioTests(double logLikelihoodOriginal, const InterceptFit& intercept,
+                                                                const SlopeFit& slope);
+
+// Fits both models first; nullopt when either is not estimable (one class, separation,
+// constant risks).
 std::optional<CalibrationLikelihoodRatioTests> calibrationLikelihoodRatioTests(std::span<const std::uint8_t> outcome,
                                                                                std::span<const double> lp);
 

@@ -29,7 +29,7 @@ struct LoessCalibration {
 
 struct LoessOptions {
     double span = 0.75;
-    std::size_t maxSupportPoints = 10000;
+    std::size_t maxSupportPoints = 2000;
     std::size_t exactUpTo = 5000;   // always exact (no binning) up to this many patients
 };
 

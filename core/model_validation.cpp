@@ -67,17 +67,20 @@ public:
         if (clamped > 0)
             warn(std::to_string(clamped) + " patients have a predicted risk of exactly 0 or 1; the calibration regressions use 1e-12 and 1 - 1e-12 for them.");
         const double confidence = m_settings.confidence;
-        if (const auto intercept = fitCalibrationIntercept(m_y, lp))
+        const auto intercept = fitCalibrationIntercept(m_y, lp);
+        if (intercept)
             set("calibration_intercept", wald(intercept->alpha, intercept->se, confidence));
         else
             warn("calibration-in-the-large cannot be estimated (the fit does not converge).");
-        if (const auto slope = fitCalibrationSlope(m_y, lp)) {
+        const auto slope = fitCalibrationSlope(m_y, lp);
+        if (slope) {
             set("calibration_slope", wald(slope->slope, slope->slopeSe, confidence));
             set("recalibration_intercept", wald(slope->intercept, slope->interceptSe, confidence));
         } else {
             warn("the calibration slope cannot be estimated: the risks separate the outcomes perfectly or are all equal.");
         }
-        m_result.likelihoodRatio = calibrationLikelihoodRatioTests(m_y, lp);
+        if (intercept && slope)
+            m_result.likelihoodRatio = calibrationLikelihoodRatioTests(logLikelihoodOfLogits(m_y, lp), *intercept, *slope);
         set("oe_ratio", observedExpectedRatio(m_y, m_p, m_settings.confidence));
         m_result.spiegelhalter = spiegelhalterTest(m_y, m_p);
         if (!m_result.spiegelhalter)

@@ -1,11 +1,11 @@
 // plumbline-bench: times the core on a large simulated cohort and reports numbers (never a
 // pass/fail test: shared machines make timings noisy). Driven by run_benchmarks.sh.
 //
-//   plumbline-bench intake FILE [REPEATS]
-//
-// Prints one line per repeat and a summary: wall seconds (median), peak resident memory of the
-// process and its ratio to the file size.
+//   plumbline-bench intake FILE [REPEATS]   intake alone: wall seconds, peak memory / file size
+//   plumbline-bench panel FILE [REPEATS]    the whole metric panel (ICI included) after intake,
+//                                           for both score columns of a simulated cohort
 #include "intake.hpp"
+#include "validation.hpp"
 
 #include <sys/resource.h>
 
@@ -54,14 +54,42 @@ int benchmarkIntake(const std::string& path, int repeats)
     return 0;
 }
 
+int benchmarkPanel(const std::string& path, int repeats)
+{
+    plumbline::IntakeSettings settings;
+    settings.cohortFile = path;
+    settings.outcomeColumn = "readmitted_30d";
+    settings.scoreColumns = {"supplier_score", "local_score"};
+    const auto intake = plumbline::runIntake(settings);
+    if (!intake) {
+        std::fprintf(stderr, "intake failed: %s\n", intake.error().message().c_str());
+        return 1;
+    }
+    std::vector<double> seconds;
+    for (int r = 0; r < repeats; ++r) {
+        const auto start = std::chrono::steady_clock::now();
+        const auto result = plumbline::runValidation(intake->cohort, plumbline::PanelSettings{});
+        const auto stop = std::chrono::steady_clock::now();
+        seconds.push_back(std::chrono::duration<double>(stop - start).count());
+        std::printf("  run %d: %.3f s (C %.4f, ICI %.4f, curve %s)\n", r + 1, seconds.back(),
+                    *result.models[0].metric("c_statistic")->value, *result.models[0].metric("ici")->value,
+                    result.models[0].calibrationCurveMethod.c_str());
+    }
+    std::sort(seconds.begin(), seconds.end());
+    std::printf("plumbline panel: rows=%zu models=2 median_s=%.3f best_s=%.3f\n", intake->cohort.rows(),
+                seconds[seconds.size() / 2], seconds.front());
+    return 0;
+}
+
 } // namespace
 
 int main(int argc, char** argv)
 {
-    if (argc < 3 || std::string(argv[1]) != "intake") {
-        std::fprintf(stderr, "usage: plumbline-bench intake FILE [REPEATS]\n");
+    const std::string mode = argc > 1 ? argv[1] : "";
+    if (argc < 3 || (mode != "intake" && mode != "panel")) {
+        std::fprintf(stderr, "usage: plumbline-bench intake|panel FILE [REPEATS]\n");
         return 2;
     }
     const int repeats = argc > 3 ? std::max(1, std::atoi(argv[3])) : 5;
-    return benchmarkIntake(argv[2], repeats);
+    return mode == "intake" ? benchmarkIntake(argv[2], repeats) : benchmarkPanel(argv[2], repeats);
 }

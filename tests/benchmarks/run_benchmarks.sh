@@ -1,7 +1,9 @@
 #!/usr/bin/env bash
 # Benchmark harness (not part of ctest): reports numbers, never pass/fail.
 #   tests/benchmarks/run_benchmarks.sh BUILD_DIR      (or: ./plumbline.sh bench)
-# Intake of a 1,000,000-row simulated cohort, then pandas.read_csv on the same file for scale.
+# On a 1,000,000-row simulated cohort: intake against pandas.read_csv, and the whole metric panel
+# (two models, ICI included) against the Python peer (scikit-learn + statsmodels computing C,
+# Brier, O/E, calibration intercept and slope).
 set -euo pipefail
 build=${1:-build}
 work="$build/bench"
@@ -31,6 +33,38 @@ PY
 )
 echo "$pandas"
 echo
+echo "== plumbline metric panel after intake, both models, 5 runs"
+panel=$("$build/tests/benchmarks/plumbline-bench" panel "$data" 5 | tee /dev/stderr | tail -1)
+echo
+echo "== Python peer: C, Brier, O/E, intercept, slope for both models (after read_csv), 3 runs"
+peer=$(/usr/bin/python3 - "$data" <<'PY'
+import statistics, sys, time
+import numpy as np, pandas as pd, statsmodels.api as sm
+from sklearn.metrics import brier_score_loss, roc_auc_score
+frame = pd.read_csv(sys.argv[1])
+frame = frame[frame.readmitted_30d.notna()]
+for column in ("supplier_score", "local_score"):
+    frame[column] = pd.to_numeric(frame[column], errors="coerce")
+frame = frame.dropna(subset=["supplier_score", "local_score"])
+frame = frame[(frame.supplier_score >= 0) & (frame.supplier_score <= 1)]
+y = (frame.readmitted_30d == "yes").to_numpy().astype(int)
+times = []
+for _ in range(3):
+    start = time.perf_counter()
+    for column in ("supplier_score", "local_score"):
+        p = frame[column].to_numpy()
+        lp = np.log(p / (1 - p))
+        roc_auc_score(y, p); brier_score_loss(y, p); y.sum() / p.sum()
+        sm.GLM(y, np.ones((len(y), 1)), family=sm.families.Binomial(), offset=lp).fit()
+        sm.Logit(y, sm.add_constant(lp)).fit(disp=0)
+    times.append(time.perf_counter() - start)
+print(f"python peer: rows={len(y)} median_s={statistics.median(times):.3f}")
+PY
+)
+echo "$peer"
+echo
+panel_s=$(sed -E 's/.*median_s=([0-9.]+).*/\1/' <<<"$panel")
+peer_s=$(sed -E 's/.*median_s=([0-9.]+).*/\1/' <<<"$peer")
 ours=$(sed -E 's/.*median_s=([0-9.]+).*/\1/' <<<"$plumbline")
 theirs=$(sed -E 's/.*median_s=([0-9.]+).*/\1/' <<<"$pandas")
 rss=$(sed -E 's/.*rss_over_file=([0-9.]+).*/\1/' <<<"$plumbline")
@@ -39,3 +73,6 @@ printf '%-34s %10s %12s\n' "intake, 1,000,000 rows" "$ours" "<= 0.5 s"
 printf '%-34s %10s %12s\n' "peak memory / file size" "$rss" "<= 3"
 printf '%-34s %10s %12s\n' "pandas.read_csv, same file" "$theirs" "-"
 awk -v a="$ours" -v b="$theirs" 'BEGIN { printf "%-34s %10.1fx\n", "pandas time / plumbline time", b / a }'
+printf '%-34s %10s %12s\n' "metric panel, 2 models, with ICI" "$panel_s" "<= 0.6 s"
+printf '%-34s %10s %12s\n' "Python peer (5 metrics, 2 models)" "$peer_s" "-"
+awk -v a="$panel_s" -v b="$peer_s" 'BEGIN { printf "%-34s %10.1fx\n", "peer time / plumbline panel time", b / a }'

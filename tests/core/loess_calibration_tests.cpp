@@ -1,4 +1,7 @@
 #include "check_datasets.hpp"
+#include "cohort_simulator.hpp"
+#include "intake_test_support.hpp"
+#include "test_paths.hpp"
 #include "loess_calibration.hpp"
 #include "random_stream.hpp"
 
@@ -41,7 +44,49 @@ TEST_CASE("Direct loess reproduces the Gen-1000 ICI E50 E90 Emax", "[loess]")
     CHECK_THAT(fit->emax, WithinAbs(0.087841, 1e-6));
 }
 
-TEST_CASE("The binned approximation keeps ICI within 0.001 of the exact value on 50000 rows", "[loess][slow]")
+namespace {
+// ICI by the exact (collapsed, unbinned) computation and by the default, which bins above 5,000
+// patients with more than 2,000 distinct risks.
+void checkBinnedAgainstExact(const Cohort& cohort)
+{
+    for (const auto& model : cohort.models) {
+        LoessOptions exactOptions;
+        exactOptions.maxSupportPoints = cohort.rows();
+        const auto exact = loessCalibration(cohort.outcome, model.values, exactOptions);
+        const auto binned = loessCalibration(cohort.outcome, model.values);
+        REQUIRE(exact);
+        REQUIRE(binned);
+        CHECK_FALSE(exact->binned);
+        CHECK(binned->binned);
+        CHECK_THAT(binned->ici, WithinAbs(exact->ici, 0.001));
+        CHECK_THAT(binned->e90, WithinAbs(exact->e90, 0.002));
+    }
+}
+
+IntakeSettings sampleSettings(std::string file)
+{
+    IntakeSettings settings = settingsFor({"supplier_score", "local_score"}, "readmitted_30d");
+    settings.cohortFile = std::move(file);
+    return settings;
+}
+} // namespace
+
+TEST_CASE("The binned loess keeps ICI within 0.001 of the exact value on the sample cohort", "[loess][slow]")
+{
+    const auto intake = runIntake(sampleSettings(std::string(sampleDataDir) + "/readmissions.csv"));
+    REQUIRE(intake);
+    checkBinnedAgainstExact(intake->cohort);
+}
+
+TEST_CASE("The binned loess keeps ICI within 0.001 of the exact value on a simulated 50000-row cohort", "[loess][slow]")
+{
+    const auto files = simulateCohort({50000, 424242}, false);
+    const auto intake = intakeOf(sampleSettings("simulated.csv"), files.cohort);
+    REQUIRE(intake);
+    checkBinnedAgainstExact(intake->cohort);
+}
+
+TEST_CASE("The binned approximation keeps ICI within 0.001 of the exact value on 50000 continuous risks", "[loess][slow]")
 {
     // Continuous risks (all distinct) so the binning really approximates.
     RandomStream random(50000);
