@@ -29,7 +29,7 @@ std::string pValue(double p)
 std::string interval(const Estimate& e)
 {
     if (!e.lower || !e.upper)
-        return e.value ? "(no interval)" : "not estimable";
+        return e.value ? "(no interval)" : "-";
     return number(e.lower) + " to " + number(e.upper);
 }
 
@@ -44,7 +44,7 @@ void printMetrics(std::ostream& out, const ModelValidation& model, double confid
             || entry.key == "brier";
         out << "  " << std::left << std::setw(27) << metricLabel(entry.key) << std::right << std::setw(9)
             << number(entry.estimate.value, small ? 4 : 3) << "   " << std::left << std::setw(18)
-            << interval(entry.estimate) << entry.reading << '\n';
+            << interval(entry.estimate) << (entry.estimate.value ? entry.reading : "not computed: see the warnings") << '\n';
     }
 }
 

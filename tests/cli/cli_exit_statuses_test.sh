@@ -56,6 +56,24 @@ out=$("$cli" validate "$sample" --outcome readmitted_30d --score supplier_score)
 for needle in "C statistic" "Calibration slope" "predictions too extreme" "positive if risk >= t" "Cautions:"; do
   [[ $out == *"$needle"* ]] && echo "ok: table shows '$needle'" || { echo "FAIL: table lacks '$needle'"; failures=$((failures+1)); }
 done
+# Edge cases give nulls and warnings, never a crash or a NaN.
+{ echo "y,pts"; for i in $(seq 1 60); do echo "$((i % 3 == 0 ? 1 : 0)),$((i % 7))"; done; } > "$work/points.csv"
+expect 0 "" -- "$cli" validate "$work/points.csv" --outcome y --score pts --scale points --json "$work/points.json"
+{ echo "y,p"; for i in $(seq 1 40); do echo "$((i % 4 == 0 ? 1 : 0)),0.25"; done; } > "$work/flat.csv"
+expect 0 "" -- "$cli" validate "$work/flat.csv" --outcome y --score p --json "$work/flat.json"
+/usr/bin/python3 - "$work/points.json" "$work/flat.json" <<'PY' || failures=$((failures+1))
+import json, sys
+points, flat = (json.load(open(f)) for f in sys.argv[1:3])
+m = points["models"][0]["metrics"]
+assert m["c_statistic"]["estimate"] is not None and m["calibration_slope"]["estimate"] is None
+assert any("points scale" in w for w in points["warnings"])
+f = flat["models"][0]["metrics"]
+assert f["c_statistic"]["estimate"] == 0.5 and f["calibration_slope"]["estimate"] is None
+assert any("calibration slope cannot be estimated" in w for w in flat["warnings"])
+for path in sys.argv[1:3]:
+    assert "NaN" not in open(path).read()
+print("ok: points and flat scores give nulls with reasons")
+PY
 # Impossible analyses: exit 3.
 printf 'y,p\n0,0.2\n0,0.3\n' > "$work/oneclass.csv"
 expect 3 "both patients with and without the event" -- "$cli" validate "$work/oneclass.csv" --outcome y --score p
