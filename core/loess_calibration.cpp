@@ -8,30 +8,10 @@ namespace plumbline {
 
 namespace {
 
-// Distinct x with the patients' count and the number of events at it.
-struct SupportPoints {
-    std::vector<double> x;
-    std::vector<double> count;
-    std::vector<double> events;
-};
+using SupportPoints = RiskSupport;
 
-SupportPoints collapse(std::span<const std::uint8_t> y, std::span<const double> p, const ScoreOrder& order)
-{
-    SupportPoints s;
-    for (std::size_t k = 0; k < order.size(); ++k) {
-        const double x = p[order[k]];
-        if (s.x.empty() || x != s.x.back()) {
-            s.x.push_back(x);
-            s.count.push_back(0.0);
-            s.events.push_back(0.0);
-        }
-        s.count.back() += 1.0;
-        s.events.back() += y[order[k]];
-    }
-    return s;
-}
-
-// Pools support points into equal-width bins placed at their count-weighted mean.
+// Pools support points into equal-width bins placed at their count-weighted mean; bins holding
+// no patient are left out.
 SupportPoints bin(const SupportPoints& s, std::size_t bins)
 {
     const double lo = s.x.front(), hi = s.x.back();
@@ -39,11 +19,21 @@ SupportPoints bin(const SupportPoints& s, std::size_t bins)
     SupportPoints b;
     std::size_t current = bins + 1;
     double weightedX = 0.0;
+    auto close = [&] {
+        if (b.x.empty())
+            return;
+        if (b.count.back() > 0.0) {
+            b.x.back() = weightedX / b.count.back();
+        } else {
+            b.x.pop_back();
+            b.count.pop_back();
+            b.events.pop_back();
+        }
+    };
     for (std::size_t i = 0; i < s.x.size(); ++i) {
         const auto index = std::min(bins - 1, static_cast<std::size_t>((s.x[i] - lo) / width));
         if (index != current) {
-            if (!b.x.empty())
-                b.x.back() = weightedX / b.count.back();
+            close();
             b.x.push_back(0.0);
             b.count.push_back(0.0);
             b.events.push_back(0.0);
@@ -54,7 +44,7 @@ SupportPoints bin(const SupportPoints& s, std::size_t bins)
         b.events.back() += s.events[i];
         weightedX += s.x[i] * s.count[i];
     }
-    b.x.back() = weightedX / b.count.back();
+    close();
     return b;
 }
 
@@ -105,20 +95,123 @@ std::optional<double> fitAt(const SupportPoints& s, double x0, double q)
     return det0 / det;
 }
 
-// R's type-7 quantile (numpy's default) by selection, not a full sort: O(n).
-double quantileType7(std::vector<double>& values, double probability)
-{
-    const double position = probability * double(values.size() - 1);
-    const auto below = static_cast<std::size_t>(std::floor(position));
-    std::nth_element(values.begin(), values.begin() + static_cast<long>(below), values.end());
-    const double low = values[below];
-    if (below + 1 >= values.size())
-        return low;
-    const double high = *std::min_element(values.begin() + static_cast<long>(below) + 1, values.end());
-    return low + (position - double(below)) * (high - low);
-}
 
 } // namespace
+
+double RiskSupport::patients() const
+{
+    return std::accumulate(count.begin(), count.end(), 0.0);
+}
+
+std::size_t RiskSupport::occupied() const
+{
+    return static_cast<std::size_t>(std::count_if(count.begin(), count.end(), [](double c) { return c > 0.0; }));
+}
+
+RiskSupport collapseRisks(std::span<const std::uint8_t> y, std::span<const double> p, const ScoreOrder& order)
+{
+    RiskSupport s;
+    for (std::size_t k = 0; k < order.size(); ++k) {
+        const double x = p[order[k]];
+        if (s.x.empty() || x != s.x.back()) {
+            s.x.push_back(x);
+            s.count.push_back(0.0);
+            s.events.push_back(0.0);
+        }
+        s.count.back() += 1.0;
+        s.events.back() += y[order[k]];
+    }
+    return s;
+}
+
+double weightedQuantileType7(std::vector<std::pair<double, double>>& values, double probability)
+{
+    double total = 0.0;
+    for (const auto& [value, count] : values)
+        total += count;
+    const double position = probability * (total - 1.0);
+    const double below = std::floor(position);
+    // Value at 0-based rank r of the expanded multiset, by three-way partitioning around a pivot.
+    auto select = [&values](double rank) {
+        auto lo = values.begin(), hi = values.end();
+        for (;;) {
+            const double pivot = (lo + (hi - lo) / 2)->first;
+            auto lessEnd = std::partition(lo, hi, [pivot](const auto& v) { return v.first < pivot; });
+            auto equalEnd = std::partition(lessEnd, hi, [pivot](const auto& v) { return v.first == pivot; });
+            double less = 0.0, equal = 0.0;
+            for (auto it = lo; it != lessEnd; ++it)
+                less += it->second;
+            for (auto it = lessEnd; it != equalEnd; ++it)
+                equal += it->second;
+            if (rank < less) {
+                hi = lessEnd;
+            } else if (rank < less + equal || equalEnd == hi) {
+                return pivot;
+            } else {
+                rank -= less + equal;
+                lo = equalEnd;
+            }
+        }
+    };
+    const double low = select(below);
+    if (below + 1.0 > total - 1.0)
+        return low;
+    const double high = select(below + 1.0);
+    return low + (position - below) * (high - low);
+}
+
+std::optional<LoessSummary> loessOnSupport(const RiskSupport& full, const LoessOptions& options)
+{
+    constexpr std::size_t minimumDistinct = 10; // fewer: a points score, not a smooth risk [common practice]
+    const double n = full.patients();
+    const double q = std::floor(n * options.span);
+    if (full.occupied() < minimumDistinct || q < 3.0)
+        return std::nullopt;
+    LoessSummary out;
+    out.binned = n > double(options.exactUpTo) && full.occupied() > options.maxSupportPoints;
+    const RiskSupport binnedSupport = out.binned ? bin(full, options.maxSupportPoints) : RiskSupport{};
+    const RiskSupport& s = out.binned ? binnedSupport : full;
+    std::vector<double> curve(s.x.size(), 0.0);
+    for (std::size_t i = 0; i < s.x.size(); ++i) {
+        if (s.count[i] <= 0.0)
+            continue; // nobody at this risk in this (re)sample: not needed
+        const auto value = fitAt(s, s.x[i], q);
+        if (!value)
+            return std::nullopt;
+        curve[i] = *value;
+    }
+    // The fitted value at each distinct risk: its own fit, or interpolated between bin positions.
+    if (!out.binned) {
+        out.fitted = std::move(curve);
+    } else {
+        out.fitted.resize(full.x.size());
+        std::size_t j = 0;
+        for (std::size_t k = 0; k < full.x.size(); ++k) {
+            const double x = full.x[k];
+            while (j + 1 < s.x.size() && s.x[j + 1] <= x)
+                ++j;
+            if (x > s.x[j] && j + 1 < s.x.size())
+                out.fitted[k] = curve[j] + (x - s.x[j]) / (s.x[j + 1] - s.x[j]) * (curve[j + 1] - curve[j]);
+            else
+                out.fitted[k] = curve[j]; // at a bin position, or beyond the first or last: hold the end
+        }
+    }
+    std::vector<std::pair<double, double>> distances;
+    distances.reserve(full.x.size());
+    double sum = 0.0;
+    for (std::size_t k = 0; k < full.x.size(); ++k) {
+        if (full.count[k] <= 0.0)
+            continue;
+        const double d = std::abs(out.fitted[k] - full.x[k]);
+        sum += d * full.count[k];
+        out.emax = std::max(out.emax, d);
+        distances.emplace_back(d, full.count[k]);
+    }
+    out.ici = sum / n;
+    out.e50 = weightedQuantileType7(distances, 0.5);
+    out.e90 = weightedQuantileType7(distances, 0.9);
+    return out;
+}
 
 std::optional<LoessCalibration> loessCalibration(std::span<const std::uint8_t> outcome, std::span<const double> risk,
                                                  const LoessOptions& options)
@@ -129,48 +222,18 @@ std::optional<LoessCalibration> loessCalibration(std::span<const std::uint8_t> o
 std::optional<LoessCalibration> loessCalibration(std::span<const std::uint8_t> outcome, std::span<const double> risk,
                                                  const ScoreOrder& order, const LoessOptions& options)
 {
-    const std::size_t n = risk.size();
-    SupportPoints support = collapse(outcome, risk, order);
-    constexpr std::size_t minimumDistinct = 10; // fewer: a points score, not a smooth risk [common practice]
-    const double q = std::floor(double(n) * options.span);
-    if (support.x.size() < minimumDistinct || q < 3.0)
+    const RiskSupport support = collapseRisks(outcome, risk, order);
+    const auto summary = loessOnSupport(support, options);
+    if (!summary)
         return std::nullopt;
-    LoessCalibration out;
-    if (n > options.exactUpTo && support.x.size() > options.maxSupportPoints) {
-        support = bin(support, options.maxSupportPoints);
-        out.binned = true;
+    LoessCalibration out{std::vector<double>(risk.size()), summary->ici, summary->e50, summary->e90, summary->emax,
+                         summary->binned};
+    std::size_t k = 0;
+    for (std::size_t j = 0; j < order.size(); ++j) {
+        if (j > 0 && risk[order[j]] != risk[order[j - 1]])
+            ++k;
+        out.fitted[order[j]] = summary->fitted[k];
     }
-    out.supportPoints = support.x.size();
-    std::vector<double> curve(support.x.size());
-    for (std::size_t i = 0; i < support.x.size(); ++i) {
-        const auto value = fitAt(support, support.x[i], q);
-        if (!value)
-            return std::nullopt;
-        curve[i] = *value;
-    }
-    // Each patient's fitted value: exact at its own risk, or interpolated between bin positions.
-    out.fitted.resize(n);
-    std::size_t j = 0;
-    for (std::size_t k = 0; k < n; ++k) {
-        const double x = risk[order[k]];
-        while (j + 1 < support.x.size() && support.x[j + 1] <= x)
-            ++j;
-        double value = curve[j];
-        if (out.binned && x != support.x[j] && j + 1 < support.x.size() && x > support.x[j]) {
-            const double t = (x - support.x[j]) / (support.x[j + 1] - support.x[j]);
-            value = curve[j] + t * (curve[j + 1] - curve[j]);
-        } else if (out.binned && x < support.x[j]) {
-            value = curve[j]; // below the first bin position: hold the end value
-        }
-        out.fitted[order[k]] = value;
-    }
-    std::vector<double> distance(n);
-    for (std::size_t i = 0; i < n; ++i)
-        distance[i] = std::abs(out.fitted[i] - risk[i]);
-    out.ici = std::accumulate(distance.begin(), distance.end(), 0.0) / double(n);
-    out.e50 = quantileType7(distance, 0.5);
-    out.e90 = quantileType7(distance, 0.9);
-    out.emax = *std::max_element(distance.begin(), distance.end());
     return out;
 }
 

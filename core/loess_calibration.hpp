@@ -10,22 +10,19 @@
 
 namespace plumbline {
 
-// Smoothed calibration curve: loess of y on p (span 0.75, local quadratic, tricube weights, no
-// robustness iterations; Cleveland, Grosse & Shyu 1992), evaluated at every patient's own risk,
-// and the summaries of |curve − p| of Austin & Steyerberg 2019 (Stat Med 38:4051): ICI (mean),
-// E50 (median), E90 (0.9 quantile, R type 7), Emax.
-//
-// Computation: tied risks are collapsed into one weighted point, which reproduces loess on the
-// expanded data exactly (neighbourhood counted in patients; methods reference §3.9). When more
-// than `maxSupportPoints` distinct risks remain (and n > 5,000), risks are pooled into that many
-// equal-width bins, fitted at each bin's mean risk and interpolated linearly: the "binned"
-// approximation, whose ICI stays within 0.001 of the exact one (tested).
-struct LoessCalibration {
-    std::vector<double> fitted;   // per patient, raw (may leave [0,1]); ICI is computed on it
-    double ici = 0.0, e50 = 0.0, e90 = 0.0, emax = 0.0;
-    bool binned = false;
-    std::size_t supportPoints = 0;
+// Distinct risks in ascending order with how many patients (and events) sit at each, possibly
+// frequency-weighted (a bootstrap replicate). A point may have a count of zero.
+struct RiskSupport {
+    std::vector<double> x;
+    std::vector<double> count;
+    std::vector<double> events;
+
+    double patients() const;
+    std::size_t occupied() const; // points with a positive count
 };
+
+// Collapses patients with equal risks into one weighted point.
+RiskSupport collapseRisks(std::span<const std::uint8_t> outcome, std::span<const double> risk, const ScoreOrder& order);
 
 struct LoessOptions {
     double span = 0.75;
@@ -33,11 +30,39 @@ struct LoessOptions {
     std::size_t exactUpTo = 5000;   // always exact (no binning) up to this many patients
 };
 
+// Smoothed calibration curve: loess of y on p (span 0.75, local quadratic, tricube weights, no
+// robustness iterations; Cleveland, Grosse & Shyu 1992), evaluated at every distinct risk, and
+// the summaries of |curve − p| over patients of Austin & Steyerberg 2019 (Stat Med 38:4051):
+// ICI (mean), E50 (median), E90 (0.9 quantile, R type 7), Emax.
+//
+// Tied risks form one weighted point, which reproduces loess on the expanded data exactly (the
+// neighbourhood is counted in patients; methods reference §3.9). Above `exactUpTo` patients with
+// more than `maxSupportPoints` distinct risks, risks are pooled into that many equal-width bins,
+// fitted at each bin's mean risk and interpolated linearly: the "binned" approximation, whose
+// ICI stays within 0.001 of the exact one (tested).
+struct LoessSummary {
+    std::vector<double> fitted; // per support point, raw (may leave [0,1]); ICI is computed on it
+    double ici = 0.0, e50 = 0.0, e90 = 0.0, emax = 0.0;
+    bool binned = false;
+};
+
 // nullopt when the curve cannot be fitted: fewer than 10 distinct risks (e.g. a points score),
-// or a neighbourhood too small for a local quadratic.
+// or a neighbourhood too small or too tied for a local quadratic.
+std::optional<LoessSummary> loessOnSupport(const RiskSupport& support, const LoessOptions& options = {});
+
+// The same per patient: `fitted` then has one value per patient, in data order.
+struct LoessCalibration {
+    std::vector<double> fitted;
+    double ici = 0.0, e50 = 0.0, e90 = 0.0, emax = 0.0;
+    bool binned = false;
+};
 std::optional<LoessCalibration> loessCalibration(std::span<const std::uint8_t> outcome, std::span<const double> risk,
                                                  const ScoreOrder& order, const LoessOptions& options = {});
 std::optional<LoessCalibration> loessCalibration(std::span<const std::uint8_t> outcome, std::span<const double> risk,
                                                  const LoessOptions& options = {});
+
+// R's type-7 quantile (numpy's default) of a multiset given as values with counts, by weighted
+// selection in expected linear time. Counts are whole numbers; values are reordered.
+double weightedQuantileType7(std::vector<std::pair<double, double>>& valueCounts, double probability);
 
 } // namespace plumbline
