@@ -10,32 +10,45 @@ namespace {
 constexpr double riskFloor = 1e-12;
 constexpr int maxIterations = 100;
 
-double weightAt(std::span<const double> weights, std::size_t i)
-{
-    return weights.empty() ? 1.0 : weights[i];
-}
-
 double expit(double x)
 {
     return 1.0 / (1.0 + std::exp(-x));
 }
 
-// log(expit(x)) and log(1 − expit(x)) without cancellation for large |x|.
+// log(expit(x)) without cancellation for large |x|.
 double logExpit(double x)
 {
     return x >= 0 ? -std::log1p(std::exp(-x)) : x - std::log1p(std::exp(x));
 }
 
-double bernoulliLogLikelihood(std::span<const std::uint8_t> y, std::span<const double> eta, std::span<const double> w,
-                              double a, double b)
+double binomialLogLikelihood(const BinomialPoints& d, double a, double b)
 {
     double ll = 0.0;
-    for (std::size_t i = 0; i < y.size(); ++i) {
-        const double linear = a + b * eta[i];
-        ll += weightAt(w, i) * (y[i] ? logExpit(linear) : logExpit(-linear));
+    for (std::size_t k = 0; k < d.lp.size(); ++k) {
+        if (d.trials[k] <= 0.0)
+            continue;
+        const double linear = a + b * d.lp[k];
+        const double nonEvents = d.trials[k] - d.events[k];
+        ll += (d.events[k] > 0.0 ? d.events[k] * logExpit(linear) : 0.0)
+            + (nonEvents > 0.0 ? nonEvents * logExpit(-linear) : 0.0);
     }
     return ll;
 }
+
+// Rows (0/1 outcome, optional frequency weights) as grouped data, one point per row.
+struct RowPoints {
+    std::vector<double> events;
+    std::vector<double> trials;
+    RowPoints(std::span<const std::uint8_t> outcome, std::span<const double> weights)
+        : events(outcome.size())
+        , trials(outcome.size())
+    {
+        for (std::size_t i = 0; i < outcome.size(); ++i) {
+            trials[i] = weights.empty() ? 1.0 : weights[i];
+            events[i] = outcome[i] ? trials[i] : 0.0;
+        }
+    }
+};
 
 } // namespace
 
@@ -56,24 +69,30 @@ std::vector<double> clampedLogits(std::span<const double> risk, std::size_t* cla
     return lp;
 }
 
+double logLikelihoodOfLogits(const BinomialPoints& points)
+{
+    return binomialLogLikelihood(points, 0.0, 1.0);
+}
+
 double logLikelihoodOfLogits(std::span<const std::uint8_t> outcome, std::span<const double> lp,
                              std::span<const double> weights)
 {
-    return bernoulliLogLikelihood(outcome, lp, weights, 0.0, 1.0);
+    const RowPoints rows(outcome, weights);
+    return logLikelihoodOfLogits(BinomialPoints{lp, rows.events, rows.trials});
 }
 
-std::optional<InterceptFit> fitCalibrationIntercept(std::span<const std::uint8_t> outcome, std::span<const double> lp,
-                                                    std::span<const double> weights)
+std::optional<InterceptFit> fitCalibrationIntercept(const BinomialPoints& d, double start)
 {
-    double alpha = 0.0;
+    double alpha = start;
     for (int iteration = 0; iteration < maxIterations; ++iteration) {
         double score = 0.0;
         double information = 0.0;
-        for (std::size_t i = 0; i < outcome.size(); ++i) {
-            const double pi = expit(alpha + lp[i]);
-            const double w = weightAt(weights, i);
-            score += w * (outcome[i] - pi);
-            information += w * pi * (1.0 - pi);
+        for (std::size_t k = 0; k < d.lp.size(); ++k) {
+            if (d.trials[k] <= 0.0)
+                continue;
+            const double pi = expit(alpha + d.lp[k]);
+            score += d.events[k] - d.trials[k] * pi;
+            information += d.trials[k] * pi * (1.0 - pi);
         }
         if (!(information > 0.0))
             return std::nullopt;
@@ -83,35 +102,50 @@ std::optional<InterceptFit> fitCalibrationIntercept(std::span<const std::uint8_t
             return std::nullopt;
         if (std::abs(step) < 1e-10) {
             double finalInformation = 0.0;
-            for (std::size_t i = 0; i < outcome.size(); ++i) {
-                const double pi = expit(alpha + lp[i]);
-                finalInformation += weightAt(weights, i) * pi * (1.0 - pi);
+            for (std::size_t k = 0; k < d.lp.size(); ++k) {
+                const double pi = expit(alpha + d.lp[k]);
+                finalInformation += d.trials[k] * pi * (1.0 - pi);
             }
-            return InterceptFit{alpha, 1.0 / std::sqrt(finalInformation),
-                                bernoulliLogLikelihood(outcome, lp, weights, alpha, 1.0)};
+            return InterceptFit{alpha, 1.0 / std::sqrt(finalInformation), binomialLogLikelihood(d, alpha, 1.0)};
         }
     }
     return std::nullopt;
 }
 
-std::optional<SlopeFit> fitCalibrationSlope(std::span<const std::uint8_t> outcome, std::span<const double> lp,
-                                            std::span<const double> weights, double startIntercept, double startSlope)
+std::optional<InterceptFit> fitCalibrationIntercept(std::span<const std::uint8_t> outcome, std::span<const double> lp,
+                                                    std::span<const double> weights)
+{
+    const RowPoints rows(outcome, weights);
+    return fitCalibrationIntercept(BinomialPoints{lp, rows.events, rows.trials});
+}
+
+std::optional<SlopeFit> fitCalibrationSlope(const BinomialPoints& d, double startIntercept, double startSlope)
 {
     double a = startIntercept;
     double b = startSlope;
+    auto information = [&](double& h00, double& h01, double& h11, double* g0, double* g1) {
+        h00 = h01 = h11 = 0.0;
+        if (g0) *g0 = 0.0;
+        if (g1) *g1 = 0.0;
+        for (std::size_t k = 0; k < d.lp.size(); ++k) {
+            if (d.trials[k] <= 0.0)
+                continue;
+            const double x = d.lp[k];
+            const double pi = expit(a + b * x);
+            const double v = d.trials[k] * pi * (1.0 - pi);
+            h00 += v;
+            h01 += v * x;
+            h11 += v * x * x;
+            if (g0) {
+                const double r = d.events[k] - d.trials[k] * pi;
+                *g0 += r;
+                *g1 += r * x;
+            }
+        }
+    };
     for (int iteration = 0; iteration < maxIterations; ++iteration) {
         double g0 = 0.0, g1 = 0.0, h00 = 0.0, h01 = 0.0, h11 = 0.0;
-        for (std::size_t i = 0; i < outcome.size(); ++i) {
-            const double pi = expit(a + b * lp[i]);
-            const double w = weightAt(weights, i);
-            const double r = w * (outcome[i] - pi);
-            const double v = w * pi * (1.0 - pi);
-            g0 += r;
-            g1 += r * lp[i];
-            h00 += v;
-            h01 += v * lp[i];
-            h11 += v * lp[i] * lp[i];
-        }
+        information(h00, h01, h11, &g0, &g1);
         const double det = h00 * h11 - h01 * h01;
         if (!(det > 1e-12 * std::max(1.0, h00 * h11)))
             return std::nullopt; // constant lp or a degenerate fit
@@ -122,21 +156,21 @@ std::optional<SlopeFit> fitCalibrationSlope(std::span<const std::uint8_t> outcom
         if (!std::isfinite(a) || !std::isfinite(b) || std::abs(b) > 1e3)
             return std::nullopt; // diverging: (quasi-)separation
         if (std::abs(da) < 1e-10 && std::abs(db) < 1e-10) {
-            // Wald SEs from the information at the solution.
             double k00 = 0.0, k01 = 0.0, k11 = 0.0;
-            for (std::size_t i = 0; i < outcome.size(); ++i) {
-                const double pi = expit(a + b * lp[i]);
-                const double v = weightAt(weights, i) * pi * (1.0 - pi);
-                k00 += v;
-                k01 += v * lp[i];
-                k11 += v * lp[i] * lp[i];
-            }
-            const double d = k00 * k11 - k01 * k01;
-            return SlopeFit{a, b, std::sqrt(k11 / d), std::sqrt(k00 / d),
-                            bernoulliLogLikelihood(outcome, lp, weights, a, b)};
+            information(k00, k01, k11, nullptr, nullptr);
+            const double det2 = k00 * k11 - k01 * k01;
+            return SlopeFit{a, b, std::sqrt(k11 / det2), std::sqrt(k00 / det2), binomialLogLikelihood(d, a, b),
+                            {k00, k01, k11}};
         }
     }
     return std::nullopt;
+}
+
+std::optional<SlopeFit> fitCalibrationSlope(std::span<const std::uint8_t> outcome, std::span<const double> lp,
+                                            std::span<const double> weights, double startIntercept, double startSlope)
+{
+    const RowPoints rows(outcome, weights);
+    return fitCalibrationSlope(BinomialPoints{lp, rows.events, rows.trials}, startIntercept, startSlope);
 }
 
 } // namespace plumbline

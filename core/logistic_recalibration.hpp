@@ -11,31 +11,45 @@ namespace plumbline {
 // 0 or 1 stays usable in a regression (the caller warns when clamping happened).
 std::vector<double> clampedLogits(std::span<const double> risk, std::size_t* clampedCount = nullptr);
 
+// Grouped (binomial) data: at point k, events[k] of trials[k] patients share the linear
+// predictor lp[k]. Frequency-weighted patients and bootstrap replicates are grouped data too;
+// a point with no trials contributes nothing.
+struct BinomialPoints {
+    std::span<const double> lp;
+    std::span<const double> events;
+    std::span<const double> trials;
+};
+
 // Calibration-in-the-large: logit P(y=1) = α + lp with lp as offset, α by Newton's method
-// (Van Calster et al. 2016, J Clin Epidemiol 74:167). Weights are frequency weights (all 1 when
-// empty). nullopt when the fit does not converge (e.g. one class only).
+// (Van Calster et al. 2016, J Clin Epidemiol 74:167). nullopt when the fit does not converge.
 struct InterceptFit {
     double alpha;
     double se;
     double logLikelihood;
 };
+std::optional<InterceptFit> fitCalibrationIntercept(const BinomialPoints& points, double start = 0.0);
 std::optional<InterceptFit> fitCalibrationIntercept(std::span<const std::uint8_t> outcome, std::span<const double> lp,
                                                     std::span<const double> weights = {});
 
 // Logistic recalibration: logit P(y=1) = a + b·lp by Newton–Raphson (Cox 1958); a, b with Wald
 // SEs. nullopt on separation or when lp is constant (the slope is then not identifiable).
+// A warm start (the full-sample fit) saves iterations in bootstrap replicates.
 struct SlopeFit {
     double intercept;
     double slope;
     double interceptSe;
     double slopeSe;
     double logLikelihood;
+    double information[3]; // Fisher information at the solution: I_aa, I_ab, I_bb
 };
+std::optional<SlopeFit> fitCalibrationSlope(const BinomialPoints& points, double startIntercept = 0.0,
+                                            double startSlope = 1.0);
 std::optional<SlopeFit> fitCalibrationSlope(std::span<const std::uint8_t> outcome, std::span<const double> lp,
                                             std::span<const double> weights = {}, double startIntercept = 0.0,
                                             double startSlope = 1.0);
 
 // Log-likelihood of the unmodified risks, Σ y ln p + (1−y) ln(1−p), from clamped logits.
+double logLikelihoodOfLogits(const BinomialPoints& points);
 double logLikelihoodOfLogits(std::span<const std::uint8_t> outcome, std::span<const double> lp,
                              std::span<const double> weights = {});
 

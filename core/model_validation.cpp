@@ -5,6 +5,7 @@
 #include "loess_calibration.hpp"
 #include "metric_reading.hpp"
 #include "overall_accuracy.hpp"
+#include "panel_keys.hpp"
 #include "score_order.hpp"
 
 #include <algorithm>
@@ -13,11 +14,6 @@
 namespace plumbline {
 
 namespace {
-
-constexpr std::array<std::string_view, 15> panelKeys{
-    "c_statistic", "auprc", "discrimination_slope", "calibration_intercept", "calibration_slope",
-    "recalibration_intercept", "oe_ratio", "ici", "e50", "e90", "emax", "brier", "scaled_brier", "log_loss",
-    "nagelkerke_r2"};
 
 Estimate wald(double value, double se, double confidence)
 {

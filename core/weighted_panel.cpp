@@ -1,0 +1,182 @@
+#include "weighted_panel.hpp"
+
+#include "logistic_recalibration.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <numeric>
+
+namespace plumbline {
+
+ModelSupport buildModelSupport(std::span<const double> score, const ScoreOrder& order, bool risks)
+{
+    ModelSupport s;
+    s.risks = risks;
+    s.rowSupport.resize(score.size());
+    for (std::size_t k = 0; k < order.size(); ++k) {
+        const double value = score[order[k]];
+        if (s.x.empty() || value != s.x.back())
+            s.x.push_back(value);
+        s.rowSupport[order[k]] = static_cast<std::uint32_t>(s.x.size() - 1);
+    }
+    if (risks)
+        s.lp = clampedLogits(s.x);
+    return s;
+}
+
+void countRows(const ModelSupport& support, std::span<const std::uint8_t> outcome,
+               std::span<const std::uint16_t> rowCounts, SupportCounts& counts)
+{
+    counts.events.assign(support.x.size(), 0.0);
+    counts.nonEvents.assign(support.x.size(), 0.0);
+    for (std::size_t i = 0; i < outcome.size(); ++i) {
+        if (rowCounts[i] == 0)
+            continue;
+        (outcome[i] ? counts.events : counts.nonEvents)[support.rowSupport[i]] += rowCounts[i];
+    }
+}
+
+SupportCounts sampleCounts(const ModelSupport& support, std::span<const std::uint8_t> outcome)
+{
+    SupportCounts counts;
+    const std::vector<std::uint16_t> ones(outcome.size(), 1);
+    countRows(support, outcome, ones, counts);
+    return counts;
+}
+
+namespace {
+
+struct Totals {
+    double events = 0.0;
+    double nonEvents = 0.0;
+    double patients() const { return events + nonEvents; }
+};
+
+Totals totals(const SupportCounts& c)
+{
+    return {std::accumulate(c.events.begin(), c.events.end(), 0.0),
+            std::accumulate(c.nonEvents.begin(), c.nonEvents.end(), 0.0)};
+}
+
+// Mann–Whitney C with half credit for ties (methods §5.2 sweep), and average precision.
+void discrimination(const ModelSupport& s, const SupportCounts& c, const Totals& t, PanelValues& out)
+{
+    double belowNonEvents = 0.0, numerator = 0.0;
+    for (std::size_t k = 0; k < s.x.size(); ++k) {
+        numerator += c.events[k] * (belowNonEvents + 0.5 * c.nonEvents[k]);
+        belowNonEvents += c.nonEvents[k];
+    }
+    out[CStatistic] = numerator / (t.events * t.nonEvents);
+    double tp = 0.0, fp = 0.0, ap = 0.0;
+    for (std::size_t k = s.x.size(); k > 0; --k) {
+        tp += c.events[k - 1];
+        fp += c.nonEvents[k - 1];
+        if (c.events[k - 1] > 0.0)
+            ap += c.events[k - 1] / t.events * tp / (tp + fp);
+    }
+    out[Auprc] = ap;
+}
+
+void accuracy(const ModelSupport& s, const SupportCounts& c, const Totals& t, PanelValues& out)
+{
+    double squared = 0.0, logLikelihood = 0.0, eventRisk = 0.0, nonEventRisk = 0.0;
+    bool contradicted = false;
+    for (std::size_t k = 0; k < s.x.size(); ++k) {
+        const double p = s.x[k], e = c.events[k], f = c.nonEvents[k];
+        squared += e * (1.0 - p) * (1.0 - p) + f * p * p;
+        eventRisk += e * p;
+        nonEventRisk += f * p;
+        if ((e > 0.0 && p <= 0.0) || (f > 0.0 && p >= 1.0))
+            contradicted = true;
+        else
+            logLikelihood += (e > 0.0 ? e * std::log(p) : 0.0) + (f > 0.0 ? f * std::log1p(-p) : 0.0);
+    }
+    const double n = t.patients();
+    const double rate = t.events / n;
+    out[DiscriminationSlope] = eventRisk / t.events - nonEventRisk / t.nonEvents;
+    out[OeRatio] = eventRisk + nonEventRisk > 0.0 ? std::optional<double>(t.events / (eventRisk + nonEventRisk)) : std::nullopt;
+    out[Brier] = squared / n;
+    out[ScaledBrier] = 1.0 - squared / n / (rate * (1.0 - rate));
+    if (contradicted)
+        return;
+    out[LogLoss] = -logLikelihood / n;
+    const double nullLogLikelihood = t.events * std::log(rate) + t.nonEvents * std::log(1.0 - rate);
+    out[NagelkerkeR2] = (1.0 - std::exp(2.0 * (nullLogLikelihood - logLikelihood) / n))
+        / (1.0 - std::exp(2.0 * nullLogLikelihood / n));
+}
+
+void calibrationFits(const ModelSupport& s, const SupportCounts& c, const FitStart& start, PanelValues& out)
+{
+    std::vector<double> trials(s.x.size());
+    for (std::size_t k = 0; k < s.x.size(); ++k)
+        trials[k] = c.events[k] + c.nonEvents[k];
+    const BinomialPoints points{s.lp, c.events, trials};
+    if (const auto intercept = fitCalibrationIntercept(points, start.calibrationIntercept))
+        out[CalibrationIntercept] = intercept->alpha;
+    if (const auto slope = fitCalibrationSlope(points, start.recalibrationIntercept, start.slope)) {
+        out[CalibrationSlope] = slope->slope;
+        out[RecalibrationIntercept] = slope->intercept;
+    }
+}
+
+void smoothedCurve(const ModelSupport& s, const SupportCounts& c, const LoessOptions& options, PanelValues& out,
+                   std::vector<double>* curve)
+{
+    RiskSupport risks{s.x, std::vector<double>(s.x.size()), c.events};
+    for (std::size_t k = 0; k < s.x.size(); ++k)
+        risks.count[k] = c.events[k] + c.nonEvents[k];
+    const auto loess = loessOnSupport(risks, options);
+    if (!loess)
+        return;
+    out[Ici] = loess->ici;
+    out[E50] = loess->e50;
+    out[E90] = loess->e90;
+    out[Emax] = loess->emax;
+    if (curve)
+        *curve = loess->fitted;
+}
+
+} // namespace
+
+PanelValues weightedPanel(const ModelSupport& s, const SupportCounts& c, const FitStart& start,
+                          const LoessOptions* loess, std::vector<double>* curve)
+{
+    PanelValues out{};
+    const Totals t = totals(c);
+    if (t.events <= 0.0 || t.nonEvents <= 0.0)
+        return out;
+    discrimination(s, c, t, out);
+    if (!s.risks)
+        return out;
+    accuracy(s, c, t, out);
+    calibrationFits(s, c, start, out);
+    if (loess)
+        smoothedCurve(s, c, *loess, out, curve);
+    return out;
+}
+
+std::vector<double> sensitivityAtFalsePositiveRates(const ModelSupport& s, const SupportCounts& c,
+                                                    std::span<const double> rates)
+{
+    // Walk the ROC polyline from the top threshold down. For each requested rate r (ascending),
+    // the last vertex with FPR <= r gives the sensitivity when its FPR equals r (the highest
+    // sensitivity at that rate), otherwise the segment to the next vertex is interpolated.
+    const Totals t = totals(c);
+    std::vector<double> out(rates.size(), 1.0);
+    double tp = 0.0, fp = 0.0, lastFpr = 0.0, lastTpr = 0.0;
+    std::size_t next = 0;
+    for (std::size_t k = s.x.size(); k > 0 && next < rates.size(); --k) {
+        tp += c.events[k - 1];
+        fp += c.nonEvents[k - 1];
+        const double fpr = fp / t.nonEvents, tpr = tp / t.events;
+        while (next < rates.size() && rates[next] < fpr) {
+            const double share = (rates[next] - lastFpr) / (fpr - lastFpr);
+            out[next++] = lastTpr + share * (tpr - lastTpr);
+        }
+        lastFpr = fpr;
+        lastTpr = tpr;
+    }
+    return out;
+}
+
+} // namespace plumbline

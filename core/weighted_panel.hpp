@@ -1,0 +1,54 @@
+#pragma once
+
+#include "loess_calibration.hpp"
+#include "panel_keys.hpp"
+#include "score_order.hpp"
+
+#include <array>
+#include <cstdint>
+#include <optional>
+#include <span>
+#include <vector>
+
+namespace plumbline {
+
+// One model's scores collapsed to their distinct values, prepared once: every bootstrap replicate
+// is then a pair of count vectors over these points, and every metric one sweep over them in
+// ascending order (no sorting, no copying of rows). Methods reference §5.2.
+struct ModelSupport {
+    std::vector<double> x;                 // distinct scores, ascending
+    std::vector<double> lp;                // clamped logits of x (risks only)
+    std::vector<std::uint32_t> rowSupport; // support point of each row
+    bool risks = true;                     // false for a points score: discrimination only
+};
+ModelSupport buildModelSupport(std::span<const double> score, const ScoreOrder& order, bool risks);
+
+// Patients at each support point in one (re)sample, by outcome class; whole numbers.
+struct SupportCounts {
+    std::vector<double> events;
+    std::vector<double> nonEvents;
+};
+// Adds each row's count (1 for the sample itself, the multinomial count in a replicate).
+void countRows(const ModelSupport& support, std::span<const std::uint8_t> outcome,
+               std::span<const std::uint16_t> rowCounts, SupportCounts& counts);
+SupportCounts sampleCounts(const ModelSupport& support, std::span<const std::uint8_t> outcome);
+
+// Starting values for the replicate fits (the full-sample estimates).
+struct FitStart {
+    double calibrationIntercept = 0.0;
+    double recalibrationIntercept = 0.0;
+    double slope = 1.0;
+};
+
+// Every scalar metric of the panel on weighted support points, each undefined value empty.
+// The smoothed-curve metrics (ICI, E50, E90, Emax) are computed only when `loess` is given; the
+// fitted curve at each support point is then left in `curve`.
+using PanelValues = std::array<std::optional<double>, PanelMetricCount>;
+PanelValues weightedPanel(const ModelSupport& support, const SupportCounts& counts, const FitStart& start,
+                          const LoessOptions* loess, std::vector<double>* curve = nullptr);
+
+// Sensitivity at fixed false-positive rates (linear interpolation along the weighted ROC curve).
+std::vector<double> sensitivityAtFalsePositiveRates(const ModelSupport& support, const SupportCounts& counts,
+                                                    std::span<const double> falsePositiveRates);
+
+} // namespace plumbline
