@@ -26,11 +26,25 @@ std::string pValue(double p)
     return number(p, 3);
 }
 
-std::string interval(const Estimate& e)
+std::string shortMethod(CiMethod method)
+{
+    switch (method) {
+    case CiMethod::DeLongLogit: return "DeLong, logit";
+    case CiMethod::DeLongPlain: return "DeLong";
+    case CiMethod::Wald: return "Wald";
+    case CiMethod::LogNormal: return "log-normal";
+    case CiMethod::ExactPoisson: return "exact Poisson";
+    case CiMethod::BootstrapBca: return "bootstrap BCa";
+    case CiMethod::BootstrapPercentile: return "bootstrap pct";
+    default: return "";
+    }
+}
+
+std::string interval(const Estimate& e, int digits)
 {
     if (!e.lower || !e.upper)
         return e.value ? "(no interval)" : "-";
-    return number(e.lower) + " to " + number(e.upper);
+    return number(e.lower, digits) + " to " + number(e.upper, digits);
 }
 
 void printMetrics(std::ostream& out, const ModelValidation& model, double confidence)
@@ -38,13 +52,15 @@ void printMetrics(std::ostream& out, const ModelValidation& model, double confid
     char ciHeader[32];
     std::snprintf(ciHeader, sizeof ciHeader, "%g %% CI", confidence * 100.0);
     out << "  " << std::left << std::setw(27) << "metric" << std::right << std::setw(9) << "estimate" << "   "
-        << std::left << std::setw(18) << ciHeader << "reading\n";
+        << std::left << std::setw(20) << ciHeader << std::setw(15) << "interval" << "reading\n";
     for (const auto& entry : model.metrics) {
         const bool small = entry.key == "ici" || entry.key == "e50" || entry.key == "e90" || entry.key == "emax"
             || entry.key == "brier";
+        const int digits = small ? 4 : 3;
         out << "  " << std::left << std::setw(27) << metricLabel(entry.key) << std::right << std::setw(9)
-            << number(entry.estimate.value, small ? 4 : 3) << "   " << std::left << std::setw(18)
-            << interval(entry.estimate) << (entry.estimate.value ? entry.reading : "not computed: see the warnings") << '\n';
+            << number(entry.estimate.value, digits) << "   " << std::left << std::setw(20)
+            << interval(entry.estimate, digits) << std::setw(15) << shortMethod(entry.estimate.ciMethod)
+            << (entry.estimate.value ? entry.reading : "not computed: see the warnings") << '\n';
     }
 }
 
@@ -92,6 +108,12 @@ void printThresholds(std::ostream& out, const ModelValidation& model)
 
 void printPanel(std::ostream& out, const ValidationResult& result)
 {
+    if (result.bootstrap)
+        out << "\nIntervals: bootstrap (" << result.bootstrap->replicates << " replicates, seed " << result.bootstrap->seed
+            << ", " << result.bootstrap->ciMethod << (result.bootstrap->stratified ? ", stratified by outcome" : "")
+            << "); analytic intervals are kept in the JSON.\n";
+    else
+        out << "\nIntervals: analytic only (--bootstrap 0).\n";
     for (const auto& model : result.models) {
         out << "\nModel " << model.name << "\n";
         printMetrics(out, model, result.settings.confidence);

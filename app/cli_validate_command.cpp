@@ -1,6 +1,7 @@
 #include "cli_validate_command.hpp"
 
 #include "atomic_file.hpp"
+#include "cli_bootstrap_options.hpp"
 #include "cli_exit.hpp"
 #include "cli_intake_options.hpp"
 #include "cli_panel_options.hpp"
@@ -20,18 +21,23 @@ namespace {
 struct ValidateOptions {
     IntakeOptions intake;
     PanelOptions panel;
+    BootstrapOptions bootstrap;
     std::string jsonFile;
 };
 
 nlohmann::ordered_json resultJson(const IntakeSettings& settings, const IntakeResult& intake,
-                                  const ValidationResult& validation)
+                                  const ValidationResult& validation, const BootstrapSettings& bootstrap)
 {
     nlohmann::ordered_json json;
     json["plumbline"] = provenanceJson(utcTimestamp());
     json["inputs"] = inputsJson(intake.inputs);
     json["settings"] = intakeSettingsJson(settings);
     json["settings"]["panel"] = panelSettingsJson(validation.settings);
+    json["settings"]["bootstrap"] = {{"replicates", bootstrap.replicates}, {"seed", bootstrap.seed},
+                                     {"ci_method", std::string(bootstrapCiName(bootstrap.method))},
+                                     {"stratified", bootstrap.stratified}};
     json["cohort"] = cohortJson(intake.audit);
+    json["bootstrap"] = bootstrapJson(validation);
     json["models"] = modelsJson(validation);
     std::vector<std::string> warnings = intake.audit.warnings;
     warnings.insert(warnings.end(), validation.warnings.begin(), validation.warnings.end());
@@ -50,12 +56,18 @@ int runValidate(const ValidateOptions& options, const CLI::App& command)
     const auto result = runIntake(*settings);
     if (!result)
         return reportError(result.error());
-    const ValidationResult validation = runValidation(result->cohort, *panel);
+    ValidationResult validation = runValidation(result->cohort, *panel);
+    const BootstrapSettings bootstrap = options.bootstrap.resolved();
+    if (bootstrap.replicates > 0) {
+        const auto replicated = runBootstrap(result->cohort, validation, bootstrap, terminalProgress(), {});
+        if (replicated)
+            applyBootstrap(validation, *replicated);
+    }
     printIntakeSummary(std::cout, *settings, *result);
     printPanel(std::cout, validation);
     printCautions(std::cout);
     if (!options.jsonFile.empty()) {
-        const std::string text = resultJson(*settings, *result, validation).dump(2) + "\n";
+        const std::string text = resultJson(*settings, *result, validation, bootstrap).dump(2) + "\n";
         if (auto written = writeFileAtomically(options.jsonFile, text); !written)
             return reportError(written.error());
         std::cout << "Result file: " << options.jsonFile << '\n';
@@ -71,6 +83,7 @@ void addValidateCommand(CLI::App& app, int& exitStatus)
     CLI::App* command = app.add_subcommand("validate", "Validate one or more risk models on a cohort.");
     options->intake.addTo(*command);
     options->panel.addTo(*command);
+    options->bootstrap.addTo(*command);
     command->add_option("--json", options->jsonFile, "Write the full result as JSON");
     command->callback([options, command, &exitStatus] { exitStatus = runValidate(*options, *command); });
 }

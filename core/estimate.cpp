@@ -13,6 +13,8 @@ std::string ciMethodName(CiMethod method)
     case CiMethod::ExactPoisson: return "exact_poisson";
     case CiMethod::Wilson: return "wilson";
     case CiMethod::ClopperPearson: return "clopper_pearson";
+    case CiMethod::BootstrapPercentile: return "bootstrap_percentile";
+    case CiMethod::BootstrapBca: return "bootstrap_bca";
     }
     return "none";
 }

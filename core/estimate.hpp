@@ -6,7 +6,9 @@
 namespace plumbline {
 
 // How an interval was produced; written into the result so a reader knows what they look at.
-enum class CiMethod { None, DeLongLogit, DeLongPlain, Wald, LogNormal, ExactPoisson, Wilson, ClopperPearson };
+enum class CiMethod {
+    None, DeLongLogit, DeLongPlain, Wald, LogNormal, ExactPoisson, Wilson, ClopperPearson, BootstrapPercentile, BootstrapBca
+};
 
 std::string ciMethodName(CiMethod method);
 

@@ -172,9 +172,11 @@ std::optional<LoessSummary> loessOnSupport(const RiskSupport& full, const LoessO
     const RiskSupport binnedSupport = out.binned ? bin(full, options.maxSupportPoints) : RiskSupport{};
     const RiskSupport& s = out.binned ? binnedSupport : full;
     std::vector<double> curve(s.x.size(), 0.0);
+    // Every point is evaluated, also one nobody occupies in this (re)sample: bootstrap bands read
+    // each replicate's curve at the full sample's risks.
     for (std::size_t i = 0; i < s.x.size(); ++i) {
-        if (s.count[i] <= 0.0)
-            continue; // nobody at this risk in this (re)sample: not needed
+        if (i % 64 == 0 && options.stop.stop_requested())
+            return std::nullopt;
         const auto value = fitAt(s, s.x[i], q);
         if (!value)
             return std::nullopt;

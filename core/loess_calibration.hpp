@@ -5,6 +5,7 @@
 #include <cstddef>
 #include <cstdint>
 #include <optional>
+#include <stop_token>
 #include <span>
 #include <vector>
 
@@ -28,6 +29,7 @@ struct LoessOptions {
     double span = 0.75;
     std::size_t maxSupportPoints = 2000;
     std::size_t exactUpTo = 5000;   // always exact (no binning) up to this many patients
+    std::stop_token stop;           // a requested stop abandons the fit (no curve)
 };
 
 // Smoothed calibration curve: loess of y on p (span 0.75, local quadratic, tricube weights, no

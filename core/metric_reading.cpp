@@ -138,12 +138,18 @@ std::string metricReading(std::string_view key, const Estimate& e)
         return "largest calibration error on the smoothed curve";
     if (key == "brier")
         return "mean squared error of the risks (lower is better; read the scaled version)";
-    if (key == "scaled_brier")
-        return v <= 0 ? "no better than giving everyone the observed rate" : "improvement over giving everyone the observed rate";
+    if (key == "scaled_brier" || key == "nagelkerke_r2") {
+        const std::string what = key == "scaled_brier" ? "better than giving everyone the observed rate"
+                                                       : "explains variation beyond the observed rate";
+        switch (sideOf(e, 0.0)) {
+        case Side::Above: return "clearly " + what;
+        case Side::Below: return "worse than giving everyone the observed rate";
+        case Side::Inside: return "not clearly " + what + " (the interval includes 0)";
+        case Side::Unknown: return v <= 0 ? "no better than giving everyone the observed rate" : what;
+        }
+    }
     if (key == "log_loss")
         return "mean negative log-likelihood of the risks (lower is better)";
-    if (key == "nagelkerke_r2")
-        return v <= 0 ? "explains no variation beyond the observed rate" : "share of variation explained";
     return {};
 }
 

@@ -5,6 +5,7 @@
 #include "cohort.hpp"
 #include "discrimination.hpp"
 #include "estimate.hpp"
+#include "metric_bootstrap.hpp"
 #include "panel_settings.hpp"
 #include "risk_groups.hpp"
 #include "threshold_metrics.hpp"
@@ -17,10 +18,14 @@
 namespace plumbline {
 
 // One metric of the panel: its interface key, the estimate and a plain-words reading.
+// `estimate` carries the reported interval: the bootstrap's when one ran, else the analytic one,
+// which `analytic` then keeps.
 struct MetricEntry {
     std::string key;
     Estimate estimate;
     std::string reading;
+    std::optional<Estimate> analytic;
+    std::optional<MetricBootstrap> bootstrap;
 };
 
 struct CalibrationCurvePoint {
@@ -40,6 +45,8 @@ struct ModelValidation {
     std::vector<CalibrationCurvePoint> calibrationCurve;
     std::string calibrationCurveMethod; // "direct", "binned" or empty when no curve
     std::vector<ThresholdMetrics> thresholds;
+    CurveBand calibrationBand; // empty without a bootstrap
+    CurveBand rocBand;
     std::vector<std::string> warnings; // each says which value is missing or doubtful, and why
 
     const Estimate* metric(std::string_view key) const;

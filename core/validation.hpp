@@ -4,6 +4,7 @@
 #include "model_validation.hpp"
 #include "panel_settings.hpp"
 
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -14,6 +15,7 @@ struct ValidationResult {
     PanelSettings settings;
     std::vector<ModelValidation> models;
     std::vector<std::string> warnings; // cohort-level, then each model's
+    std::optional<BootstrapSummary> bootstrap; // empty when intervals are analytic only
 
     const ModelValidation* model(const std::string& name) const;
 };

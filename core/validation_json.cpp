@@ -1,5 +1,6 @@
 #include "validation_json.hpp"
 
+#include <algorithm>
 #include <cmath>
 
 namespace plumbline {
@@ -15,6 +16,33 @@ Json estimateJson(const Estimate& e)
             {"ci_lower", numberOrNull(e.lower)},
             {"ci_upper", numberOrNull(e.upper)},
             {"ci_method", e.value ? Json(ciMethodName(e.ciMethod)) : Json(nullptr)}};
+}
+
+Json pairJson(const std::pair<double, double>& p)
+{
+    return Json::array({p.first, p.second});
+}
+
+Json metricJson(const MetricEntry& entry)
+{
+    Json out = estimateJson(entry.estimate);
+    if (entry.analytic) {
+        const Estimate& a = *entry.analytic;
+        out["analytic"] = a.lower ? Json{{"se", numberOrNull(a.se)}, {"ci_lower", *a.lower}, {"ci_upper", *a.upper},
+                                         {"ci_method", ciMethodName(a.ciMethod)}}
+                                  : Json(nullptr);
+    }
+    if (entry.bootstrap) {
+        const MetricBootstrap& b = *entry.bootstrap;
+        out["bootstrap"] = {{"replicates_used", b.replicatesUsed},
+                            {"se", b.se},
+                            {"percentile", pairJson(b.percentile)},
+                            {"bca", b.bca ? pairJson(*b.bca) : Json(nullptr)},
+                            {"z0", numberOrNull(b.z0)},
+                            {"acceleration", b.acceleration},
+                            {"acceleration_from", std::string(b.accelerationMethod)}};
+    }
+    return out;
 }
 
 Json testsJson(const ModelValidation& m)
@@ -80,7 +108,7 @@ Json modelJson(const ModelValidation& m)
     Json metrics = Json::object();
     Json readings = Json::object();
     for (const auto& entry : m.metrics) {
-        metrics[entry.key] = estimateJson(entry.estimate);
+        metrics[entry.key] = metricJson(entry);
         readings[entry.key] = entry.reading.empty() ? Json(nullptr) : Json(entry.reading);
     }
     model["metrics"] = metrics;
@@ -92,9 +120,21 @@ Json modelJson(const ModelValidation& m)
         roc.push_back({{"threshold", point.threshold}, {"sensitivity", point.sensitivity}, {"specificity", point.specificity}});
     model["roc"] = roc;
     Json curve = Json::array();
-    for (const auto& point : m.calibrationCurve)
-        curve.push_back({{"predicted", point.predicted}, {"observed", point.observed}, {"ci_lower", nullptr}, {"ci_upper", nullptr}});
+    const CurveBand& band = m.calibrationBand;
+    for (const auto& point : m.calibrationCurve) {
+        const auto at = std::find(band.x.begin(), band.x.end(), point.predicted);
+        const bool banded = at != band.x.end();
+        const auto j = static_cast<std::size_t>(at - band.x.begin());
+        curve.push_back({{"predicted", point.predicted}, {"observed", point.observed},
+                         {"ci_lower", banded ? Json(band.lower[j]) : Json(nullptr)},
+                         {"ci_upper", banded ? Json(band.upper[j]) : Json(nullptr)}});
+    }
     model["calibration_curve"] = curve;
+    Json rocBand = Json::array();
+    for (std::size_t j = 0; j < m.rocBand.x.size(); ++j)
+        rocBand.push_back({{"false_positive_rate", m.rocBand.x[j]}, {"sensitivity_lower", m.rocBand.lower[j]},
+                           {"sensitivity_upper", m.rocBand.upper[j]}});
+    model["roc_band"] = rocBand;
     model["calibration_curve_method"] = m.calibrationCurveMethod.empty() ? Json(nullptr) : Json(m.calibrationCurveMethod);
     model["thresholds"] = thresholdsJson(m);
     return model;
@@ -122,6 +162,25 @@ Json panelSettingsJson(const PanelSettings& settings)
             {"thresholds", settings.thresholds},
             {"c_statistic_interval", settings.cStatisticScale == CStatisticScale::Logit ? "logit" : "plain"},
             {"binomial_interval", settings.binomialInterval == CiMethod::ClopperPearson ? "clopper-pearson" : "wilson"}};
+}
+
+} // namespace plumbline
+
+namespace plumbline {
+
+nlohmann::ordered_json bootstrapJson(const ValidationResult& result)
+{
+    if (!result.bootstrap)
+        return {{"replicates", 0}, {"note", "analytic intervals only"}};
+    const BootstrapSummary& b = *result.bootstrap;
+    return {{"replicates", b.replicates},
+            {"seed", b.seed},
+            {"ci_method", b.ciMethod},
+            {"confidence", result.settings.confidence},
+            {"stratified", b.stratified},
+            {"redrawn", b.redrawn},
+            {"resampling", b.stratified ? "events and non-events resampled separately" : "patients resampled with replacement"},
+            {"random_stream", "xoshiro256** seeded by SplitMix64 from (seed, replicate)"}};
 }
 
 } // namespace plumbline

@@ -25,7 +25,7 @@ ModelSupport buildModelSupport(std::span<const double> score, const ScoreOrder& 
 }
 
 void countRows(const ModelSupport& support, std::span<const std::uint8_t> outcome,
-               std::span<const std::uint16_t> rowCounts, SupportCounts& counts)
+               std::span<const std::uint32_t> rowCounts, SupportCounts& counts)
 {
     counts.events.assign(support.x.size(), 0.0);
     counts.nonEvents.assign(support.x.size(), 0.0);
@@ -39,7 +39,7 @@ void countRows(const ModelSupport& support, std::span<const std::uint8_t> outcom
 SupportCounts sampleCounts(const ModelSupport& support, std::span<const std::uint8_t> outcome)
 {
     SupportCounts counts;
-    const std::vector<std::uint16_t> ones(outcome.size(), 1);
+    const std::vector<std::uint32_t> ones(outcome.size(), 1);
     countRows(support, outcome, ones, counts);
     return counts;
 }

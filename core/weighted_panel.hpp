@@ -30,7 +30,7 @@ struct SupportCounts {
 };
 // Adds each row's count (1 for the sample itself, the multinomial count in a replicate).
 void countRows(const ModelSupport& support, std::span<const std::uint8_t> outcome,
-               std::span<const std::uint16_t> rowCounts, SupportCounts& counts);
+               std::span<const std::uint32_t> rowCounts, SupportCounts& counts);
 SupportCounts sampleCounts(const ModelSupport& support, std::span<const std::uint8_t> outcome);
 
 // Starting values for the replicate fits (the full-sample estimates).

@@ -23,11 +23,25 @@ expect() { # expect STATUS "needle in stderr" -- command...
 
 sample=$samples/readmissions.csv
 # Done, and the JSON holds the interface's blocks with a balanced audit.
-expect 0 "" -- "$cli" validate "$sample" --outcome readmitted_30d --score supplier_score --score local_score --json "$work/r.json"
-/usr/bin/python3 - "$work/r.json" <<'PY' || failures=$((failures+1))
+expect 0 "" -- "$cli" validate "$sample" --outcome readmitted_30d --score supplier_score --score local_score \
+  --bootstrap 200 --seed 11 --threads 1 --json "$work/r.json"
+expect 0 "" -- "$cli" validate "$sample" --outcome readmitted_30d --score supplier_score --score local_score \
+  --bootstrap 200 --seed 11 --threads 2 --json "$work/r2.json"
+/usr/bin/python3 - "$work/r.json" "$work/r2.json" <<'PY' || failures=$((failures+1))
 import json, sys
-r = json.load(open(sys.argv[1]))
-for block in ("plumbline", "inputs", "settings", "cohort", "models", "warnings"):
+one, two = (open(p).read() for p in sys.argv[1:3])
+# Bit-identical apart from the creation time: the thread count changes nothing.
+strip = lambda text: "\n".join(l for l in text.splitlines() if '"created"' not in l)
+assert strip(one) == strip(two), "JSON differs between --threads 1 and --threads 2"
+r = json.loads(one)
+assert r["bootstrap"]["seed"] == 11 and r["bootstrap"]["replicates"] == 200
+for model in r["models"]:
+    for key, metric in model["metrics"].items():
+        assert metric["ci_method"].startswith("bootstrap_"), key
+        assert metric["bootstrap"]["percentile"] and metric["bootstrap"]["acceleration_from"], key
+    assert model["calibration_curve"][0]["ci_lower"] is not None and len(model["roc_band"]) == 101
+print("ok: bootstrap JSON identical for 1 and 2 threads, every metric with its interval")
+for block in ("plumbline", "inputs", "settings", "cohort", "bootstrap", "models", "warnings"):
     assert block in r, block
 c = r["cohort"]
 assert c["rows_read"] == c["rows_used"] + sum(e["rows"] for e in c["exclusions"]), "audit does not balance"
@@ -52,7 +66,7 @@ expect 2 "" -- "$cli" validate "$sample" --outcome readmitted_30d --score suppli
 expect 2 "strictly between 0 and 1" -- "$cli" validate "$sample" --outcome readmitted_30d --score supplier_score --thresholds 0.1,1.5
 expect 2 "" -- "$cli" validate "$sample" --outcome readmitted_30d --score supplier_score --groups 1
 # The printed panel names its metrics, intervals and readings, and the cautions close it.
-out=$("$cli" validate "$sample" --outcome readmitted_30d --score supplier_score)
+out=$("$cli" validate "$sample" --outcome readmitted_30d --score supplier_score --bootstrap 0)
 for needle in "C statistic" "Calibration slope" "predictions too extreme" "positive if risk >= t" "Cautions:"; do
   [[ $out == *"$needle"* ]] && echo "ok: table shows '$needle'" || { echo "FAIL: table lacks '$needle'"; failures=$((failures+1)); }
 done
@@ -79,13 +93,13 @@ printf 'y,p\n0,0.2\n0,0.3\n' > "$work/oneclass.csv"
 expect 3 "both patients with and without the event" -- "$cli" validate "$work/oneclass.csv" --outcome y --score p
 # Inputs are never modified.
 before=$(sha256sum "$sample")
-"$cli" validate "$sample" --outcome readmitted_30d --score supplier_score >/dev/null
+"$cli" validate "$sample" --outcome readmitted_30d --score supplier_score --bootstrap 0 >/dev/null
 [[ "$(sha256sum "$sample")" == "$before" ]] && echo "ok: input unchanged" || { echo "FAIL: input changed"; failures=$((failures+1)); }
 # inspect and the two-file join.
 expect 0 "" -- "$cli" inspect "$sample"
 "$cli" inspect "$sample" | grep -q "readmitted_30d.*binary" && echo "ok: inspect types the outcome" || { echo "FAIL: inspect"; failures=$((failures+1)); }
 expect 0 "" -- "$cli" validate "$samples/readmission-scores.csv" --outcomes "$samples/readmission-outcomes.csv" \
-  --id encounter_id --outcome readmitted_30d --score supplier_score --json "$work/join.json"
+  --id encounter_id --outcome readmitted_30d --score supplier_score --bootstrap 0 --json "$work/join.json"
 /usr/bin/python3 - "$work/join.json" <<'PY' || failures=$((failures+1))
 import json, sys
 c = json.load(open(sys.argv[1]))["cohort"]

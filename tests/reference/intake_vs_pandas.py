@@ -15,7 +15,7 @@ cli, samples = sys.argv[1], sys.argv[2]
 
 
 def run_cli(args):
-    return run_full(cli, args)["cohort"]
+    return run_full(cli, args + ["--bootstrap", "0"])["cohort"]
 
 
 def expected_single(frame, scores):

@@ -119,7 +119,7 @@ def validate(tag, path, outcome, scores, extra=()):
     args = [path, "--outcome", outcome]
     for column in scores:
         args += ["--score", column]
-    result = run_cli(cli, args + list(extra))
+    result = run_cli(cli, args + ["--bootstrap", "0"] + list(extra))
     settings = result["settings"]["panel"]
     y, p = usable_rows(path, outcome, scores)
     close(f"{tag} rows used", result["cohort"]["rows_used"], len(y), EXACT)
