@@ -59,7 +59,7 @@ PreparedModel prepareModel(const Cohort& cohort, std::size_t m, const ModelValid
 }
 
 // Multinomial counts over the rows, redrawn while a class is missing (non-stratified).
-void drawCounts(const Shared& shared, RandomStream& random, std::vector<std::uint32_t>& counts, std::size_t& redraws)
+void drawCounts(const Shared& shared, RandomStream& random, std::vector<std::uint16_t>& counts, std::size_t& redraws)
 {
     const auto& y = shared.cohort.outcome;
     const std::size_t n = y.size();
@@ -85,7 +85,7 @@ void drawCounts(const Shared& shared, RandomStream& random, std::vector<std::uin
 }
 
 // False when a stop was requested part-way (the replicate is then incomplete and discarded).
-bool runReplicate(Shared& shared, std::size_t r, std::vector<std::uint32_t>& counts, SupportCounts& supportCounts,
+bool runReplicate(Shared& shared, std::size_t r, std::vector<std::uint16_t>& counts, SupportCounts& supportCounts,
                   std::vector<double>& curve, const std::stop_token& stop)
 {
     RandomStream random(shared.settings.seed, r + 1);
@@ -261,7 +261,7 @@ std::optional<BootstrapResult> runBootstrap(const Cohort& cohort, const Validati
         }
     };
     auto worker = [&] {
-        std::vector<std::uint32_t> counts(cohort.rows());
+        std::vector<std::uint16_t> counts(cohort.rows());
         SupportCounts supportCounts;
         std::vector<double> curve;
         try {

@@ -172,15 +172,27 @@ std::optional<LoessSummary> loessOnSupport(const RiskSupport& full, const LoessO
     const RiskSupport binnedSupport = out.binned ? bin(full, options.maxSupportPoints) : RiskSupport{};
     const RiskSupport& s = out.binned ? binnedSupport : full;
     std::vector<double> curve(s.x.size(), 0.0);
-    // Every point is evaluated, also one nobody occupies in this (re)sample: bootstrap bands read
-    // each replicate's curve at the full sample's risks.
-    for (std::size_t i = 0; i < s.x.size(); ++i) {
-        if (i % 64 == 0 && options.stop.stop_requested())
+    // Binned: fits at up to maxVertices bin positions, straight lines between them (the bins
+    // are dense, the curve smooth). Exact: a fit at every distinct risk.
+    const std::size_t stride = out.binned ? (s.x.size() + options.maxVertices - 1) / options.maxVertices : 1;
+    std::vector<std::size_t> vertices;
+    for (std::size_t i = 0; i < s.x.size(); i += stride)
+        vertices.push_back(i);
+    if (vertices.back() != s.x.size() - 1)
+        vertices.push_back(s.x.size() - 1);
+    for (std::size_t v = 0; v < vertices.size(); ++v) {
+        if (options.stop.stop_requested())
             return std::nullopt;
+        const std::size_t i = vertices[v];
         const auto value = fitAt(s, s.x[i], q);
         if (!value)
             return std::nullopt;
         curve[i] = *value;
+        if (v == 0)
+            continue;
+        const std::size_t previous = vertices[v - 1];
+        for (std::size_t j = previous + 1; j < i; ++j)
+            curve[j] = curve[previous] + (s.x[j] - s.x[previous]) / (s.x[i] - s.x[previous]) * (curve[i] - curve[previous]);
     }
     // The fitted value at each distinct risk: its own fit, or interpolated between bin positions.
     if (!out.binned) {

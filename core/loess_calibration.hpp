@@ -28,6 +28,7 @@ RiskSupport collapseRisks(std::span<const std::uint8_t> outcome, std::span<const
 struct LoessOptions {
     double span = 0.75;
     std::size_t maxSupportPoints = 2000;
+    std::size_t maxVertices = 500;  // binned: local fits at most here, interpolated between
     std::size_t exactUpTo = 5000;   // always exact (no binning) up to this many patients
     std::stop_token stop;           // a requested stop abandons the fit (no curve)
 };
@@ -39,9 +40,10 @@ struct LoessOptions {
 //
 // Tied risks form one weighted point, which reproduces loess on the expanded data exactly (the
 // neighbourhood is counted in patients; methods reference §3.9). Above `exactUpTo` patients with
-// more than `maxSupportPoints` distinct risks, risks are pooled into that many equal-width bins,
-// fitted at each bin's mean risk and interpolated linearly: the "binned" approximation, whose
-// ICI stays within 0.001 of the exact one (tested).
+// more than `maxSupportPoints` distinct risks, risks are pooled into that many equal-width bins
+// (placed at their mean risk), the local fit is made at up to `maxVertices` of them and the
+// curve interpolated linearly in between: the "binned" approximation, whose ICI stays within
+// 0.001 of the exact one (tested).
 struct LoessSummary {
     std::vector<double> fitted; // per support point, raw (may leave [0,1]); ICI is computed on it
     double ici = 0.0, e50 = 0.0, e90 = 0.0, emax = 0.0;

@@ -176,7 +176,7 @@ void smoothedCurve(const ModelSupport& s, std::span<const std::uint8_t> outcome,
     constexpr std::array<PanelMetric, 4> metrics{Ici, E50, E90, Emax};
     std::array<std::vector<double>, 4> values;
     SupportCounts counts;
-    std::vector<std::uint32_t> keep(outcome.size());
+    std::vector<std::uint16_t> keep(outcome.size());
     for (std::size_t g = 0; g < groups; ++g) {
         for (std::size_t i = 0; i < outcome.size(); ++i)
             keep[i] = i % groups == g ? 0 : 1;

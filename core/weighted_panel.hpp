@@ -28,9 +28,10 @@ struct SupportCounts {
     std::vector<double> events;
     std::vector<double> nonEvents;
 };
-// Adds each row's count (1 for the sample itself, the multinomial count in a replicate).
+// Adds each row's count (1 for the sample itself, the multinomial count in a replicate). Counts
+// are 16-bit: a row drawn 65,536 times in one replicate has probability of order 1/65536!.
 void countRows(const ModelSupport& support, std::span<const std::uint8_t> outcome,
-               std::span<const std::uint32_t> rowCounts, SupportCounts& counts);
+               std::span<const std::uint16_t> rowCounts, SupportCounts& counts);
 SupportCounts sampleCounts(const ModelSupport& support, std::span<const std::uint8_t> outcome);
 
 // Starting values for the replicate fits (the full-sample estimates).

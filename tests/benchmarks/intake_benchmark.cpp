@@ -4,7 +4,11 @@
 //   plumbline-bench intake FILE [REPEATS]   intake alone: wall seconds, peak memory / file size
 //   plumbline-bench panel FILE [REPEATS]    the whole metric panel (ICI included) after intake,
 //                                           for both score columns of a simulated cohort
+//   plumbline-bench bootstrap FILE REPLICATES [curve]
+//                                           the bootstrap of the supplier score's panel on 2
+//                                           threads; with "curve" also ICI and both bands
 #include "intake.hpp"
+#include "bootstrap_engine.hpp"
 #include "validation.hpp"
 
 #include <sys/resource.h>
@@ -13,11 +17,36 @@
 #include <chrono>
 #include <cstdio>
 #include <cstdlib>
+#include <cstring>
 #include <filesystem>
 #include <string>
 #include <vector>
 
 namespace {
+
+// Resets the kernel's peak-resident counter (Linux /proc/self/clear_refs, value 5) so that the
+// extra memory of one step can be read from VmHWM afterwards.
+void resetPeakResident()
+{
+    if (std::FILE* f = std::fopen("/proc/self/clear_refs", "w")) {
+        std::fputs("5", f);
+        std::fclose(f);
+    }
+}
+
+double statusMegabytes(const char* field)
+{
+    double kib = 0.0;
+    if (std::FILE* f = std::fopen("/proc/self/status", "r")) {
+        char line[256];
+        const std::size_t length = std::strlen(field);
+        while (std::fgets(line, sizeof line, f))
+            if (std::strncmp(line, field, length) == 0)
+                kib = std::atof(line + length + 1);
+        std::fclose(f);
+    }
+    return kib / 1024.0;
+}
 
 double peakResidentMegabytes()
 {
@@ -81,13 +110,45 @@ int benchmarkPanel(const std::string& path, int repeats)
     return 0;
 }
 
+int benchmarkBootstrap(const std::string& path, std::size_t replicates, bool curve)
+{
+    plumbline::IntakeSettings settings;
+    settings.cohortFile = path;
+    settings.outcomeColumn = "readmitted_30d";
+    settings.scoreColumns = {"supplier_score"};
+    const auto intake = plumbline::runIntake(settings);
+    if (!intake) {
+        std::fprintf(stderr, "intake failed: %s\n", intake.error().message().c_str());
+        return 1;
+    }
+    const auto full = plumbline::runValidation(intake->cohort, plumbline::PanelSettings{});
+    resetPeakResident();
+    const double before = statusMegabytes("VmRSS");
+    plumbline::BootstrapSettings bootstrap;
+    bootstrap.replicates = replicates;
+    bootstrap.smoothedCurve = curve;
+    const auto start = std::chrono::steady_clock::now();
+    const auto result = plumbline::runBootstrap(intake->cohort, full, bootstrap, {}, {});
+    const auto stop = std::chrono::steady_clock::now();
+    const double extra = statusMegabytes("VmHWM") - before;
+    std::printf("plumbline bootstrap: rows=%zu replicates=%zu curve=%s threads=2 wall_s=%.2f extra_peak_mb=%.1f "
+                "extra_bytes_per_row=%.1f C_ci=[%.4f,%.4f]\n",
+                intake->cohort.rows(), replicates, curve ? "yes" : "no",
+                std::chrono::duration<double>(stop - start).count(), extra,
+                extra * 1024 * 1024 / double(intake->cohort.rows()),
+                result->models[0].metrics[0]->bca->first, result->models[0].metrics[0]->bca->second);
+    return 0;
+}
+
 } // namespace
 
 int main(int argc, char** argv)
 {
     const std::string mode = argc > 1 ? argv[1] : "";
+    if (mode == "bootstrap" && argc >= 4)
+        return benchmarkBootstrap(argv[2], std::strtoul(argv[3], nullptr, 10), argc > 4 && std::string(argv[4]) == "curve");
     if (argc < 3 || (mode != "intake" && mode != "panel")) {
-        std::fprintf(stderr, "usage: plumbline-bench intake|panel FILE [REPEATS]\n");
+        std::fprintf(stderr, "usage: plumbline-bench intake|panel FILE [REPEATS] | bootstrap FILE REPLICATES [curve]\n");
         return 2;
     }
     const int repeats = argc > 3 ? std::max(1, std::atoi(argv[3])) : 5;

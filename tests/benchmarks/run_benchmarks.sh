@@ -63,6 +63,40 @@ PY
 )
 echo "$peer"
 echo
+echo "== plumbline bootstrap, supplier score, B = 1000, 2 threads: without and with ICI and both bands"
+boot=$("$build/tests/benchmarks/plumbline-bench" bootstrap "$data" 1000 | tee /dev/stderr)
+bootcurve=$("$build/tests/benchmarks/plumbline-bench" bootstrap "$data" 1000 curve | tee /dev/stderr)
+echo
+echo "== Python peer bootstrap: resample rows, recompute C, Brier, O/E, intercept, slope; 3 replicates"
+bootpeer=$(/usr/bin/python3 - "$data" <<'PY'
+import sys, time
+import numpy as np, pandas as pd, statsmodels.api as sm
+from sklearn.metrics import brier_score_loss, roc_auc_score
+frame = pd.read_csv(sys.argv[1], usecols=["supplier_score", "readmitted_30d"])
+frame["supplier_score"] = pd.to_numeric(frame["supplier_score"], errors="coerce")
+frame = frame.dropna()
+frame = frame[(frame.supplier_score >= 0) & (frame.supplier_score <= 1)]
+y_all = (frame.readmitted_30d == "yes").to_numpy().astype(int)
+p_all = frame.supplier_score.to_numpy()
+rng = np.random.default_rng(1)
+start = time.perf_counter()
+for _ in range(3):
+    rows = rng.integers(0, len(y_all), len(y_all))
+    y, p = y_all[rows], p_all[rows]
+    lp = np.log(p / (1 - p))
+    roc_auc_score(y, p); brier_score_loss(y, p); y.sum() / p.sum()
+    sm.GLM(y, np.ones((len(y), 1)), family=sm.families.Binomial(), offset=lp).fit()
+    sm.Logit(y, sm.add_constant(lp)).fit(disp=0)
+per = (time.perf_counter() - start) / 3
+print(f"python peer bootstrap: per_replicate_s={per:.3f} extrapolated_1000_s={per * 1000:.0f}")
+PY
+)
+echo "$bootpeer"
+echo
+boot_s=$(sed -E 's/.*wall_s=([0-9.]+).*/\1/' <<<"$boot")
+bootcurve_s=$(sed -E 's/.*wall_s=([0-9.]+).*/\1/' <<<"$bootcurve")
+bootmem=$(sed -E 's/.*extra_bytes_per_row=([0-9.]+).*/\1/' <<<"$bootcurve")
+bootpeer_s=$(sed -E 's/.*extrapolated_1000_s=([0-9.]+).*/\1/' <<<"$bootpeer")
 panel_s=$(sed -E 's/.*median_s=([0-9.]+).*/\1/' <<<"$panel")
 peer_s=$(sed -E 's/.*median_s=([0-9.]+).*/\1/' <<<"$peer")
 ours=$(sed -E 's/.*median_s=([0-9.]+).*/\1/' <<<"$plumbline")
@@ -76,3 +110,8 @@ awk -v a="$ours" -v b="$theirs" 'BEGIN { printf "%-34s %10.1fx\n", "pandas time 
 printf '%-34s %10s %12s\n' "metric panel, 2 models, with ICI" "$panel_s" "<= 0.6 s"
 printf '%-34s %10s %12s\n' "Python peer (5 metrics, 2 models)" "$peer_s" "-"
 awk -v a="$panel_s" -v b="$peer_s" 'BEGIN { printf "%-34s %10.1fx\n", "peer time / plumbline panel time", b / a }'
+printf '%-34s %10s %12s\n' "bootstrap B=1000, no ICI" "$boot_s" "<= 6 s"
+printf '%-34s %10s %12s\n' "bootstrap B=1000, ICI + bands" "$bootcurve_s" "<= 15 s"
+printf '%-34s %10s %12s\n' "  extra memory, bytes per row" "$bootmem" "few"
+printf '%-34s %10s %12s\n' "Python peer, 5 metrics, B=1000" "$bootpeer_s" "-"
+awk -v a="$boot_s" -v b="$bootpeer_s" 'BEGIN { printf "%-34s %10.0fx\n", "peer time / plumbline bootstrap", b / a }'

@@ -11,7 +11,7 @@ using Catch::Matchers::WithinAbs;
 
 namespace {
 
-PanelValues weightedOf(const CheckData& d, const std::vector<std::uint32_t>& counts)
+PanelValues weightedOf(const CheckData& d, const std::vector<std::uint16_t>& counts)
 {
     const ModelSupport support = buildModelSupport(d.p, ascendingOrder(d.p), true);
     SupportCounts c;
@@ -21,7 +21,7 @@ PanelValues weightedOf(const CheckData& d, const std::vector<std::uint32_t>& cou
 }
 
 // The panel computed the ordinary way on explicitly resampled rows.
-PanelValues expandedOf(const CheckData& d, const std::vector<std::uint32_t>& counts)
+PanelValues expandedOf(const CheckData& d, const std::vector<std::uint16_t>& counts)
 {
     CheckData expanded;
     for (std::size_t i = 0; i < d.y.size(); ++i)
@@ -42,7 +42,7 @@ TEST_CASE("Weighted Toy-20 C and Brier match the check values of the methods ref
 {
     // shared/methods.md §5.2 [C; scikit-learn roc_auc_score(sample_weight=c)]: C 0.6333333,
     // Brier 0.235125; recalibration (a, b) = (−0.9669542, 0.2015165).
-    const std::vector<std::uint32_t> c{2, 0, 1, 1, 0, 3, 1, 0, 1, 2, 1, 0, 1, 1, 0, 2, 1, 1, 0, 2};
+    const std::vector<std::uint16_t> c{2, 0, 1, 1, 0, 3, 1, 0, 1, 2, 1, 0, 1, 1, 0, 2, 1, 1, 0, 2};
     const PanelValues v = weightedOf(toy20A(), c);
     CHECK_THAT(*v[CStatistic], WithinAbs(0.6333333, 1e-7));
     CHECK_THAT(*v[Brier], WithinAbs(0.235125, 1e-12));
@@ -56,7 +56,7 @@ TEST_CASE("Every weighted metric equals the metric on the explicitly resampled r
     const std::vector<CheckData> datasets{toy20A(), toy20B(), gen1000()};
     for (const CheckData& d : datasets) {
         for (int trial = 0; trial < 4; ++trial) {
-            std::vector<std::uint32_t> counts(d.y.size(), 0);
+            std::vector<std::uint16_t> counts(d.y.size(), 0);
             for (std::size_t k = 0; k < d.y.size(); ++k)
                 ++counts[random.below(d.y.size())];
             const PanelValues weighted = weightedOf(d, counts);
