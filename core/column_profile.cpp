@@ -127,12 +127,14 @@ ColumnProfile describe(const std::string& name, const ColumnTally& t, std::size_
 
 } // namespace
 
-std::expected<TableProfile, InputError> profileColumns(const DelimitedTable& table)
+std::expected<TableProfile, InputError> profileColumns(const DelimitedTable& table, std::size_t maxRows)
 {
     TableProfile profile;
     const std::size_t width = table.header().size();
     std::vector<ColumnTally> tallies(width);
     const auto visited = table.forEachRecord([&](const CsvScanner& scanner) {
+        if (maxRows > 0 && profile.rows >= maxRows)
+            return;
         ++profile.rows;
         const auto& fields = scanner.fields();
         if (fields.size() != width) {

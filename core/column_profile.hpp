@@ -33,6 +33,7 @@ struct TableProfile {
 inline constexpr std::size_t distinctCap = 100000;
 
 // Profiles every column of the table in one pass: sniffed type, counts, range and problems.
-std::expected<TableProfile, InputError> profileColumns(const DelimitedTable& table);
+// With maxRows, only the first rows are read (enough for guessing roles in a dialog).
+std::expected<TableProfile, InputError> profileColumns(const DelimitedTable& table, std::size_t maxRows = 0);
 
 } // namespace plumbline

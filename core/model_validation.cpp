@@ -99,6 +99,8 @@ public:
 
     void thresholds()
     {
+        m_result.operatingPoints = operatingPoints(m_y, m_p, m_order, 0.005);
+        m_result.riskDistribution = riskHistogram(m_y, m_p, 50);
         m_result.thresholds = thresholdMetrics(m_y, m_p, m_order, m_settings.thresholds, m_settings.confidence,
                                                m_settings.binomialInterval);
     }

@@ -6,6 +6,7 @@
 #include "discrimination.hpp"
 #include "estimate.hpp"
 #include "metric_bootstrap.hpp"
+#include "operating_points.hpp"
 #include "panel_settings.hpp"
 #include "risk_groups.hpp"
 #include "threshold_metrics.hpp"
@@ -45,6 +46,8 @@ struct ModelValidation {
     std::vector<CalibrationCurvePoint> calibrationCurve;
     std::string calibrationCurveMethod; // "direct", "binned" or empty when no curve
     std::vector<ThresholdMetrics> thresholds;
+    std::vector<OperatingPoint> operatingPoints; // every 0.005 of risk, for a threshold slider
+    RiskHistogram riskDistribution;               // 50 bins over 0-1, by outcome class
     CurveBand calibrationBand; // empty without a bootstrap
     CurveBand rocBand;
     std::vector<std::string> warnings; // each says which value is missing or doubtful, and why

@@ -1,4 +1,8 @@
+#include "cohort_simulator.hpp"
 #include "column_profile.hpp"
+#include "column_roles.hpp"
+
+#include <algorithm>
 
 #include <catch2/catch.hpp>
 
@@ -45,4 +49,20 @@ TEST_CASE("inspect reports ragged rows and stray text in numeric columns", "[ins
     CHECK(profile.raggedRows == 1);
     CHECK(profile.firstRaggedLine == 6);
     CHECK(hasNote(profile.columns[1], "not numbers (first on line 4: 'oops')"));
+}
+
+TEST_CASE("Column roles are guessed from the sample cohort's names and content", "[inspect]")
+{
+    const auto files = simulateCohort({2000, 3}, false);
+    auto table = DelimitedTable::open(*TextFile::fromBytes("s.csv", files.cohort), std::nullopt);
+    const auto roles = guessColumnRoles(*profileColumns(*table, 1000));
+    CHECK(roles.outcome == "readmitted_30d");
+    CHECK(roles.scores == std::vector<std::string>{"supplier_score", "local_score"});
+    CHECK(roles.id == "encounter_id");
+    CHECK(roles.period == "discharge_date");
+    CHECK(std::find(roles.groups.begin(), roles.groups.end(), "hospital") != roles.groups.end());
+    CHECK(roles.scale == ScoreScale::Probability);
+    const auto preview = previewTable(*table, 5);
+    CHECK(preview.rows.size() == 5);
+    CHECK(preview.lines.front() == 2);
 }

@@ -135,3 +135,23 @@ TEST_CASE("Readings follow the interval not just the estimate", "[panel]")
             CHECK(entry.reading.find("consistent") != std::string::npos);
     }
 }
+
+TEST_CASE("Operating points on the slider grid equal the threshold metrics at the same thresholds", "[panel]")
+{
+    const ValidationResult result = runValidation(cohortOf(gen1000()), PanelSettings{});
+    const ModelValidation& m = result.models.at(0);
+    REQUIRE(m.operatingPoints.size() == 201);
+    // Gen-1000 at t = 0.1, 0.2, 0.3 (methods §7.3 [C]): TP 282/247/214, FP 550/369/259.
+    const std::size_t tp[3] = {282, 247, 214}, fp[3] = {550, 369, 259};
+    for (int k = 0; k < 3; ++k) {
+        const OperatingPoint& point = m.operatingPoints[static_cast<std::size_t>(20 * (k + 1))];
+        CHECK_THAT(point.threshold, WithinAbs(0.1 * (k + 1), 1e-12));
+        CHECK(point.tp == tp[k]);
+        CHECK(point.fp == fp[k]);
+        CHECK(point.tp + point.fn == 299);
+    }
+    std::size_t total = 0;
+    for (std::size_t b = 0; b < 50; ++b)
+        total += m.riskDistribution.events[b] + m.riskDistribution.nonEvents[b];
+    CHECK(total == 1000);
+}

@@ -1,0 +1,44 @@
+#include "operating_points.hpp"
+
+#include <algorithm>
+#include <cmath>
+
+namespace plumbline {
+
+std::vector<OperatingPoint> operatingPoints(std::span<const std::uint8_t> outcome, std::span<const double> risk,
+                                            const ScoreOrder& order, double step)
+{
+    const auto steps = static_cast<std::size_t>(std::llround(1.0 / step));
+    std::size_t events = 0;
+    for (std::uint8_t y : outcome)
+        events += y;
+    const std::size_t nonEvents = outcome.size() - events;
+    std::vector<OperatingPoint> out;
+    // Walk the ascending order once: rows below the threshold are the negatives.
+    std::size_t k = 0, eventsBelow = 0, nonEventsBelow = 0;
+    for (std::size_t s = 0; s <= steps; ++s) {
+        const double t = double(s) / double(steps);
+        while (k < order.size() && risk[order[k]] < t) {
+            (outcome[order[k]] ? eventsBelow : nonEventsBelow) += 1;
+            ++k;
+        }
+        out.push_back({t, events - eventsBelow, nonEvents - nonEventsBelow, nonEventsBelow, eventsBelow});
+    }
+    return out;
+}
+
+RiskHistogram riskHistogram(std::span<const std::uint8_t> outcome, std::span<const double> risk, std::size_t bins)
+{
+    RiskHistogram h;
+    for (std::size_t b = 0; b <= bins; ++b)
+        h.edges.push_back(double(b) / double(bins));
+    h.events.assign(bins, 0);
+    h.nonEvents.assign(bins, 0);
+    for (std::size_t i = 0; i < risk.size(); ++i) {
+        const auto bin = std::min(bins - 1, static_cast<std::size_t>(std::max(0.0, risk[i]) * double(bins)));
+        ++(outcome[i] ? h.events : h.nonEvents)[bin];
+    }
+    return h;
+}
+
+} // namespace plumbline

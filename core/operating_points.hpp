@@ -1,0 +1,31 @@
+#pragma once
+
+#include "score_order.hpp"
+
+#include <cstddef>
+#include <cstdint>
+#include <span>
+#include <vector>
+
+namespace plumbline {
+
+// Counts at every threshold of a fixed grid (0, step, 2·step, …, 1; positive if risk ≥ t), so
+// a view can follow a threshold slider by looking a row up instead of computing anything.
+struct OperatingPoint {
+    double threshold;
+    std::size_t tp, fp, tn, fn;
+};
+
+std::vector<OperatingPoint> operatingPoints(std::span<const std::uint8_t> outcome, std::span<const double> risk,
+                                            const ScoreOrder& order, double step);
+
+// Predicted risks of events and of non-events in equal-width bins over [0, 1] (the calibration
+// plot's distribution strip).
+struct RiskHistogram {
+    std::vector<double> edges; // bins + 1
+    std::vector<std::size_t> events;
+    std::vector<std::size_t> nonEvents;
+};
+RiskHistogram riskHistogram(std::span<const std::uint8_t> outcome, std::span<const double> risk, std::size_t bins);
+
+} // namespace plumbline
