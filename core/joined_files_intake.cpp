@@ -86,6 +86,9 @@ std::expected<StagedFile, InputError> stageJoinedFiles(const DelimitedTable& sco
             return std::unexpected(column.error());
         scoreIndices.push_back(*column);
     }
+    if (settings.periodColumn)
+        if (const auto period = scores.column(*settings.periodColumn, "period"); !period)
+            return std::unexpected(period.error());
     std::vector<std::size_t> groupIndices;
     for (const auto& name : settings.groupColumns) {
         const auto column = scores.column(name, "group");

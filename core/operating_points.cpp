@@ -27,6 +27,23 @@ std::vector<OperatingPoint> operatingPoints(std::span<const std::uint8_t> outcom
     return out;
 }
 
+OperatingPointSummary summarise(const OperatingPoint& p)
+{
+    auto ratio = [](std::size_t a, std::size_t b) { return b > 0 ? std::optional<double>(double(a) / double(b)) : std::nullopt; };
+    OperatingPointSummary s;
+    s.sensitivity = ratio(p.tp, p.tp + p.fn);
+    s.specificity = ratio(p.tn, p.tn + p.fp);
+    s.ppv = ratio(p.tp, p.tp + p.fp);
+    s.npv = ratio(p.tn, p.tn + p.fn);
+    const double n = double(p.tp + p.fp + p.tn + p.fn);
+    s.flagRate = double(p.tp + p.fp) / n;
+    const double odds = p.threshold < 1.0 ? p.threshold / (1.0 - p.threshold) : 0.0;
+    const double rate = double(p.tp + p.fn) / n;
+    s.netBenefit = double(p.tp) / n - double(p.fp) / n * odds;
+    s.netBenefitTreatAll = rate - (1.0 - rate) * odds;
+    return s;
+}
+
 RiskHistogram riskHistogram(std::span<const std::uint8_t> outcome, std::span<const double> risk, std::size_t bins)
 {
     RiskHistogram h;

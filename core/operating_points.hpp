@@ -4,6 +4,7 @@
 
 #include <cstddef>
 #include <cstdint>
+#include <optional>
 #include <span>
 #include <vector>
 
@@ -18,6 +19,16 @@ struct OperatingPoint {
 
 std::vector<OperatingPoint> operatingPoints(std::span<const std::uint8_t> outcome, std::span<const double> risk,
                                             const ScoreOrder& order, double step);
+
+// What a threshold means for the care team, from its counts (methods reference §7): sensitivity,
+// specificity, PPV, NPV, flag rate and net benefit beside treating everyone. Undefined → empty.
+struct OperatingPointSummary {
+    std::optional<double> sensitivity, specificity, ppv, npv;
+    double flagRate = 0.0;
+    double netBenefit = 0.0;
+    double netBenefitTreatAll = 0.0; // empty meaning is impossible: defined for t in [0, 1)
+};
+OperatingPointSummary summarise(const OperatingPoint& point);
 
 // Predicted risks of events and of non-events in equal-width bins over [0, 1] (the calibration
 // plot's distribution strip).

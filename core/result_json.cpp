@@ -61,6 +61,7 @@ nlohmann::ordered_json intakeSettingsJson(const IntakeSettings& settings)
     out["id"] = optionalJson(settings.idColumn);
     out["outcomes_id"] = optionalJson(settings.outcomesIdColumn);
     out["groups"] = settings.groupColumns;
+    out["period"] = optionalJson(settings.periodColumn);
     out["event"] = optionalJson(settings.eventValue);
     out["scale"] = std::string(scaleName(settings.scale));
     out["delimiter"] = settings.delimiter ? nlohmann::ordered_json(std::string(1, *settings.delimiter))

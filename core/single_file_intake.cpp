@@ -32,6 +32,9 @@ std::expected<ColumnIndices, InputError> resolveColumns(const DelimitedTable& ta
             return std::unexpected(group.error());
         indices.groups.push_back(*group);
     }
+    if (settings.periodColumn)
+        if (const auto period = table.column(*settings.periodColumn, "period"); !period)
+            return std::unexpected(period.error());
     if (settings.idColumn) {
         const auto id = table.column(*settings.idColumn, "id");
         if (!id)

@@ -155,3 +155,17 @@ TEST_CASE("Operating points on the slider grid equal the threshold metrics at th
         total += m.riskDistribution.events[b] + m.riskDistribution.nonEvents[b];
     CHECK(total == 1000);
 }
+
+TEST_CASE("An operating point summary matches the Toy-20 threshold table", "[panel]")
+{
+    // shared/methods.md §7.3 [C], t = 0.3: TP 6, FP 5, FN 2, TN 7; NB 0.192857, treat all 0.142857.
+    const OperatingPointSummary s = summarise(OperatingPoint{0.3, 6, 5, 7, 2});
+    CHECK_THAT(*s.sensitivity, WithinAbs(0.75, 1e-12));
+    CHECK_THAT(*s.specificity, WithinAbs(7.0 / 12.0, 1e-12));
+    CHECK_THAT(*s.ppv, WithinAbs(6.0 / 11.0, 1e-12));
+    CHECK_THAT(*s.npv, WithinAbs(7.0 / 9.0, 1e-12));
+    CHECK_THAT(s.flagRate, WithinAbs(0.55, 1e-12));
+    CHECK_THAT(s.netBenefit, WithinAbs(0.192857, 5e-7));
+    CHECK_THAT(s.netBenefitTreatAll, WithinAbs(0.142857, 5e-7));
+    CHECK_FALSE(summarise(OperatingPoint{0.99, 0, 0, 12, 8}).ppv);
+}
