@@ -2,11 +2,11 @@
 
 namespace plumbline::cli {
 
-void IntakeOptions::addTo(CLI::App& command)
+void IntakeOptions::addTo(CLI::App& command, bool required)
 {
-    command.add_option("FILE", settings.cohortFile, "Cohort file: scores (and outcomes, unless --outcomes)")->required();
-    command.add_option("--outcome", settings.outcomeColumn, "Column holding the observed outcome")->required();
-    command.add_option("--score", settings.scoreColumns, "Column holding a model's score (repeatable)")->required();
+    command.add_option("FILE", settings.cohortFile, "Cohort file: scores (and outcomes, unless --outcomes)")->required(required);
+    command.add_option("--outcome", settings.outcomeColumn, "Column holding the observed outcome")->required(required);
+    command.add_option("--score", settings.scoreColumns, "Column holding a model's score (repeatable)")->required(required);
     command.add_option("--id", idColumn, "Row identifier (required with --outcomes)");
     command.add_option("--outcomes", outcomesFile, "Outcomes in a second file, joined to FILE on the id");
     command.add_option("--outcomes-id", outcomesIdColumn, "The id column's name in the outcomes file, if it differs");
@@ -16,6 +16,7 @@ void IntakeOptions::addTo(CLI::App& command)
     command.add_option("--delimiter", delimiter, "Field delimiter (default: sniffed; 'tab' for a tab)");
     command.add_flag("--decimal-comma", settings.decimalComma, "Read 0,25 as 0.25");
     command.add_option("--group", settings.groupColumns, "Subgroup column (repeatable)");
+    command.add_option("--period", periodColumn, "Date column for performance over time");
 }
 
 std::expected<IntakeSettings, InputError> IntakeOptions::resolved(const CLI::App& command) const
@@ -29,6 +30,8 @@ std::expected<IntakeSettings, InputError> IntakeOptions::resolved(const CLI::App
         out.outcomesIdColumn = outcomesIdColumn;
     if (!eventValue.empty())
         out.eventValue = eventValue;
+    if (!periodColumn.empty())
+        out.periodColumn = periodColumn;
     out.scale = *scaleFromName(scale);
     out.scaleGiven = command.count("--scale") > 0;
     if (!delimiter.empty()) {

@@ -17,10 +17,12 @@ struct IntakeOptions {
     std::string idColumn;
     std::string outcomesIdColumn;
     std::string eventValue;
+    std::string periodColumn;
     std::string scale = "probability";
     std::string delimiter;
 
-    void addTo(CLI::App& command);
+    // `required`: the CLI needs the file and columns; the window can ask for them in a dialog.
+    void addTo(CLI::App& command, bool required = true);
     // Copies the parsed strings into settings; an InputError for a delimiter that is not one character.
     std::expected<IntakeSettings, InputError> resolved(const CLI::App& command) const;
 };

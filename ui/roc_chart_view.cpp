@@ -1,0 +1,148 @@
+#include "roc_chart_view.hpp"
+
+#include "chart_style.hpp"
+#include "model_palette.hpp"
+
+#include <QAreaSeries>
+#include <QChart>
+#include <QLegendMarker>
+#include <QLineSeries>
+#include <QPen>
+#include <QScatterSeries>
+#include <QValueAxis>
+
+#include <cmath>
+
+namespace plumbline {
+
+std::size_t operatingPointIndex(double threshold)
+{
+    return static_cast<std::size_t>(std::lround(std::clamp(threshold, 0.0, 1.0) / 0.005));
+}
+
+namespace {
+
+QString legendText(const ModelValidation& model)
+{
+    const Estimate& c = model.metrics[CStatistic].estimate;
+    if (!c.value)
+        return QString::fromStdString(model.name);
+    QString text = QStringLiteral("%1  C %2").arg(QString::fromStdString(model.name)).arg(*c.value, 0, 'f', 3);
+    if (c.lower && c.upper)
+        text += QStringLiteral(" (%1–%2)").arg(*c.lower, 0, 'f', 3).arg(*c.upper, 0, 'f', 3);
+    return text;
+}
+
+void hideFromLegend(QChart* chart, QAbstractSeries* series)
+{
+    for (QLegendMarker* marker : chart->legend()->markers(series))
+        marker->setVisible(false);
+}
+
+} // namespace
+
+RocChartView::RocChartView(QWidget* parent)
+    : ExportableChartView(parent)
+{
+    auto* chart = new QChart;
+    styleChart(chart, tr("Discrimination: ROC curve"));
+    setChart(chart);
+    setMinimumSize(360, 320);
+    setAccessibleName(tr("ROC curve"));
+}
+
+void RocChartView::addAxes(QAbstractSeries* series)
+{
+    chart()->addSeries(series);
+    for (QAbstractAxis* axis : chart()->axes())
+        series->attachAxis(axis);
+}
+
+void RocChartView::setSnapshot(SnapshotPointer snapshot)
+{
+    m_snapshot = std::move(snapshot);
+    QChart* c = chart();
+    c->removeAllSeries();
+    for (QAbstractAxis* axis : c->axes()) {
+        c->removeAxis(axis);
+        delete axis;
+    }
+    m_series.clear();
+    c->addAxis(probabilityAxis(tr("1 − specificity (false-positive rate)")), Qt::AlignBottom);
+    c->addAxis(probabilityAxis(tr("Sensitivity")), Qt::AlignLeft);
+    auto* diagonal = new QLineSeries;
+    diagonal->append(0, 0);
+    diagonal->append(1, 1);
+    diagonal->setPen(QPen(QColor(150, 150, 150), 1, Qt::DashLine));
+    addAxes(diagonal);
+    hideFromLegend(c, diagonal);
+    if (!m_snapshot)
+        return;
+    const auto& models = m_snapshot->validation.models;
+    for (std::size_t m = 0; m < models.size(); ++m) {
+        const int index = static_cast<int>(m);
+        ModelSeries s;
+        if (!models[m].rocBand.x.empty()) {
+            auto* upper = new QLineSeries;
+            auto* lower = new QLineSeries;
+            for (std::size_t j = 0; j < models[m].rocBand.x.size(); ++j) {
+                upper->append(models[m].rocBand.x[j], models[m].rocBand.upper[j]);
+                lower->append(models[m].rocBand.x[j], models[m].rocBand.lower[j]);
+            }
+            s.band = new QAreaSeries(upper, lower);
+            s.band->setColor(bandColour(index));
+            s.band->setBorderColor(Qt::transparent);
+            addAxes(s.band);
+            hideFromLegend(c, s.band);
+        }
+        s.curve = new QLineSeries;
+        for (const auto& point : models[m].roc)
+            s.curve->append(1.0 - point.specificity, point.sensitivity);
+        s.curve->setName(legendText(models[m]));
+        s.curve->setPen(QPen(modelColour(index), 2));
+        addAxes(s.curve);
+        s.marker = new QScatterSeries;
+        s.marker->setMarkerSize(11);
+        s.marker->setColor(modelColour(index));
+        s.marker->setBorderColor(Qt::white);
+        addAxes(s.marker);
+        hideFromLegend(c, s.marker);
+        m_series.push_back(s);
+    }
+    setThreshold(m_threshold);
+}
+
+void RocChartView::setThreshold(double threshold)
+{
+    m_threshold = threshold;
+    if (!m_snapshot)
+        return;
+    for (std::size_t m = 0; m < m_series.size(); ++m) {
+        const auto& points = m_snapshot->validation.models[m].operatingPoints;
+        if (points.empty())
+            continue;
+        const OperatingPoint& p = points[std::min(operatingPointIndex(threshold), points.size() - 1)];
+        const OperatingPointSummary s = summarise(p);
+        m_series[m].marker->replace(QList<QPointF>{QPointF(1.0 - s.specificity.value_or(0.0), s.sensitivity.value_or(0.0))});
+    }
+}
+
+void RocChartView::setModelVisible(int model, bool visible)
+{
+    if (model < 0 || model >= static_cast<int>(m_series.size()))
+        return;
+    const ModelSeries& s = m_series[static_cast<std::size_t>(model)];
+    s.curve->setVisible(visible);
+    s.marker->setVisible(visible);
+    if (s.band)
+        s.band->setVisible(visible);
+}
+
+QPointF RocChartView::markerPosition(int model) const
+{
+    if (model < 0 || model >= static_cast<int>(m_series.size()) || m_series[static_cast<std::size_t>(model)].marker->count() == 0)
+        return {};
+    return m_series[static_cast<std::size_t>(model)].marker->at(0);
+}
+
+} // namespace plumbline
