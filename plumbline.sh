@@ -57,7 +57,8 @@ case "$cmd" in
     install_missing "${BUILD_PACKAGES[@]}"
     build
     if has_display && [[ -x build/app/plumbline ]]; then
-      exec build/app/plumbline sample-data/readmissions.csv
+      exec build/app/plumbline sample-data/readmissions.csv --outcome readmitted_30d \
+        --score supplier_score --score local_score --group hospital --group payer
     fi
     run_headless_sample
     ;;

@@ -342,6 +342,23 @@ IntakeSettings ImportDialog::intakeSettings() const
     return s;
 }
 
+void ImportDialog::setMapping(const IntakeSettings& settings)
+{
+    auto check = [](QListWidget* list, const std::vector<std::string>& names) {
+        for (int i = 0; i < list->count(); ++i) {
+            const bool wanted = std::find(names.begin(), names.end(), list->item(i)->text().toStdString()) != names.end();
+            list->item(i)->setCheckState(wanted ? Qt::Checked : Qt::Unchecked);
+        }
+    };
+    m_outcome->setCurrentText(QString::fromStdString(settings.outcomeColumn));
+    check(m_scores, settings.scoreColumns);
+    check(m_groups, settings.groupColumns);
+    m_id->setCurrentText(settings.idColumn ? QString::fromStdString(*settings.idColumn) : none);
+    m_period->setCurrentText(settings.periodColumn ? QString::fromStdString(*settings.periodColumn) : none);
+    m_scale->setCurrentText(QString::fromLatin1(scaleName(settings.scale).data()));
+    m_event->setText(settings.eventValue ? QString::fromStdString(*settings.eventValue) : QString());
+}
+
 bool ImportDialog::checkNow()
 {
     const auto result = runIntake(intakeSettings());

@@ -34,6 +34,8 @@ public:
     bool loadOutcomesFile(const QString& path);
 
     IntakeSettings intakeSettings() const;
+    // Sets the column choices (outcome, scores, id, groups, period, scale, event) as given.
+    void setMapping(const IntakeSettings& settings);
     // Runs the intake now on this thread (tests, small files); the button runs it in the background.
     bool checkNow();
     QString problemText() const;

@@ -1,0 +1,230 @@
+#include "bootstrap_engine.hpp"
+#include "calibration_chart_view.hpp"
+#include "cohort_simulator.hpp"
+#include "copyable_table_view.hpp"
+#include "import_dialog.hpp"
+#include "main_window.hpp"
+#include "metric_table_model.hpp"
+#include "panel_keys.hpp"
+#include "risk_distribution_view.hpp"
+#include "risk_group_table_model.hpp"
+#include "roc_chart_view.hpp"
+#include "threshold_panel.hpp"
+#include "threshold_summary_model.hpp"
+#include "validation_task.hpp"
+
+#include <QElapsedTimer>
+#include <QFile>
+#include <QImage>
+#include <QProcess>
+#include <QSignalSpy>
+#include <QSlider>
+#include <QTemporaryDir>
+#include <QTest>
+#include <QTimer>
+
+using namespace plumbline;
+
+namespace {
+
+const QString sampleFile = QStringLiteral(PLUMBLINE_SAMPLE_DATA "/readmissions.csv");
+
+AnalysisRequest sampleRequest(std::size_t replicates)
+{
+    AnalysisRequest request;
+    request.intake.cohortFile = sampleFile.toStdString();
+    request.intake.outcomeColumn = "readmitted_30d";
+    request.intake.scoreColumns = {"supplier_score", "local_score"};
+    request.bootstrap.replicates = replicates;
+    request.bootstrap.seed = 99;
+    return request;
+}
+
+// The core's own answer for a request, computed here without the window.
+ValidationResult coreResult(const AnalysisRequest& request)
+{
+    const auto intake = runIntake(request.intake);
+    ValidationResult result = runValidation(intake->cohort, request.panel);
+    if (request.bootstrap.replicates > 0)
+        applyBootstrap(result, *runBootstrap(intake->cohort, result, request.bootstrap, {}, {}));
+    return result;
+}
+
+bool runAndWait(MainWindow& window, const AnalysisRequest& request, int timeoutMs = 120000)
+{
+    QSignalSpy finished(window.task(), &ValidationTask::finished);
+    window.runRequest(request);
+    return finished.wait(timeoutMs);
+}
+
+} // namespace
+
+class MainWindowTests : public QObject {
+    Q_OBJECT
+private slots:
+    void theDialogGuessesTheSampleAndTheTableShowsTheCoresNumbers()
+    {
+        ImportDialog dialog;
+        QVERIFY(dialog.loadFile(sampleFile));
+        const IntakeSettings guessed = dialog.intakeSettings();
+        QCOMPARE(guessed.outcomeColumn, std::string("readmitted_30d"));
+        QCOMPARE(guessed.scoreColumns, (std::vector<std::string>{"supplier_score", "local_score"}));
+        QVERIFY(dialog.checkNow());
+        QCOMPARE(dialog.checkedIntake()->audit.rowsUsed, std::size_t(23874));
+
+        MainWindow window;
+        AnalysisRequest request = sampleRequest(100);
+        request.intake = guessed;
+        request.intake.scale = ScoreScale::Probability;
+        QVERIFY(runAndWait(window, request));
+        const ValidationResult expected = coreResult(request);
+        MetricTableModel* table = window.metricModel();
+        QCOMPARE(table->rowCount(), int(PanelMetricCount));
+        for (int m = 0; m < 2; ++m)
+            for (std::size_t k = 0; k < PanelMetricCount; ++k) {
+                const MetricEntry& entry = expected.models[std::size_t(m)].metrics[k];
+                const QModelIndex cell = table->index(int(k), MetricTableModel::estimateColumn(m));
+                QCOMPARE(cell.data().toString(), estimateText(entry.key, entry.estimate));
+                QCOMPARE(table->index(int(k), MetricTableModel::estimateColumn(m) + 1).data().toString(),
+                         QString::fromStdString(entry.reading));
+            }
+    }
+
+    void movingTheThresholdMovesEveryMarkerToTheCoresCounts()
+    {
+        MainWindow window;
+        const AnalysisRequest request = sampleRequest(0);
+        QVERIFY(runAndWait(window, request));
+        const auto intake = runIntake(request.intake);
+        for (int step : {20, 31, 60, 113}) {
+            window.thresholdPanel()->slider()->setValue(step);
+            const double t = step / 200.0; // the slider's grid: 0.005 per step
+            QCOMPARE(window.calibrationView()->thresholdLineX(), t);
+            QCOMPARE(window.distributionView()->thresholdLineX(), t);
+            for (int m = 0; m < 2; ++m) {
+                const auto& risks = intake->cohort.models[std::size_t(m)].values;
+                const std::vector<double> thresholds{t};
+                const ThresholdMetrics core = thresholdMetrics(intake->cohort.outcome, risks, thresholds, 0.95, CiMethod::Wilson)[0];
+                ThresholdSummaryModel* model = window.thresholdPanel()->summaryModel();
+                QCOMPARE(model->index(m, ThresholdSummaryModel::TpColumn).data(Qt::UserRole).toULongLong(), qulonglong(core.tp));
+                QCOMPARE(model->index(m, ThresholdSummaryModel::FpColumn).data(Qt::UserRole).toULongLong(), qulonglong(core.fp));
+                QCOMPARE(model->index(m, ThresholdSummaryModel::TnColumn).data(Qt::UserRole).toULongLong(), qulonglong(core.tn));
+                QCOMPARE(model->index(m, ThresholdSummaryModel::FnColumn).data(Qt::UserRole).toULongLong(), qulonglong(core.fn));
+                QCOMPARE(model->index(m, ThresholdSummaryModel::NetBenefitColumn).data(Qt::UserRole).toDouble(), core.netBenefit);
+                const QPointF marker = window.rocView()->markerPosition(m);
+                QCOMPARE(marker.x(), 1.0 - *core.specificity.value);
+                QCOMPARE(marker.y(), *core.sensitivity.value);
+            }
+        }
+    }
+
+    void selectingARiskGroupRowRingsItsPoint()
+    {
+        MainWindow window;
+        QVERIFY(runAndWait(window, sampleRequest(0)));
+        CopyableTableView* view = window.riskGroupView();
+        const int row = window.riskGroupModel()->rowOf(1, 4);
+        QVERIFY(row >= 0);
+        view->selectionModel()->setCurrentIndex(view->model()->index(row, 0), QItemSelectionModel::ClearAndSelect);
+        const RiskGroup& group = window.snapshot()->validation.models[1].riskGroups[4];
+        QCOMPARE(window.calibrationView()->highlightedPoint(), QPointF(group.meanPredicted, group.observedRate));
+        const QString text = view->tabSeparatedText();
+        QVERIFY(text.startsWith(QStringLiteral("Model\tGroup\tPatients")));
+        QCOMPARE(text.count(QLatin1Char('\n')), 2); // header and the selected row
+    }
+
+    void theDialogRefusesABadFileWithTheCommandLinesMessage()
+    {
+        QTemporaryDir dir;
+        const QString bad = dir.filePath(QStringLiteral("three.csv"));
+        QFile file(bad);
+        QVERIFY(file.open(QIODevice::WriteOnly));
+        file.write("y,p\nyes,0.2\nno,0.3\nmaybe,0.5\n");
+        file.close();
+        ImportDialog dialog;
+        QVERIFY(dialog.loadFile(bad));
+        IntakeSettings mapping;
+        mapping.outcomeColumn = "y"; // three values, so no guess: the user picks it, as on the command line
+        mapping.scoreColumns = {"p"};
+        dialog.setMapping(mapping);
+        QVERIFY(!dialog.checkNow());
+        QProcess cli;
+        cli.start(QStringLiteral(PLUMBLINE_CLI), {QStringLiteral("validate"), bad, QStringLiteral("--outcome"), QStringLiteral("y"),
+                                                  QStringLiteral("--score"), QStringLiteral("p"), QStringLiteral("--bootstrap"), QStringLiteral("0")});
+        QVERIFY(cli.waitForFinished(30000));
+        QCOMPARE(cli.exitCode(), 2);
+        const QString cliMessage = QString::fromUtf8(cli.readAllStandardError()).trimmed();
+        QCOMPARE(QStringLiteral("plumbline-cli: error: ") + dialog.problemText(), cliMessage);
+        QVERIFY(dialog.problemText().contains(QStringLiteral("'maybe'")));
+        QVERIFY(!dialog.loadFile(dir.filePath(QStringLiteral("missing.csv"))));
+        QVERIFY(dialog.problemText().contains(QStringLiteral("cannot be opened")));
+    }
+
+    void cancelStopsARunAndKeepsTheShownResults()
+    {
+        MainWindow window;
+        QVERIFY(runAndWait(window, sampleRequest(0)));
+        const SnapshotPointer before = window.snapshot();
+        QSignalSpy cancelled(window.task(), &ValidationTask::cancelled);
+        window.runRequest(sampleRequest(100000));
+        QTest::qWait(500);
+        window.task()->cancel();
+        QVERIFY(cancelled.wait(5000) || cancelled.count() == 1);
+        QCOMPARE(window.snapshot(), before);
+    }
+
+    void aLargeRunNeverBlocksTheEventLoopWhileTheThresholdMoves()
+    {
+        QTemporaryDir dir;
+        const QString path = dir.filePath(QStringLiteral("large.csv"));
+        QFile file(path);
+        QVERIFY(file.open(QIODevice::WriteOnly));
+        file.write(QByteArray::fromStdString(simulateCohort({200000, 5}, false).cohort));
+        file.close();
+        MainWindow window;
+        window.show();
+        AnalysisRequest request = sampleRequest(300);
+        request.intake.cohortFile = path.toStdString();
+        QSignalSpy finished(window.task(), &ValidationTask::finished);
+        QElapsedTimer clock;
+        qint64 last = 0, longestGap = 0;
+        int ticks = 0;
+        QTimer timer;
+        connect(&timer, &QTimer::timeout, this, [&] {
+            const qint64 now = clock.elapsed();
+            longestGap = std::max(longestGap, now - last);
+            last = now;
+            window.thresholdPanel()->slider()->setValue(20 + (++ticks % 100)); // a user dragging
+        });
+        clock.start();
+        timer.start(10);
+        window.runRequest(request);
+        QVERIFY(finished.wait(180000));
+        timer.stop();
+        qInfo() << "longest gap between timer ticks:" << longestGap << "ms over" << ticks << "ticks";
+        QVERIFY(ticks > 10);
+        QVERIFY2(longestGap < 200, qPrintable(QStringLiteral("longest gap %1 ms").arg(longestGap)));
+    }
+
+    void chartsExportAsPngAndSvg()
+    {
+        MainWindow window;
+        QVERIFY(runAndWait(window, sampleRequest(0)));
+        QTemporaryDir dir;
+        const QString png = dir.filePath(QStringLiteral("roc.png"));
+        const QString svg = dir.filePath(QStringLiteral("calibration.svg"));
+        QVERIFY(window.rocView()->exportTo(png, QSize(800, 600)));
+        QVERIFY(window.calibrationView()->exportTo(svg, QSize(800, 600)));
+        const QImage image(png);
+        QCOMPARE(image.size(), QSize(1600, 1200)); // drawn at twice the size for high-DPI use
+        QFile file(svg);
+        QVERIFY(file.open(QIODevice::ReadOnly));
+        const QByteArray content = file.readAll();
+        QVERIFY(content.contains("<svg"));
+        QVERIFY(content.contains("Predicted risk"));
+        QVERIFY(!window.rocView()->exportTo(dir.filePath(QStringLiteral("no/such/dir/x.png")), QSize(100, 100)));
+    }
+};
+
+QTEST_MAIN(MainWindowTests)
+#include "main_window_tests.moc"
