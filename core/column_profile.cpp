@@ -2,6 +2,7 @@
 
 #include "field_values.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 #include <limits>
@@ -91,6 +92,8 @@ ColumnProfile describe(const std::string& name, const ColumnTally& t, std::size_
     }
     if (p.distinct == 2) {
         p.type = "binary";
+        p.levels.assign(t.distinct.begin(), t.distinct.end());
+        std::sort(p.levels.begin(), p.levels.end());
         p.notes.push_back("two values: could be the outcome");
     } else if (t.numbers == present) {
         p.type = t.integers == present ? "integer" : "number";

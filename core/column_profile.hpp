@@ -21,6 +21,7 @@ struct ColumnProfile {
     std::string minimum;          // numeric or date columns; empty otherwise
     std::string maximum;
     std::vector<std::string> notes; // problems found and likely roles
+    std::vector<std::string> levels; // the two values of a binary column (lower-cased)
 };
 
 struct TableProfile {

@@ -27,10 +27,15 @@ ColumnRoles guessColumnRoles(const TableProfile& profile)
 {
     ColumnRoles roles;
     const auto& columns = profile.columns;
-    // Outcome: a two-valued column, preferring outcome-like names.
+    // Outcome: a two-valued column with outcome-like values (0/1, no/yes, n/y, false/true),
+    // preferring outcome-like names. Other pairs (F/M, say) are never guessed.
+    auto outcomeLike = [](const ColumnProfile& c) {
+        static const std::vector<std::vector<std::string>> pairs{{"0", "1"}, {"no", "yes"}, {"n", "y"}, {"false", "true"}};
+        return c.type == "binary" && std::find(pairs.begin(), pairs.end(), c.levels) != pairs.end();
+    };
     for (int pass = 0; pass < 2 && !roles.outcome; ++pass)
         for (const auto& c : columns)
-            if (c.type == "binary" && (pass == 1 || nameHas(c.name, {"readmit", "outcome", "event", "died", "death", "status", "label"}))) {
+            if (outcomeLike(c) && (pass == 1 || nameHas(c.name, {"readmit", "outcome", "event", "died", "death", "status", "label"}))) {
                 roles.outcome = c.name;
                 break;
             }
@@ -46,7 +51,8 @@ ColumnRoles guessColumnRoles(const TableProfile& profile)
     if (!roles.scores.empty()) {
         const auto it = std::find_if(columns.begin(), columns.end(), [&](const ColumnProfile& c) { return c.name == roles.scores[0]; });
         const double hi = maximumOf(*it);
-        if (hi > 1.0 && hi <= 100.0 && it->type == "number")
+        // A few stray values just above 1 are data errors the intake will count, not percent.
+        if (hi > 2.0 && hi <= 100.0 && it->type != "integer")
             roles.scale = ScoreScale::Percent;
         else if (it->type == "integer" && hi > 1.0)
             roles.scale = ScoreScale::Points;

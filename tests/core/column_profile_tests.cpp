@@ -66,3 +66,12 @@ TEST_CASE("Column roles are guessed from the sample cohort's names and content",
     CHECK(preview.rows.size() == 5);
     CHECK(preview.lines.front() == 2);
 }
+
+TEST_CASE("A two-valued column that is not outcome-like is never guessed as the outcome", "[inspect]")
+{
+    const auto files = simulateCohort({2000, 3}, true);
+    auto table = DelimitedTable::open(*TextFile::fromBytes("scores.csv", files.scores), std::nullopt);
+    const auto roles = guessColumnRoles(*profileColumns(*table, 5000));
+    CHECK_FALSE(roles.outcome.has_value()); // sex (F/M) is binary but no outcome
+    CHECK(roles.scale == ScoreScale::Probability); // a stray 1.3 is not a percent scale
+}

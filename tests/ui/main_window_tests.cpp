@@ -18,6 +18,7 @@
 #include <QImage>
 #include <QProcess>
 #include <QSignalSpy>
+#include <QSortFilterProxyModel>
 #include <QSlider>
 #include <QTemporaryDir>
 #include <QTest>
@@ -128,6 +129,13 @@ private slots:
         view->selectionModel()->setCurrentIndex(view->model()->index(row, 0), QItemSelectionModel::ClearAndSelect);
         const RiskGroup& group = window.snapshot()->validation.models[1].riskGroups[4];
         QCOMPARE(window.calibrationView()->highlightedPoint(), QPointF(group.meanPredicted, group.observedRate));
+        // Hovering a point (the chart's signal) selects its row in the table.
+        emit window.calibrationView()->riskGroupHovered(0, 3);
+        const QModelIndex current = view->selectionModel()->currentIndex();
+        QCOMPARE(window.riskGroupModel()->groupAt(qobject_cast<QSortFilterProxyModel*>(view->model())->mapToSource(current).row()),
+                 std::make_pair(0, 3));
+        const RiskGroup& hovered = window.snapshot()->validation.models[0].riskGroups[3];
+        QCOMPARE(window.calibrationView()->highlightedPoint(), QPointF(hovered.meanPredicted, hovered.observedRate));
         const QString text = view->tabSeparatedText();
         QVERIFY(text.startsWith(QStringLiteral("Model\tGroup\tPatients")));
         QCOMPARE(text.count(QLatin1Char('\n')), 2); // header and the selected row
