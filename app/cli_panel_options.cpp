@@ -15,6 +15,7 @@ void PanelOptions::addTo(CLI::App& command)
         ->check(CLI::IsMember({"logit", "plain"}));
     command.add_option("--binomial-interval", binomialInterval, "Interval for proportions")
         ->check(CLI::IsMember({"wilson", "clopper-pearson"}));
+    command.add_option("--nri-cuts", nriCuts, "Risk cut-points of the categorical NRI (default: the thresholds)");
 }
 
 std::expected<PanelSettings, InputError> PanelOptions::resolved() const
@@ -24,20 +25,27 @@ std::expected<PanelSettings, InputError> PanelOptions::resolved() const
     settings.confidence = confidence;
     settings.cStatisticScale = cInterval == "plain" ? CStatisticScale::Plain : CStatisticScale::Logit;
     settings.binomialInterval = binomialInterval == "clopper-pearson" ? CiMethod::ClopperPearson : CiMethod::Wilson;
-    settings.thresholds.clear();
-    std::stringstream list(thresholds);
-    std::string item;
-    while (std::getline(list, item, ',')) {
-        const auto value = parseNumber(item, false);
-        if (!value || !(*value > 0.0 && *value < 1.0)) {
-            InputError error;
-            error.value = item;
-            error.problem = "each --thresholds value must be a risk strictly between 0 and 1.";
-            error.remedy = "give thresholds as probabilities separated by commas, e.g. --thresholds 0.1,0.2,0.3.";
-            return std::unexpected(error);
+    auto risks = [](const std::string& text, const std::string& option, std::vector<double>& out) -> std::optional<InputError> {
+        out.clear();
+        std::stringstream list(text);
+        std::string item;
+        while (std::getline(list, item, ',')) {
+            const auto value = parseNumber(item, false);
+            if (!value || !(*value > 0.0 && *value < 1.0)) {
+                InputError error;
+                error.value = item;
+                error.problem = "each " + option + " value must be a risk strictly between 0 and 1.";
+                error.remedy = "give them as probabilities separated by commas, e.g. " + option + " 0.1,0.2,0.3.";
+                return error;
+            }
+            out.push_back(*value);
         }
-        settings.thresholds.push_back(*value);
-    }
+        return std::nullopt;
+    };
+    if (auto error = risks(thresholds, "--thresholds", settings.thresholds))
+        return std::unexpected(*error);
+    if (auto error = risks(nriCuts, "--nri-cuts", settings.nriCutPoints))
+        return std::unexpected(*error);
     return settings;
 }
 

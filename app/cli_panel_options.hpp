@@ -17,6 +17,7 @@ struct PanelOptions {
     double confidence = 0.95;
     std::string cInterval = "logit";
     std::string binomialInterval = "wilson";
+    std::string nriCuts;
 
     void addTo(CLI::App& command);
     std::expected<PanelSettings, InputError> resolved() const;

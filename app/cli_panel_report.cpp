@@ -104,6 +104,39 @@ void printThresholds(std::ostream& out, const ModelValidation& model)
             << std::setw(11) << number(t.netBenefitTreatAll, 4) << '\n';
 }
 
+std::string differenceLabel(const std::string& key)
+{
+    static const std::pair<const char*, const char*> labels[] = {
+        {"c_statistic_difference", "C statistic"}, {"brier_difference", "Brier score"},
+        {"calibration_slope_difference", "Calibration slope"}, {"ici_difference", "ICI"},
+        {"nri_events", "NRI, events part"}, {"nri_non_events", "NRI, non-events part"}, {"nri", "NRI (categories)"},
+        {"nri_continuous_events", "Category-free NRI, events"}, {"nri_continuous_non_events", "Category-free NRI, non-events"},
+        {"nri_continuous", "Category-free NRI"}, {"idi", "IDI"}};
+    for (const auto& [k, label] : labels)
+        if (key == k)
+            return label;
+    return key;
+}
+
+void printComparisons(std::ostream& out, const ValidationResult& result)
+{
+    for (const auto& c : result.comparisons) {
+        out << "\nComparison: " << c.modelB << " minus " << c.modelA << " (same patients)\n";
+        out << "  " << std::left << std::setw(30) << "difference" << std::right << std::setw(9) << "estimate" << "   "
+            << std::left << std::setw(22) << "interval" << "p (test)\n";
+        for (const auto& d : c.differences)
+            out << "  " << std::left << std::setw(30) << differenceLabel(d.key) << std::right << std::setw(9)
+                << number(d.estimate.value, 4) << "   " << std::left << std::setw(22) << interval(d.estimate, 4)
+                << (d.pValue ? pValue(*d.pValue) : std::string("-")) << '\n';
+        for (std::size_t t = 0; t < c.netBenefitDifferences.size(); ++t)
+            out << "  " << std::left << std::setw(30) << ("Net benefit at " + number(c.netBenefitThresholds[t], 2))
+                << std::right << std::setw(9) << number(c.netBenefitDifferences[t].estimate.value, 4) << "   " << std::left
+                << std::setw(22) << interval(c.netBenefitDifferences[t].estimate, 4) << "-\n";
+        for (const auto& caution : comparisonCautions())
+            out << "  note: " << caution << '\n';
+    }
+}
+
 } // namespace
 
 void printPanel(std::ostream& out, const ValidationResult& result)
@@ -121,6 +154,7 @@ void printPanel(std::ostream& out, const ValidationResult& result)
         printRiskGroups(out, model);
         printThresholds(out, model);
     }
+    printComparisons(out, result);
     if (!result.warnings.empty()) {
         out << "\nWarnings:\n";
         for (const auto& warning : result.warnings)

@@ -39,6 +39,7 @@ nlohmann::ordered_json resultJson(const IntakeSettings& settings, const IntakeRe
     json["cohort"] = cohortJson(intake.audit);
     json["bootstrap"] = bootstrapJson(validation);
     json["models"] = modelsJson(validation);
+    json["comparisons"] = comparisonsJson(validation);
     std::vector<std::string> warnings = intake.audit.warnings;
     warnings.insert(warnings.end(), validation.warnings.begin(), validation.warnings.end());
     json["warnings"] = warnings;

@@ -39,6 +39,11 @@ struct Shared {
     std::vector<std::vector<std::vector<double>>> curves;
     std::vector<std::vector<std::vector<double>>> rocs;
     std::vector<std::size_t> redraws;
+    // Paired pieces: net benefit per [model][threshold][replicate], NRI parts per [pair][part][replicate].
+    std::vector<double> thresholds;
+    std::vector<PairMoves> pairs;
+    std::vector<std::vector<std::vector<double>>> netBenefit;
+    std::vector<std::array<std::vector<double>, 4>> pairValues;
 };
 
 PreparedModel prepareModel(const Cohort& cohort, std::size_t m, const ModelValidation& full)
@@ -106,6 +111,18 @@ bool runReplicate(Shared& shared, std::size_t r, std::vector<std::uint16_t>& cou
         const auto sensitivity = sensitivityAtFalsePositiveRates(model.support, supportCounts, shared.rocRates);
         for (std::size_t j = 0; j < sensitivity.size(); ++j)
             shared.rocs[m][j][r] = sensitivity[j];
+        if (model.support.risks) {
+            const auto nb = netBenefitAt(model.support, supportCounts, shared.thresholds);
+            for (std::size_t j = 0; j < nb.size(); ++j)
+                shared.netBenefit[m][j][r] = nb[j];
+        }
+    }
+    for (std::size_t p = 0; p < shared.pairs.size(); ++p) {
+        const PairReplicate v = pairReplicate(shared.pairs[p], shared.cohort.outcome, counts);
+        shared.pairValues[p][0][r] = v.nriEvents;
+        shared.pairValues[p][1][r] = v.nriNonEvents;
+        shared.pairValues[p][2][r] = v.nriContinuousEvents;
+        shared.pairValues[p][3][r] = v.nriContinuousNonEvents;
     }
     return true;
 }
@@ -208,6 +225,46 @@ ModelBootstrap summariseModel(const Shared& shared, const Cohort& cohort, std::s
     return out;
 }
 
+// Paired differences per replicate, model_b − model_a, and their percentile summaries.
+std::vector<PairBootstrap> summarisePairs(const Shared& shared, double confidence)
+{
+    std::vector<PairBootstrap> out;
+    const std::size_t B = shared.settings.replicates;
+    for (std::size_t p = 0; p < shared.pairs.size(); ++p) {
+        const std::size_t a = shared.pairs[p].modelA, b = shared.pairs[p].modelB;
+        PairBootstrap pair;
+        auto difference = [&](const std::string& key, auto valueAt) {
+            std::vector<double> replicates(B);
+            for (std::size_t r = 0; r < B; ++r)
+                replicates[r] = valueAt(r);
+            pair.differences.emplace_back(key, pairedSummary(replicates, confidence));
+        };
+        auto metric = [&](PanelMetric k) {
+            return [&, k](std::size_t r) { return shared.values[b][k][r] - shared.values[a][k][r]; };
+        };
+        const auto& parts = shared.pairValues[p];
+        difference("c_statistic_difference", metric(CStatistic));
+        difference("brier_difference", metric(Brier));
+        difference("calibration_slope_difference", metric(CalibrationSlope));
+        difference("ici_difference", metric(Ici));
+        difference("idi", metric(DiscriminationSlope));
+        difference("nri_events", [&](std::size_t r) { return parts[0][r]; });
+        difference("nri_non_events", [&](std::size_t r) { return parts[1][r]; });
+        difference("nri", [&](std::size_t r) { return parts[0][r] + parts[1][r]; });
+        difference("nri_continuous_events", [&](std::size_t r) { return parts[2][r]; });
+        difference("nri_continuous_non_events", [&](std::size_t r) { return parts[3][r]; });
+        difference("nri_continuous", [&](std::size_t r) { return parts[2][r] + parts[3][r]; });
+        for (std::size_t t = 0; t < shared.thresholds.size(); ++t) {
+            std::vector<double> replicates(B);
+            for (std::size_t r = 0; r < B; ++r)
+                replicates[r] = shared.netBenefit[b][t][r] - shared.netBenefit[a][t][r];
+            pair.netBenefitDifferences.push_back(pairedSummary(replicates, confidence));
+        }
+        out.push_back(std::move(pair));
+    }
+    return out;
+}
+
 } // namespace
 
 std::optional<BootstrapResult> runBootstrap(const Cohort& cohort, const ValidationResult& full,
@@ -240,6 +297,17 @@ std::optional<BootstrapResult> runBootstrap(const Cohort& cohort, const Validati
         shared.rocs[m].assign(shared.rocRates.size(), std::vector<double>(B, undefinedValue));
     }
     shared.redraws.assign(B, 0);
+    shared.thresholds = full.settings.thresholds;
+    shared.netBenefit.assign(cohort.models.size(), std::vector<std::vector<double>>(shared.thresholds.size(), std::vector<double>(B, undefinedValue)));
+    if (scaleIsProbabilistic(cohort.scale))
+        for (const auto& comparison : full.comparisons) {
+            const auto a = static_cast<std::size_t>(std::find_if(cohort.models.begin(), cohort.models.end(), [&](const ModelScores& s) { return s.name == comparison.modelA; }) - cohort.models.begin());
+            const auto b = static_cast<std::size_t>(std::find_if(cohort.models.begin(), cohort.models.end(), [&](const ModelScores& s) { return s.name == comparison.modelB; }) - cohort.models.begin());
+            shared.pairs.push_back(pairMoves(cohort.models[a].values, cohort.models[b].values, a, b, full.settings.cutPoints()));
+            shared.pairValues.emplace_back();
+            for (auto& part : shared.pairValues.back())
+                part.assign(B, undefinedValue);
+        }
 
     // Workers take replicates in turn and check the stop token between them. Progress is
     // reported by whichever worker finishes a replicate that crosses a whole percent, under a
@@ -297,6 +365,7 @@ std::optional<BootstrapResult> runBootstrap(const Cohort& cohort, const Validati
             return std::nullopt;
         result.models.push_back(summariseModel(shared, cohort, m, full.models[m], full.settings.confidence, result));
     }
+    result.pairs = summarisePairs(shared, full.settings.confidence);
     if (result.redrawn > 0)
         result.warnings.push_back(std::to_string(result.redrawn)
                                   + " bootstrap draws lacked events or non-events and were redrawn.");
@@ -325,6 +394,27 @@ void applyBootstrap(ValidationResult& result, const BootstrapResult& bootstrap)
                 entry.estimate.se = b->se;
             entry.reading = metricReading(entry.key, entry.estimate);
         }
+    }
+    for (std::size_t p = 0; p < result.comparisons.size() && p < bootstrap.pairs.size(); ++p) {
+        ModelComparison& comparison = result.comparisons[p];
+        auto attach = [](DifferenceEstimate& d, const MetricBootstrap& b) {
+            if (b.replicatesUsed < 2)
+                return;
+            d.bootstrap = b;
+            if (d.estimate.lower)
+                d.analytic = d.estimate;
+            d.estimate.lower = b.percentile.first;
+            d.estimate.upper = b.percentile.second;
+            d.estimate.ciMethod = CiMethod::BootstrapPercentile;
+            if (!d.estimate.se)
+                d.estimate.se = b.se;
+        };
+        for (auto& d : comparison.differences)
+            for (const auto& [key, b] : bootstrap.pairs[p].differences)
+                if (key == d.key)
+                    attach(d, b);
+        for (std::size_t t = 0; t < comparison.netBenefitDifferences.size() && t < bootstrap.pairs[p].netBenefitDifferences.size(); ++t)
+            attach(comparison.netBenefitDifferences[t], bootstrap.pairs[p].netBenefitDifferences[t]);
     }
     result.bootstrap = BootstrapSummary{bootstrap.settings.replicates, bootstrap.settings.seed,
                                         std::string(bootstrapCiName(bootstrap.settings.method)),

@@ -3,6 +3,7 @@
 #include "bootstrap_interval.hpp"
 #include "cohort.hpp"
 #include "metric_bootstrap.hpp"
+#include "paired_bootstrap.hpp"
 #include "panel_keys.hpp"
 #include "validation.hpp"
 
@@ -37,6 +38,7 @@ struct BootstrapResult {
     double confidence = 0.95;
     std::size_t redrawn = 0; // draws replaced because they lacked events or non-events
     std::vector<ModelBootstrap> models;
+    std::vector<PairBootstrap> pairs; // in the order of ValidationResult::comparisons
     std::vector<std::string> warnings;
 };
 

@@ -17,6 +17,9 @@ struct PanelSettings {
     CiMethod binomialInterval = CiMethod::Wilson; // or ClopperPearson
     std::size_t rocPoints = 1000;                  // ROC points written out (C uses all data)
     std::size_t calibrationCurvePoints = 200;      // smoothed-curve points written out
+    std::vector<double> nriCutPoints;              // risk categories for the NRI; empty: the thresholds
+
+    const std::vector<double>& cutPoints() const { return nriCutPoints.empty() ? thresholds : nriCutPoints; }
 };
 
 } // namespace plumbline

@@ -58,6 +58,7 @@ ValidationResult runValidation(const Cohort& cohort, const PanelSettings& settin
     for (const auto& failure : failures)
         if (failure)
             std::rethrow_exception(failure);
+    result.comparisons = compareModels(cohort, result, settings, settings.cutPoints());
     result.warnings = cohortWarnings(cohort);
     for (const auto& model : result.models)
         result.warnings.insert(result.warnings.end(), model.warnings.begin(), model.warnings.end());

@@ -1,6 +1,7 @@
 #pragma once
 
 #include "cohort.hpp"
+#include "model_comparison.hpp"
 #include "model_validation.hpp"
 #include "panel_settings.hpp"
 
@@ -14,6 +15,7 @@ namespace plumbline {
 struct ValidationResult {
     PanelSettings settings;
     std::vector<ModelValidation> models;
+    std::vector<ModelComparison> comparisons; // every pair, model_b − model_a
     std::vector<std::string> warnings; // cohort-level, then each model's
     std::optional<BootstrapSummary> bootstrap; // empty when intervals are analytic only
 

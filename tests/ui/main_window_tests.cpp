@@ -174,7 +174,7 @@ private slots:
         QVERIFY(runAndWait(window, sampleRequest(0)));
         const SnapshotPointer before = window.snapshot();
         QSignalSpy cancelled(window.task(), &ValidationTask::cancelled);
-        window.runRequest(sampleRequest(100000));
+        window.runRequest(sampleRequest(20000));
         QTest::qWait(500);
         window.task()->cancel();
         QVERIFY(cancelled.wait(5000) || cancelled.count() == 1);
