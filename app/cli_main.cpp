@@ -3,6 +3,7 @@
 #include "cli_exit.hpp"
 #include "cli_inspect_command.hpp"
 #include "cli_simulate_command.hpp"
+#include "cli_update_command.hpp"
 #include "cli_validate_command.hpp"
 #include "version.hpp"
 
@@ -21,6 +22,7 @@ int main(int argc, char** argv)
     addInspectCommand(app, exitStatus);
     addValidateCommand(app, exitStatus);
     addSimulateCommand(app, exitStatus);
+    addUpdateCommand(app, exitStatus);
     try {
         app.parse(argc, argv);
     } catch (const CLI::ParseError& error) {
