@@ -185,6 +185,7 @@ std::optional<ModelUpdate> updateModel(std::span<const std::uint8_t> outcome, st
         updated[i] = fit->updatedRisk(risk[i]);
     out.originalGroups = riskGroups(outcome, risk, settings.riskGroups, settings.confidence, CiMethod::Wilson);
     out.updatedGroups = riskGroups(outcome, updated, settings.riskGroups, settings.confidence, CiMethod::Wilson);
+    out.updatedOperatingPoints = operatingPoints(outcome, updated, ascendingOrder(updated), 0.005);
     out.cautions.push_back("The updated model is judged on the patients it was fitted on: its apparent performance is "
                            "optimistic; read the optimism-corrected column, and confirm on later patients.");
     out.cautions.push_back("Updating the intercept or the slope does not change how the model ranks patients: the C statistic "

@@ -1,6 +1,7 @@
 #pragma once
 
 #include "calibration_lr_tests.hpp"
+#include "operating_points.hpp"
 #include "risk_groups.hpp"
 
 #include <cstdint>
@@ -57,6 +58,7 @@ struct ModelUpdate {
     std::size_t replicatesUsed = 0;
     std::vector<RiskGroup> originalGroups;
     std::vector<RiskGroup> updatedGroups;
+    std::vector<OperatingPoint> updatedOperatingPoints; // every 0.005 of updated risk
     std::vector<std::string> cautions;
 };
 

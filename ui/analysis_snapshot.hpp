@@ -14,6 +14,7 @@ namespace plumbline {
 // fingerprints, and the validation. Shared between views; never changed after a run.
 struct AnalysisSnapshot {
     AnalysisRequest request;
+    std::shared_ptr<const Cohort> cohort; // the rows analysed, for views that run a core step on demand (updating)
     IntakeAudit audit;
     std::vector<InputFingerprint> inputs;
     ValidationResult validation;

@@ -40,7 +40,7 @@ CalibrationChartView::CalibrationChartView(QWidget* parent)
     auto* chart = new QChart;
     styleChart(chart, tr("Calibration: observed against predicted risk"));
     setChart(chart);
-    setMinimumSize(360, 300);
+    setMinimumSize(320, 200);
     setAccessibleName(tr("Calibration plot"));
 }
 

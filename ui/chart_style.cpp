@@ -24,8 +24,12 @@ QValueAxis* probabilityAxis(const QString& title, double maximum)
     auto* axis = new QValueAxis;
     axis->setRange(0.0, maximum);
     axis->setTitleText(title);
+    // Ticks at round values (every 0.1, or 0.2 on longer axes) so labels never round a tick
+    // such as 0.175 to "0.2".
+    axis->setTickType(QValueAxis::TicksDynamic);
+    axis->setTickAnchor(0.0);
+    axis->setTickInterval(maximum > 0.6 ? 0.2 : 0.1);
     axis->setLabelFormat(QStringLiteral("%.1f"));
-    axis->setTickCount(maximum >= 0.99 ? 6 : 5);
     axis->setTitleFont(QFont(QStringLiteral("DejaVu Sans"), 9));
     axis->setLabelsFont(QFont(QStringLiteral("DejaVu Sans"), 8));
     return axis;

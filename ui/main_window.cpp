@@ -3,6 +3,8 @@
 #include "calibration_chart_view.hpp"
 #include "cautions.hpp"
 #include "cohort_panel.hpp"
+#include "comparison_panel.hpp"
+#include "updating_panel.hpp"
 #include "copyable_table_view.hpp"
 #include "import_dialog.hpp"
 #include "metric_table_model.hpp"
@@ -61,6 +63,8 @@ MainWindow::MainWindow(QWidget* parent)
     , m_riskGroupProxy(new QSortFilterProxyModel(this))
     , m_riskGroupView(new CopyableTableView)
     , m_cohort(new CohortPanel)
+    , m_comparison(new ComparisonPanel)
+    , m_updating(new UpdatingPanel)
     , m_settings(new SettingsPanel)
     , m_tabs(new QTabWidget)
     , m_toggles(new QHBoxLayout)
@@ -178,6 +182,8 @@ QWidget* MainWindow::buildCentralArea()
     m_riskGroupView->setAccessibleName(tr("Risk groups"));
     m_tabs->addTab(metricView, tr("&Metrics"));
     m_tabs->addTab(m_riskGroupView, tr("Risk &groups"));
+    m_tabs->addTab(m_comparison, tr("Co&mparison"));
+    m_tabs->addTab(m_updating, tr("&Updating"));
     m_tabs->addTab(m_cohort, tr("C&ohort"));
     m_tabs->addTab(m_settings, tr("&Settings"));
 
@@ -189,8 +195,9 @@ QWidget* MainWindow::buildCentralArea()
     auto* vertical = new QSplitter(Qt::Vertical);
     vertical->addWidget(charts);
     vertical->addWidget(lower);
-    vertical->setStretchFactor(0, 3);
-    vertical->setStretchFactor(1, 2);
+    vertical->setStretchFactor(0, 1);
+    vertical->setStretchFactor(1, 1);
+    vertical->setSizes({540, 460});
 
     auto* central = new QWidget;
     auto* layout = new QVBoxLayout(central);
@@ -260,6 +267,8 @@ void MainWindow::showSnapshot(SnapshotPointer snapshot)
     m_metrics->setSnapshot(m_snapshot);
     m_riskGroups->setSnapshot(m_snapshot);
     m_cohort->setSnapshot(m_snapshot);
+    m_comparison->setSnapshot(m_snapshot);
+    m_updating->setSnapshot(m_snapshot);
     rebuildModelToggles();
     setThreshold(m_threshold->threshold());
     const std::size_t warnings = m_snapshot->validation.warnings.size() + audit.warnings.size();
@@ -271,6 +280,8 @@ void MainWindow::setThreshold(double threshold)
     m_roc->setThreshold(threshold);
     m_calibration->setThreshold(threshold);
     m_distribution->setThreshold(threshold);
+    m_comparison->setThreshold(threshold);
+    m_updating->setThreshold(threshold);
 }
 
 void MainWindow::rebuildModelToggles()

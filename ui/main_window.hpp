@@ -17,6 +17,8 @@ namespace plumbline {
 
 class CalibrationChartView;
 class CohortPanel;
+class ComparisonPanel;
+class UpdatingPanel;
 class CopyableTableView;
 class MetricTableModel;
 class RiskDistributionView;
@@ -49,6 +51,8 @@ public:
     MetricTableModel* metricModel() const { return m_metrics; }
     CopyableTableView* riskGroupView() const { return m_riskGroupView; }
     RiskGroupTableModel* riskGroupModel() const { return m_riskGroups; }
+    ComparisonPanel* comparisonPanel() const { return m_comparison; }
+    UpdatingPanel* updatingPanel() const { return m_updating; }
 
 protected:
     void closeEvent(QCloseEvent* event) override;
@@ -78,6 +82,8 @@ private:
     QSortFilterProxyModel* m_riskGroupProxy;
     CopyableTableView* m_riskGroupView;
     CohortPanel* m_cohort;
+    ComparisonPanel* m_comparison;
+    UpdatingPanel* m_updating;
     SettingsPanel* m_settings;
     QTabWidget* m_tabs;
     QHBoxLayout* m_toggles;

@@ -19,7 +19,7 @@ RiskDistributionView::RiskDistributionView(QWidget* parent)
     auto* chart = new QChart;
     styleChart(chart, tr("Distribution of predicted risk"));
     setChart(chart);
-    setMinimumHeight(210);
+    setMinimumHeight(150);
     chart->legend()->setAlignment(Qt::AlignRight);
     setAccessibleName(tr("Distribution of predicted risk"));
 }

@@ -47,7 +47,7 @@ RocChartView::RocChartView(QWidget* parent)
     auto* chart = new QChart;
     styleChart(chart, tr("Discrimination: ROC curve"));
     setChart(chart);
-    setMinimumSize(360, 320);
+    setMinimumSize(320, 240);
     setAccessibleName(tr("ROC curve"));
 }
 

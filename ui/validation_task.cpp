@@ -91,6 +91,7 @@ void ValidationTask::run(AnalysisRequest request, std::stop_token stop, unsigned
             applyBootstrap(snapshot->validation, *bootstrap);
         }
         snapshot->audit = intake->audit;
+        snapshot->cohort = std::make_shared<const Cohort>(std::move(intake->cohort));
         snapshot->inputs = intake->inputs;
         SnapshotPointer result = std::move(snapshot);
         done([this, result] { emit finished(result); });

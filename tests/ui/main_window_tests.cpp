@@ -1,6 +1,9 @@
 #include "bootstrap_engine.hpp"
 #include "calibration_chart_view.hpp"
 #include "cohort_simulator.hpp"
+#include "comparison_panel.hpp"
+#include "model_updating.hpp"
+#include "updating_panel.hpp"
 #include "copyable_table_view.hpp"
 #include "import_dialog.hpp"
 #include "main_window.hpp"
@@ -21,7 +24,10 @@
 #include <QSortFilterProxyModel>
 #include <QSlider>
 #include <QTemporaryDir>
+#include <QTabWidget>
+#include <QTableWidget>
 #include <QTest>
+#include <QApplication>
 #include <QTimer>
 
 using namespace plumbline;
@@ -212,6 +218,40 @@ private slots:
         qInfo() << "longest gap between timer ticks:" << longestGap << "ms over" << ticks << "ticks";
         QVERIFY(ticks > 10);
         QVERIFY2(longestGap < 200, qPrintable(QStringLiteral("longest gap %1 ms").arg(longestGap)));
+    }
+
+    void theComparisonAndUpdatingTabsShowTheCoresResults()
+    {
+        MainWindow window;
+        window.resize(1500, 1000);
+        AnalysisRequest request = sampleRequest(0);
+        QVERIFY(runAndWait(window, request));
+        // Comparison: the table holds the core's ΔC for local_score − supplier_score.
+        const ModelComparison& comparison = window.snapshot()->validation.comparisons.at(0);
+        QTableWidget* table = window.comparisonPanel()->differenceTable();
+        QCOMPARE(table->item(0, 1)->text(), QString::number(*comparison.difference("c_statistic_difference")->estimate.value, 'f', 4));
+        window.thresholdPanel()->setThreshold(0.3);
+        const OperatingPointSummary atA = summarise(window.snapshot()->validation.models[0].operatingPoints[60]);
+        QVERIFY(window.comparisonPanel()->thresholdText().contains(QString::number(atA.netBenefit, 'f', 4)));
+        // Updating: the panel runs the core's update and shows its formula.
+        QSignalSpy done(window.updatingPanel(), &UpdatingPanel::updateFinished);
+        window.updatingPanel()->runUpdate();
+        QVERIFY(done.wait(60000));
+        UpdateSettings settings;
+        settings.seed = request.bootstrap.seed;
+        const auto intake = runIntake(request.intake);
+        const auto expected = updateModel(intake->cohort.outcome, intake->cohort.models[0].values, "supplier_score", settings);
+        QVERIFY(window.updatingPanel()->formulaText().contains(QString::fromStdString(expected->fit.formula())));
+        QCOMPARE(window.updatingPanel()->optimismTable()->rowCount(), int(expected->optimism.size()));
+        QCOMPARE(window.updatingPanel()->optimismTable()->item(2, 3)->text(), QString::number(expected->optimism[2].corrected, 'f', 4));
+        if (qEnvironmentVariableIsSet("PLUMBLINE_TEST_SCREENSHOTS")) {
+            auto* tabs = window.findChild<QTabWidget*>();
+            for (int t = 0; t < tabs->count(); ++t) {
+                tabs->setCurrentIndex(t);
+                QApplication::processEvents();
+                window.grab().save(QStringLiteral("%1/tab-%2.png").arg(qEnvironmentVariable("PLUMBLINE_TEST_SCREENSHOTS")).arg(t));
+            }
+        }
     }
 
     void chartsExportAsPngAndSvg()
