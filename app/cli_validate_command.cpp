@@ -1,18 +1,21 @@
 #include "cli_validate_command.hpp"
 
+#include "analysis_snapshot.hpp"
 #include "atomic_file.hpp"
-#include "cli_bootstrap_options.hpp"
+#include "cli_analysis_options.hpp"
 #include "cli_exit.hpp"
-#include "cli_intake_options.hpp"
-#include "cli_panel_options.hpp"
 #include "cli_panel_report.hpp"
 #include "cli_text.hpp"
 #include "intake.hpp"
 #include "model_updating.hpp"
-#include "update_json.hpp"
+#include "report_writers.hpp"
 #include "result_json.hpp"
+#include "update_json.hpp"
 #include "validation_json.hpp"
 
+#include <QApplication>
+
+#include <cstdlib>
 #include <iostream>
 #include <memory>
 
@@ -21,89 +24,110 @@ namespace plumbline::cli {
 namespace {
 
 struct ValidateOptions {
-    IntakeOptions intake;
-    PanelOptions panel;
-    BootstrapOptions bootstrap;
-    std::string addUpdated;
+    AnalysisOptions analysis;
     std::string jsonFile;
+    std::string reportFile;
+    std::string xlsxFile;
+    std::string csvFolder;
 };
 
-nlohmann::ordered_json resultJson(const IntakeSettings& settings, const IntakeResult& intake,
-                                  const ValidationResult& validation, const BootstrapSettings& bootstrap,
-                                  const std::vector<ModelUpdate>& updates)
+nlohmann::ordered_json resultJson(const AnalysisSnapshot& s)
 {
     nlohmann::ordered_json json;
     json["plumbline"] = provenanceJson(utcTimestamp());
-    json["inputs"] = inputsJson(intake.inputs);
-    json["settings"] = intakeSettingsJson(settings);
-    json["settings"]["panel"] = panelSettingsJson(validation.settings);
-    json["settings"]["bootstrap"] = {{"replicates", bootstrap.replicates}, {"seed", bootstrap.seed},
-                                     {"ci_method", std::string(bootstrapCiName(bootstrap.method))},
-                                     {"stratified", bootstrap.stratified}};
-    json["cohort"] = cohortJson(intake.audit);
-    json["bootstrap"] = bootstrapJson(validation);
-    json["models"] = modelsJson(validation);
-    json["comparisons"] = comparisonsJson(validation);
+    json["inputs"] = inputsJson(s.inputs);
+    json["settings"] = intakeSettingsJson(s.request.intake);
+    json["settings"]["panel"] = panelSettingsJson(s.validation.settings);
+    json["settings"]["bootstrap"] = {{"replicates", s.request.bootstrap.replicates}, {"seed", s.request.bootstrap.seed},
+                                     {"ci_method", std::string(bootstrapCiName(s.request.bootstrap.method))},
+                                     {"stratified", s.request.bootstrap.stratified}};
+    json["cohort"] = cohortJson(s.audit);
+    json["bootstrap"] = bootstrapJson(s.validation);
+    json["models"] = modelsJson(s.validation);
+    json["comparisons"] = comparisonsJson(s.validation);
     json["updates"] = nlohmann::ordered_json::array();
-    for (const auto& update : updates)
+    for (const auto& update : s.updates)
         json["updates"].push_back(updateJson(update));
-    std::vector<std::string> warnings = intake.audit.warnings;
-    warnings.insert(warnings.end(), validation.warnings.begin(), validation.warnings.end());
+    std::vector<std::string> warnings = s.audit.warnings;
+    warnings.insert(warnings.end(), s.validation.warnings.begin(), s.validation.warnings.end());
     json["warnings"] = warnings;
     return json;
 }
 
+// Reports with charts need a QApplication (Qt Charts are widgets); the CLI makes one only then,
+// offscreen, so it never needs a display.
+int writeReports(const ValidateOptions& options, const AnalysisFile& analysis, const std::shared_ptr<const AnalysisSnapshot>& snapshot)
+{
+    const bool anyReport = !options.reportFile.empty() || !options.xlsxFile.empty() || !options.csvFolder.empty();
+    if (!anyReport)
+        return Done;
+    const ReportDocument document = buildReport(*snapshot, analysis.report, analysis.minimumCell, utcTimestamp());
+    if (!options.csvFolder.empty()) {
+        if (auto written = writeCsvTables(document, options.csvFolder); !written)
+            return reportError(written.error());
+        std::cout << "Tables (CSV): " << options.csvFolder << '\n';
+    }
+    if (!options.xlsxFile.empty()) {
+        if (auto written = writeXlsxReport(document, options.xlsxFile); !written)
+            return reportError(written.error());
+        std::cout << "Workbook: " << options.xlsxFile << '\n';
+    }
+    if (!options.reportFile.empty()) {
+        static int argc = 1;
+        static char name[] = "plumbline-cli";
+        static char* argv[] = {name, nullptr};
+        if (!std::getenv("QT_QPA_PLATFORM"))
+            qputenv("QT_QPA_PLATFORM", "offscreen");
+        std::unique_ptr<QApplication> application;
+        if (!QApplication::instance())
+            application = std::make_unique<QApplication>(argc, argv);
+        ReportCharts charts(snapshot);
+        if (auto written = writeReport(document, charts, options.reportFile); !written)
+            return reportError(written.error());
+        std::cout << "Report: " << options.reportFile << '\n';
+    }
+    return Done;
+}
+
 int runValidate(const ValidateOptions& options, const CLI::App& command)
 {
-    const auto settings = options.intake.resolved(command);
-    if (!settings)
-        return reportError(settings.error());
-    const auto panel = options.panel.resolved();
-    if (!panel)
-        return reportError(panel.error());
-    auto result = runIntake(*settings);
+    std::vector<std::string> settingsWarnings;
+    const auto analysis = options.analysis.resolved(command, settingsWarnings);
+    if (!analysis)
+        return reportError(analysis.error());
+    for (const auto& warning : settingsWarnings)
+        std::cerr << "plumbline-cli: warning: " << warning << '\n';
+    auto result = runIntake(analysis->intake);
     if (!result)
         return reportError(result.error());
+    auto snapshot = std::make_shared<AnalysisSnapshot>();
+    snapshot->request = AnalysisRequest::fromAnalysisFile(*analysis);
     // Each model updated for the local population enters as one more model, "<name>_updated".
-    std::vector<ModelUpdate> updates;
-    if (!options.addUpdated.empty() && scaleIsProbabilistic(result->cohort.scale)) {
-        UpdateSettings update;
-        update.method = options.addUpdated == "intercept" ? UpdateMethod::Intercept
-            : options.addUpdated == "logistic"           ? UpdateMethod::Logistic
-                                                         : UpdateMethod::ClosedTest;
-        const std::size_t originals = result->cohort.models.size();
-        for (std::size_t m = 0; m < originals; ++m) {
-            const ModelScores original = result->cohort.models[m];
-            const auto fitted = updateModel(result->cohort.outcome, original.values, original.name, update);
-            if (!fitted)
-                continue;
-            ModelScores updated{original.name + "_updated", std::vector<double>(original.values.size())};
-            for (std::size_t i = 0; i < original.values.size(); ++i)
-                updated.values[i] = fitted->fit.updatedRisk(original.values[i]);
-            result->cohort.models.push_back(std::move(updated));
-            updates.push_back(*fitted);
-        }
-    }
-    ValidationResult validation = runValidation(result->cohort, *panel);
-    for (const auto& update : updates)
-        validation.warnings.push_back("Model '" + update.model + "_updated' was fitted on these patients (" + update.fit.formula()
-                                      + "): its performance here is optimistic; see the optimism-corrected values in 'updates'.");
-    const BootstrapSettings bootstrap = options.bootstrap.resolved();
-    if (bootstrap.replicates > 0) {
-        const auto replicated = runBootstrap(result->cohort, validation, bootstrap, terminalProgress(), {});
-        if (replicated)
-            applyBootstrap(validation, *replicated);
-    }
-    printIntakeSummary(std::cout, *settings, *result);
-    printPanel(std::cout, validation);
+    snapshot->updates = addUpdatedModels(result->cohort, analysis->addUpdated);
+    snapshot->validation = runValidation(result->cohort, analysis->panel);
+    for (const auto& update : snapshot->updates)
+        snapshot->validation.warnings.push_back("Model '" + update.model + "_updated' was fitted on these patients (" + update.fit.formula()
+                                                + "): its performance here is optimistic; see the optimism-corrected values in 'updates'.");
+    if (analysis->bootstrap.replicates > 0)
+        if (const auto replicated = runBootstrap(result->cohort, snapshot->validation, analysis->bootstrap, terminalProgress(), {}))
+            applyBootstrap(snapshot->validation, *replicated);
+    snapshot->audit = result->audit;
+    snapshot->inputs = result->inputs;
+    snapshot->cohort = std::make_shared<const Cohort>(std::move(result->cohort));
+    printIntakeSummary(std::cout, analysis->intake, *result);
+    printPanel(std::cout, snapshot->validation);
     printCautions(std::cout);
     if (!options.jsonFile.empty()) {
-        const std::string text = resultJson(*settings, *result, validation, bootstrap, updates).dump(2) + "\n";
-        if (auto written = writeFileAtomically(options.jsonFile, text); !written)
+        if (auto written = writeFileAtomically(options.jsonFile, resultJson(*snapshot).dump(2) + "\n"); !written)
             return reportError(written.error());
         std::cout << "Result file: " << options.jsonFile << '\n';
     }
-    return Done;
+    if (!options.analysis.saveSettingsFile.empty()) {
+        if (auto written = saveAnalysisFile(options.analysis.saveSettingsFile, *analysis); !written)
+            return reportError(written.error());
+        std::cout << "Analysis file: " << options.analysis.saveSettingsFile << '\n';
+    }
+    return writeReports(options, *analysis, snapshot);
 }
 
 } // namespace
@@ -112,13 +136,11 @@ void addValidateCommand(CLI::App& app, int& exitStatus)
 {
     auto options = std::make_shared<ValidateOptions>();
     CLI::App* command = app.add_subcommand("validate", "Validate one or more risk models on a cohort.");
-    options->intake.addTo(*command);
-    options->panel.addTo(*command);
-    options->bootstrap.addTo(*command);
-    command->add_option("--add-updated", options->addUpdated,
-                        "Also validate each model updated on these data (intercept, logistic, closed-test)")
-        ->check(CLI::IsMember({"intercept", "logistic", "closed-test"}));
+    options->analysis.addTo(*command);
     command->add_option("--json", options->jsonFile, "Write the full result as JSON");
+    command->add_option("--report", options->reportFile, "Write the validation report (.pdf or .html)");
+    command->add_option("--xlsx", options->xlsxFile, "Write every table of the report to a workbook");
+    command->add_option("--csv-dir", options->csvFolder, "Write every table of the report as CSV into this folder");
     command->callback([options, command, &exitStatus] { exitStatus = runValidate(*options, *command); });
 }
 

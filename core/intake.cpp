@@ -18,6 +18,11 @@ std::expected<void, InputError> checkSettings(const IntakeSettings& settings)
 {
     InputError error;
     error.file = settings.cohortFile;
+    if (settings.cohortFile.empty()) {
+        error.problem = "no cohort file was given.";
+        error.remedy = "name the file with the scores (and outcomes), or a saved analysis with --settings.";
+        return std::unexpected(error);
+    }
     if (settings.outcomeColumn.empty()) {
         error.problem = "no outcome column was given.";
         error.remedy = "name the column with the observed outcome with --outcome COLUMN.";

@@ -1,5 +1,6 @@
 #include "model_updating.hpp"
 
+#include "cohort.hpp"
 #include "logistic_recalibration.hpp"
 #include "random_stream.hpp"
 #include "weighted_panel.hpp"
@@ -191,6 +192,34 @@ std::optional<ModelUpdate> updateModel(std::span<const std::uint8_t> outcome, st
     out.cautions.push_back("Updating the intercept or the slope does not change how the model ranks patients: the C statistic "
                            "stays the same (or reverses with a negative slope).");
     return out;
+}
+
+} // namespace plumbline
+
+namespace plumbline {
+
+std::vector<ModelUpdate> addUpdatedModels(Cohort& cohort, const std::string& method, const UpdateSettings& base)
+{
+    std::vector<ModelUpdate> updates;
+    if (method.empty() || !scaleIsProbabilistic(cohort.scale))
+        return updates;
+    UpdateSettings settings = base;
+    settings.method = method == "intercept" ? UpdateMethod::Intercept
+        : method == "logistic"              ? UpdateMethod::Logistic
+                                            : UpdateMethod::ClosedTest;
+    const std::size_t originals = cohort.models.size();
+    for (std::size_t m = 0; m < originals; ++m) {
+        const ModelScores original = cohort.models[m];
+        const auto fitted = updateModel(cohort.outcome, original.values, original.name, settings);
+        if (!fitted)
+            continue;
+        ModelScores updated{original.name + "_updated", std::vector<double>(original.values.size())};
+        for (std::size_t i = 0; i < original.values.size(); ++i)
+            updated.values[i] = fitted->fit.updatedRisk(original.values[i]);
+        cohort.models.push_back(std::move(updated));
+        updates.push_back(*fitted);
+    }
+    return updates;
 }
 
 } // namespace plumbline

@@ -71,6 +71,12 @@ struct UpdateSettings {
     double confidence = 0.95;
 };
 
+// Adds "<name>_updated" for each model of the cohort, updated on these data (the method names of
+// the CLI: intercept, logistic, closed-test); returns what was fitted. Models that cannot be
+// updated are left out.
+struct Cohort;
+std::vector<ModelUpdate> addUpdatedModels(Cohort& cohort, const std::string& method, const UpdateSettings& base = {});
+
 // nullopt when the update cannot be fitted (one class, separation, constant risks) or on stop.
 std::optional<ModelUpdate> updateModel(std::span<const std::uint8_t> outcome, std::span<const double> risk,
                                        const std::string& name, const UpdateSettings& settings,

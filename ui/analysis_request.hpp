@@ -1,5 +1,6 @@
 #pragma once
 
+#include "analysis_file.hpp"
 #include "bootstrap_engine.hpp"
 #include "intake_settings.hpp"
 #include "panel_settings.hpp"
@@ -11,6 +12,15 @@ struct AnalysisRequest {
     IntakeSettings intake;
     PanelSettings panel;
     BootstrapSettings bootstrap;
+    std::string addUpdated; // "", "intercept", "logistic" or "closed-test"
+    ReportFields report;
+    std::size_t minimumCell = 11;
+
+    AnalysisFile toAnalysisFile() const { return {intake, panel, bootstrap, addUpdated, minimumCell, report}; }
+    static AnalysisRequest fromAnalysisFile(const AnalysisFile& a)
+    {
+        return {a.intake, a.panel, a.bootstrap, a.addUpdated, a.report, a.minimumCell};
+    }
 };
 
 } // namespace plumbline

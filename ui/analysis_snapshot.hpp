@@ -2,6 +2,7 @@
 
 #include "analysis_request.hpp"
 #include "intake.hpp"
+#include "model_updating.hpp"
 #include "validation.hpp"
 
 #include <QMetaType>
@@ -18,6 +19,7 @@ struct AnalysisSnapshot {
     IntakeAudit audit;
     std::vector<InputFingerprint> inputs;
     ValidationResult validation;
+    std::vector<ModelUpdate> updates; // models updated on these data and added to the validation
 };
 
 using SnapshotPointer = std::shared_ptr<const AnalysisSnapshot>;

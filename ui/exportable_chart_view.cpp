@@ -61,6 +61,33 @@ bool ExportableChartView::exportTo(const QString& path, QSize size, QString* err
     return true;
 }
 
+void ExportableChartView::renderInto(QPainter* painter, const QRectF& target, QSize size)
+{
+    QChart* chart = this->chart();
+    const QRectF original = chart->geometry();
+    chart->setGeometry(QRectF(QPointF(0, 0), size));
+    scene()->render(painter, target, QRectF(QPointF(0, 0), size));
+    chart->setGeometry(original);
+}
+
+QByteArray ExportableChartView::svg(QSize size)
+{
+    QByteArray bytes;
+    QBuffer buffer(&bytes);
+    buffer.open(QIODevice::WriteOnly);
+    QSvgGenerator generator;
+    generator.setOutputDevice(&buffer);
+    generator.setSize(size);
+    generator.setViewBox(QRect(QPoint(0, 0), size));
+    generator.setResolution(96);
+    generator.setTitle(chart()->title());
+    {
+        QPainter painter(&generator);
+        renderInto(&painter, QRectF(QPointF(0, 0), size), size);
+    }
+    return bytes;
+}
+
 void ExportableChartView::contextMenuEvent(QContextMenuEvent* event)
 {
     QMenu menu(this);

@@ -1,6 +1,9 @@
 #pragma once
 
+#include <QByteArray>
 #include <QChartView>
+
+class QPainter;
 #include <QSize>
 #include <QString>
 
@@ -15,6 +18,10 @@ public:
 
     // Writes PNG or SVG by the file's suffix; false with a reason when it cannot.
     bool exportTo(const QString& path, QSize size, QString* error = nullptr);
+    // The chart laid out at `size` and drawn into `target` of any painter (vector in PDF and SVG).
+    void renderInto(QPainter* painter, const QRectF& target, QSize size);
+    // The chart as a standalone SVG document.
+    QByteArray svg(QSize size);
 
 protected:
     void contextMenuEvent(QContextMenuEvent* event) override;

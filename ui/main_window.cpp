@@ -9,6 +9,8 @@
 #include "import_dialog.hpp"
 #include "metric_table_model.hpp"
 #include "model_palette.hpp"
+#include "report_writers.hpp"
+#include "result_json.hpp"
 #include "risk_distribution_view.hpp"
 #include "risk_group_table_model.hpp"
 #include "roc_chart_view.hpp"
@@ -23,6 +25,7 @@
 #include <QCloseEvent>
 #include <QDragEnterEvent>
 #include <QDropEvent>
+#include <QFileDialog>
 #include <QFileInfo>
 #include <QHBoxLayout>
 #include <QHeaderView>
@@ -132,6 +135,46 @@ void MainWindow::buildMenus()
     m_recent = file->addMenu(tr("Open &recent"));
     refreshRecentMenu();
     file->addSeparator();
+    file->addAction(tr("Open &analysis…"), this, [this] {
+        const QString path = QFileDialog::getOpenFileName(this, tr("Open analysis"), QString(), tr("Plumbline analysis (*.plumbline.json)"));
+        if (path.isEmpty())
+            return;
+        QStringList warnings;
+        QString error;
+        if (!openAnalysis(path, &warnings, &error))
+            QMessageBox::warning(this, tr("Analysis not opened"), error);
+        else if (!warnings.isEmpty())
+            QMessageBox::warning(this, tr("The data have changed"), warnings.join(QLatin1Char('\n')));
+    });
+    QAction* save = file->addAction(tr("&Save analysis…"), this, [this] {
+        const QString path = QFileDialog::getSaveFileName(this, tr("Save analysis"), QString(), tr("Plumbline analysis (*.plumbline.json)"));
+        QString error;
+        if (!path.isEmpty() && !saveAnalysis(path.endsWith(QStringLiteral(".plumbline.json")) ? path : path + QStringLiteral(".plumbline.json"), &error))
+            QMessageBox::warning(this, tr("Analysis not saved"), error);
+    });
+    save->setShortcut(QKeySequence::Save);
+    file->addSeparator();
+    QAction* exportReportAction = file->addAction(tr("&Export report…"), this, [this] {
+        QString filter;
+        const QString path = QFileDialog::getSaveFileName(this, tr("Export report"), QString(),
+                                                          tr("PDF report (*.pdf);;HTML report (*.html);;Spreadsheet (*.xlsx)"), &filter);
+        if (path.isEmpty())
+            return;
+        QString error;
+        const bool ok = path.endsWith(QStringLiteral(".xlsx")) ? exportWorkbook(path, &error) : exportReport(path, &error);
+        if (!ok)
+            QMessageBox::warning(this, tr("Report not written"), error);
+        else
+            m_status->setText(tr("Report written to %1").arg(path));
+    });
+    exportReportAction->setShortcut(QKeySequence(Qt::CTRL | Qt::Key_E));
+    file->addAction(tr("Export &tables as CSV…"), this, [this] {
+        const QString folder = QFileDialog::getExistingDirectory(this, tr("Folder for the tables"));
+        QString error;
+        if (!folder.isEmpty() && !exportTables(folder, &error))
+            QMessageBox::warning(this, tr("Tables not written"), error);
+    });
+    file->addSeparator();
     QAction* quit = file->addAction(tr("&Quit"), this, &QWidget::close);
     quit->setShortcut(QKeySequence::Quit);
     QMenu* analysis = menuBar()->addMenu(tr("&Analysis"));
@@ -239,6 +282,67 @@ void MainWindow::runRequest(const AnalysisRequest& request)
     m_cancel->setVisible(true);
     m_status->setText(tr("Starting…"));
     m_task->start(request);
+}
+
+bool MainWindow::saveAnalysis(const QString& path, QString* error)
+{
+    const auto request = m_settings->request();
+    if (!request)
+        return false;
+    const auto saved = saveAnalysisFile(path.toStdString(), request->toAnalysisFile());
+    if (!saved && error)
+        *error = QString::fromStdString(saved.error().message());
+    return saved.has_value();
+}
+
+bool MainWindow::openAnalysis(const QString& path, QStringList* warnings, QString* error)
+{
+    std::vector<std::string> found;
+    const auto analysis = loadAnalysisFile(path.toStdString(), found);
+    if (!analysis) {
+        if (error)
+            *error = QString::fromStdString(analysis.error().message());
+        return false;
+    }
+    if (warnings)
+        for (const auto& w : found)
+            warnings->append(QString::fromStdString(w));
+    runRequest(AnalysisRequest::fromAnalysisFile(*analysis));
+    return true;
+}
+
+namespace {
+bool reportResult(const std::expected<void, InputError>& written, QString* error)
+{
+    if (!written && error)
+        *error = QString::fromStdString(written.error().message());
+    return written.has_value();
+}
+} // namespace
+
+bool MainWindow::exportReport(const QString& path, QString* error)
+{
+    if (!m_snapshot)
+        return false;
+    const ReportDocument document = buildReport(*m_snapshot, m_snapshot->request.report, m_snapshot->request.minimumCell, utcTimestamp());
+    ReportCharts charts(m_snapshot);
+    return reportResult(writeReport(document, charts, path.toStdString()), error);
+}
+
+bool MainWindow::exportWorkbook(const QString& path, QString* error)
+{
+    if (!m_snapshot)
+        return false;
+    const ReportDocument document = buildReport(*m_snapshot, m_snapshot->request.report, m_snapshot->request.minimumCell, utcTimestamp());
+    return reportResult(writeXlsxReport(document, path.toStdString()), error);
+}
+
+bool MainWindow::exportTables(const QString& folder, QString* error)
+{
+    if (!m_snapshot)
+        return false;
+    const ReportDocument document = buildReport(*m_snapshot, m_snapshot->request.report, m_snapshot->request.minimumCell, utcTimestamp());
+    return reportResult(writeCsvTables(document, folder.toStdString()), error);
 }
 
 void MainWindow::showSnapshot(SnapshotPointer snapshot)

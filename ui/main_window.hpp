@@ -41,6 +41,13 @@ public:
     void openWithDialog(const QString& path = {});
     // Runs an analysis directly (command line, snapshot mode, re-run, tests).
     void runRequest(const AnalysisRequest& request);
+    // Saves the current analysis; opens a saved one and runs it (input changes are warned about).
+    bool saveAnalysis(const QString& path, QString* error = nullptr);
+    bool openAnalysis(const QString& path, QStringList* warnings = nullptr, QString* error = nullptr);
+    // Exports the report of the shown results: PDF or HTML (by suffix), XLSX, or CSV tables.
+    bool exportReport(const QString& path, QString* error = nullptr);
+    bool exportWorkbook(const QString& path, QString* error = nullptr);
+    bool exportTables(const QString& folder, QString* error = nullptr);
 
     SnapshotPointer snapshot() const { return m_snapshot; }
     ValidationTask* task() const { return m_task; }

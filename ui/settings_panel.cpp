@@ -25,8 +25,18 @@ SettingsPanel::SettingsPanel(QWidget* parent)
     , m_groups(new QSpinBox)
     , m_thresholds(new QLineEdit)
     , m_stratified(new QCheckBox(tr("Resample patients with and without the event separately")))
+    , m_title(new QLineEdit)
+    , m_model(new QLineEdit)
+    , m_outcome(new QLineEdit)
+    , m_population(new QLineEdit)
+    , m_period(new QLineEdit)
+    , m_notes(new QLineEdit)
+    , m_minimumCell(new QSpinBox)
     , m_problem(new QLabel)
 {
+    m_minimumCell->setRange(1, 1000);
+    m_title->setPlaceholderText(tr("e.g. External validation of the supplier's 30-day readmission score"));
+    m_outcome->setPlaceholderText(tr("e.g. unplanned readmission to any network hospital within 30 days"));
     m_replicates->setRange(0, 20000);
     m_replicates->setSpecialValueText(tr("0 (analytic intervals only)"));
     m_seed->setRange(0, std::numeric_limits<int>::max());
@@ -48,6 +58,13 @@ SettingsPanel::SettingsPanel(QWidget* parent)
     form->addRow(tr("Risk &groups:"), m_groups);
     form->addRow(tr("&Thresholds for the table:"), m_thresholds);
     form->addRow(QString(), m_stratified);
+    form->addRow(tr("Report t&itle:"), m_title);
+    form->addRow(tr("Model and &version:"), m_model);
+    form->addRow(tr("O&utcome and horizon:"), m_outcome);
+    form->addRow(tr("&Population:"), m_population);
+    form->addRow(tr("Perio&d:"), m_period);
+    form->addRow(tr("Reviewer's &notes:"), m_notes);
+    form->addRow(tr("Suppress counts &below:"), m_minimumCell);
     form->addRow(QString(), rerun);
     form->addRow(QString(), m_problem);
     connect(rerun, &QPushButton::clicked, this, [this] {
@@ -69,6 +86,13 @@ void SettingsPanel::setRequest(const AnalysisRequest& request)
         thresholds << QString::number(t);
     m_thresholds->setText(thresholds.join(QStringLiteral(", ")));
     m_stratified->setChecked(request.bootstrap.stratified);
+    m_title->setText(QString::fromStdString(request.report.title));
+    m_model->setText(QString::fromStdString(request.report.model));
+    m_outcome->setText(QString::fromStdString(request.report.outcome));
+    m_population->setText(QString::fromStdString(request.report.population));
+    m_period->setText(QString::fromStdString(request.report.period));
+    m_notes->setText(QString::fromStdString(request.report.notes));
+    m_minimumCell->setValue(int(request.minimumCell));
     m_problem->clear();
 }
 
@@ -80,6 +104,9 @@ std::optional<AnalysisRequest> SettingsPanel::request() const
     out.bootstrap.method = m_ciMethod->currentData().toString() == QStringLiteral("bca") ? BootstrapCi::Bca : BootstrapCi::Percentile;
     out.bootstrap.stratified = m_stratified->isChecked();
     out.panel.confidence = m_confidence->value();
+    out.report = {m_title->text().toStdString(), m_model->text().toStdString(), m_outcome->text().toStdString(),
+                  m_population->text().toStdString(), m_period->text().toStdString(), m_notes->text().toStdString()};
+    out.minimumCell = std::size_t(m_minimumCell->value());
     out.panel.riskGroups = std::size_t(m_groups->value());
     out.panel.thresholds.clear();
     for (const QString& item : m_thresholds->text().split(QLatin1Char(','), Qt::SkipEmptyParts)) {

@@ -37,6 +37,13 @@ private:
     QSpinBox* m_groups;
     QLineEdit* m_thresholds;
     QCheckBox* m_stratified;
+    QLineEdit* m_title;
+    QLineEdit* m_model;
+    QLineEdit* m_outcome;
+    QLineEdit* m_population;
+    QLineEdit* m_period;
+    QLineEdit* m_notes;
+    QSpinBox* m_minimumCell;
     QLabel* m_problem;
 };
 

@@ -71,6 +71,7 @@ void ValidationTask::run(AnalysisRequest request, std::stop_token stop, unsigned
         post(generation, [this] { emit progressed(0, tr("Computing the metric panel")); });
         auto snapshot = std::make_shared<AnalysisSnapshot>();
         snapshot->request = request;
+        snapshot->updates = addUpdatedModels(intake->cohort, request.addUpdated);
         snapshot->validation = runValidation(intake->cohort, request.panel);
         if (request.bootstrap.replicates > 0) {
             // Progress comes at every percent from a worker; forward at most every 50 ms.

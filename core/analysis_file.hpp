@@ -1,0 +1,43 @@
+#pragma once
+
+#include "bootstrap_engine.hpp"
+#include "input_error.hpp"
+#include "intake_settings.hpp"
+#include "panel_settings.hpp"
+
+#include <expected>
+#include <string>
+#include <vector>
+
+namespace plumbline {
+
+// Free text of a report's title and scope, typed by the analyst (TRIPOD items 1, 4-6).
+struct ReportFields {
+    std::string title;              // e.g. "External validation of the supplier's 30-day readmission score"
+    std::string model;              // model name and version
+    std::string outcome;            // outcome definition and horizon
+    std::string population;         // who was included
+    std::string period;             // when
+    std::string notes;              // the reviewer's notes
+};
+
+// Everything needed to re-run an analysis exactly: our own JSON format, "*.plumbline.json".
+// Input paths are stored relative to the analysis file, with each input's SHA-256 so that a
+// changed input is noticed when the analysis is opened again.
+struct AnalysisFile {
+    IntakeSettings intake;
+    PanelSettings panel;
+    BootstrapSettings bootstrap;
+    std::string addUpdated;         // "", "intercept", "logistic" or "closed-test"
+    std::size_t minimumCell = 11;   // small-cell rule of the reports
+    ReportFields report;
+};
+
+// Writes the analysis (atomically), fingerprinting the inputs as they are now.
+std::expected<void, InputError> saveAnalysisFile(const std::string& path, const AnalysisFile& analysis);
+
+// Reads an analysis file; paths come back resolved against its folder. `warnings` tells when an
+// input is missing or its SHA-256 no longer matches (the data changed since the analysis).
+std::expected<AnalysisFile, InputError> loadAnalysisFile(const std::string& path, std::vector<std::string>& warnings);
+
+} // namespace plumbline

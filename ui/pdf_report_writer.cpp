@@ -1,0 +1,163 @@
+#include "report_writers.hpp"
+
+#include "atomic_file.hpp"
+
+#include <QAbstractTextDocumentLayout>
+#include <QBuffer>
+#include <QPageSize>
+#include <QPainter>
+#include <QPdfWriter>
+#include <QTextDocument>
+
+namespace plumbline {
+
+namespace {
+
+QString escaped(const std::string& text)
+{
+    return QString::fromStdString(text).toHtmlEscaped();
+}
+
+// Lays blocks down the page and starts a new page when the next block does not fit; every page
+// carries its number and the short caution in the footer.
+class PdfLayout {
+public:
+    PdfLayout(QPdfWriter& writer, QPainter& painter)
+        : m_writer(writer)
+        , m_painter(painter)
+        , m_area(QRectF(QPointF(0, 0), QSizeF(writer.width(), writer.height())).adjusted(0, 0, 0, -footerHeight()))
+    {
+        m_y = m_area.top();
+    }
+
+    // A heading never ends a page: it needs room for itself and a fair part of what follows.
+    void heading(const QString& html)
+    {
+        fit(m_area.height() * 0.3);
+        this->html(html, 0.1);
+    }
+
+    void html(const QString& html, double gapAfter = 0.4)
+    {
+        QTextDocument document;
+        document.documentLayout()->setPaintDevice(&m_writer);
+        document.setDefaultFont(QFont(QStringLiteral("DejaVu Sans"), 9));
+        document.setDefaultStyleSheet(QStringLiteral("table{border-collapse:collapse} th{background:#eeeeee}"));
+        document.setHtml(html);
+        document.setTextWidth(m_area.width());
+        const double height = document.size().height();
+        fit(height);
+        m_painter.save();
+        m_painter.translate(m_area.left(), m_y);
+        document.drawContents(&m_painter);
+        m_painter.restore();
+        m_y += height + gapAfter * lineHeight();
+    }
+
+    void charts(ReportCharts& charts, const std::vector<ReportChart>& which)
+    {
+        if (which.empty())
+            return;
+        const double gap = lineHeight();
+        const double width = (m_area.width() - gap) / 2.0;
+        const QSize logical = ReportCharts::logicalSize();
+        const double height = width * logical.height() / logical.width();
+        fit(height);
+        for (std::size_t i = 0; i < which.size(); ++i)
+            charts.draw(which[i], &m_painter, QRectF(m_area.left() + double(i % 2) * (width + gap), m_y, width, height));
+        m_y += height + gap;
+    }
+
+    void finish() { footer(); }
+
+private:
+    double lineHeight() const { return m_writer.resolution() * 0.17; }
+    double footerHeight() const { return m_writer.resolution() * 0.45; }
+
+    void fit(double height)
+    {
+        if (m_y + height > m_area.bottom() && m_y > m_area.top()) {
+            footer();
+            m_writer.newPage();
+            m_y = m_area.top();
+        }
+    }
+
+    void footer()
+    {
+        m_painter.save();
+        QFont font(QStringLiteral("DejaVu Sans"));
+        font.setPixelSize(int(m_writer.resolution() * 0.1));
+        m_painter.setFont(font);
+        m_painter.setPen(QColor(90, 90, 90));
+        const QRectF box(0, m_writer.height() - footerHeight() * 0.8, m_writer.width(), footerHeight() * 0.8);
+        m_painter.drawText(box, Qt::AlignLeft | Qt::AlignVCenter | Qt::TextWordWrap,
+                           QStringLiteral("Supports, does not replace, clinical and governance review. Aggregates only."));
+        m_painter.drawText(box, Qt::AlignRight | Qt::AlignVCenter, QStringLiteral("page %1").arg(++m_page));
+        m_painter.restore();
+    }
+
+    QPdfWriter& m_writer;
+    QPainter& m_painter;
+    QRectF m_area;
+    double m_y = 0;
+    int m_page = 0;
+};
+
+QString tableHtml(const ReportTable& table, std::size_t from, std::size_t to)
+{
+    QString html = QStringLiteral("<p><b>%1</b>%2</p><table border=\"1\" cellpadding=\"3\" cellspacing=\"0\" width=\"100%\"><tr>")
+                       .arg(escaped(table.title), from > 0 ? QStringLiteral(" (continued)") : QString());
+    for (const auto& header : table.headers)
+        html += QStringLiteral("<th>%1</th>").arg(escaped(header));
+    html += QStringLiteral("</tr>");
+    for (std::size_t r = from; r < to; ++r) {
+        html += QStringLiteral("<tr>");
+        for (const auto& cell : table.rows[r])
+            html += QStringLiteral("<td%1>%2</td>")
+                        .arg(cell.number || cell.suppressed ? QStringLiteral(" align=\"right\"") : QString(),
+                             cell.suppressed ? QStringLiteral("<i>%1</i>").arg(escaped(cell.text)) : escaped(cell.text));
+        html += QStringLiteral("</tr>");
+    }
+    html += QStringLiteral("</table>");
+    if (to == table.rows.size() && !table.note.empty())
+        html += QStringLiteral("<p><small>%1</small></p>").arg(escaped(table.note));
+    return html;
+}
+
+} // namespace
+
+std::expected<void, InputError> writePdfReport(const ReportDocument& document, ReportCharts& charts, const std::string& path)
+{
+    QByteArray bytes;
+    QBuffer buffer(&bytes);
+    buffer.open(QIODevice::WriteOnly);
+    {
+        QPdfWriter writer(&buffer);
+        writer.setPageSize(QPageSize(QPageSize::A4));
+        writer.setPageMargins(QMarginsF(18, 16, 18, 14), QPageLayout::Millimeter);
+        writer.setResolution(300);
+        writer.setTitle(QString::fromStdString(document.title));
+        writer.setCreator(QStringLiteral("Plumbline"));
+        QPainter painter(&writer);
+        PdfLayout layout(writer, painter);
+        layout.html(QStringLiteral("<h1>%1</h1><p>%2</p><p style=\"background:#fff4d6\"><b>Caution:</b> a validation supports, and "
+                                   "does not replace, clinical and governance review; results depend on local data quality and outcome "
+                                   "definitions; follow local policy and regulation.</p>")
+                        .arg(escaped(document.title), escaped(document.subtitle)));
+        constexpr std::size_t rowsPerBlock = 24; // a table block never outgrows a page
+        for (const auto& section : document.sections) {
+            layout.heading(QStringLiteral("<h2>%1</h2>").arg(escaped(section.title)));
+            for (const auto& paragraph : section.paragraphs)
+                layout.html(QStringLiteral("<p>%1</p>").arg(escaped(paragraph)), 0.1);
+            layout.charts(charts, section.charts);
+            for (const auto& table : section.tables)
+                for (std::size_t from = 0; from < std::max<std::size_t>(table.rows.size(), 1); from += rowsPerBlock)
+                    layout.html(tableHtml(table, from, std::min(table.rows.size(), from + rowsPerBlock)));
+        }
+        layout.finish();
+    }
+    return writeFileAtomically(path, std::string_view(bytes.constData(), std::size_t(bytes.size())));
+}
+
+} // namespace plumbline

@@ -1,0 +1,35 @@
+#pragma once
+
+#include "analysis_snapshot.hpp"
+#include "report_document.hpp"
+
+#include <QByteArray>
+#include <QRectF>
+#include <QSize>
+
+#include <memory>
+
+class QPainter;
+
+namespace plumbline {
+
+class CalibrationChartView;
+class RocChartView;
+
+// The report's charts, built from the snapshot with the window's own chart classes so that a
+// report and the window draw the same thing. Needs a QApplication (Qt Charts are widgets).
+class ReportCharts {
+public:
+    explicit ReportCharts(const SnapshotPointer& snapshot);
+    ~ReportCharts();
+
+    static QSize logicalSize() { return {540, 420}; } // small, so its text reads well when scaled to half a page
+    void draw(ReportChart chart, QPainter* painter, const QRectF& target);
+    QByteArray svg(ReportChart chart);
+
+private:
+    std::unique_ptr<RocChartView> m_roc;
+    std::unique_ptr<CalibrationChartView> m_calibration;
+};
+
+} // namespace plumbline

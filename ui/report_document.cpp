@@ -1,0 +1,354 @@
+#include "report_document.hpp"
+
+#include "cautions.hpp"
+#include "metric_definitions.hpp"
+#include "metric_reading.hpp"
+#include "model_comparison.hpp"
+#include "panel_keys.hpp"
+#include "version.hpp"
+
+#include <cstdio>
+#include <filesystem>
+
+namespace plumbline {
+
+namespace {
+
+std::string fixed(double value, int digits)
+{
+    char buffer[48];
+    std::snprintf(buffer, sizeof buffer, "%.*f", digits, value);
+    return buffer;
+}
+
+ReportCell numberCell(std::optional<double> value, int digits)
+{
+    if (!value)
+        return {"not computed", std::nullopt, false};
+    return {fixed(*value, digits), *value, false};
+}
+
+ReportCell textCell(std::string text)
+{
+    return {std::move(text), std::nullopt, false};
+}
+
+// Counts below the small-cell threshold are suppressed (zero is not: it reveals nobody).
+ReportCell countCell(std::size_t count, std::size_t minimumCell)
+{
+    if (count > 0 && count < minimumCell)
+        return {"<" + std::to_string(minimumCell), std::nullopt, true};
+    return {std::to_string(count), double(count), false};
+}
+
+int digitsFor(const std::string& key)
+{
+    return key == "ici" || key == "e50" || key == "e90" || key == "emax" || key == "brier" ? 4 : 3;
+}
+
+std::string intervalText(const Estimate& e, int digits)
+{
+    return e.lower && e.upper ? fixed(*e.lower, digits) + " to " + fixed(*e.upper, digits) : "-";
+}
+
+ReportTable metricTable(const std::string& id, const std::string& title, const ValidationResult& v,
+                        std::initializer_list<PanelMetric> metrics)
+{
+    ReportTable t{id, title, {"Model", "Metric", "Estimate", "Interval", "Interval from", "Reading"}, {}, {}};
+    for (const auto& model : v.models)
+        for (PanelMetric k : metrics) {
+            const MetricEntry& e = model.metrics[k];
+            const int digits = digitsFor(e.key);
+            t.rows.push_back({textCell(model.name), textCell(metricLabel(e.key)), numberCell(e.estimate.value, digits),
+                              textCell(e.estimate.value ? intervalText(e.estimate, digits) : "-"),
+                              textCell(e.estimate.lower ? ciMethodName(e.estimate.ciMethod) : "-"),
+                              textCell(e.estimate.value ? e.reading : "not computed: see the warnings")});
+        }
+    t.note = "Intervals at the " + fixed(v.settings.confidence * 100.0, 0) + " % level.";
+    return t;
+}
+
+ReportSection scopeSection(const AnalysisSnapshot& s, const ReportFields& f, const std::string& created)
+{
+    ReportSection section{"1. Title and scope", {}, {}, {}};
+    auto line = [&](const std::string& label, const std::string& value) {
+        section.paragraphs.push_back(label + ": " + (value.empty() ? "(not stated - fill in before sign-off)" : value));
+    };
+    line("Model and version", f.model);
+    line("Outcome and horizon", f.outcome);
+    line("Population", f.population);
+    line("Period", f.period);
+    section.paragraphs.push_back("Report created " + created + " with Plumbline " + versionString + ".");
+    (void)s;
+    return section;
+}
+
+ReportSection provenanceSection(const AnalysisSnapshot& s, std::size_t minimumCell)
+{
+    ReportSection section{"2. Data provenance", {}, {}, {}};
+    ReportTable inputs{"inputs", "Input files", {"Role", "File", "SHA-256", "Data rows"}, {}, {}};
+    for (const auto& input : s.inputs)
+        inputs.rows.push_back({textCell(input.role), textCell(std::filesystem::path(input.path).filename().string()),
+                               textCell(input.sha256), {std::to_string(input.rows), double(input.rows), false}});
+    section.tables.push_back(inputs);
+    const IntakeAudit& a = s.audit;
+    section.paragraphs.push_back("Rows read " + std::to_string(a.rowsRead) + "; used " + std::to_string(a.rowsUsed) + " ("
+                                 + std::to_string(a.events) + " with the event, " + std::to_string(a.nonEvents)
+                                 + " without); excluded " + std::to_string(a.rowsExcluded()) + ".");
+    ReportTable exclusions{"exclusions", "Rows excluded, by reason", {"Reason", "Column", "Rows"}, {}, {}};
+    for (const auto& tally : a.exclusions)
+        exclusions.rows.push_back({textCell(exclusionReasonText(tally.reason)), textCell(tally.column.empty() ? "-" : tally.column),
+                                   countCell(tally.rows, minimumCell)});
+    if (exclusions.rows.empty())
+        exclusions.rows.push_back({textCell("none"), textCell("-"), {"0", 0.0, false}});
+    exclusions.note = "Each excluded row counts once, under the first reason that applies. Counts below "
+        + std::to_string(minimumCell) + " are suppressed.";
+    section.tables.push_back(exclusions);
+    if (a.join)
+        section.paragraphs.push_back("Scores and outcomes joined on the id: " + std::to_string(a.join->matched) + " matched; "
+                                     + std::to_string(a.join->scoresWithoutOutcome) + " score rows without an outcome; "
+                                     + std::to_string(a.join->outcomesWithoutScore) + " outcome rows without a score row.");
+    return section;
+}
+
+ReportSection settingsSection(const AnalysisSnapshot& s, std::size_t minimumCell)
+{
+    const AnalysisRequest& r = s.request;
+    ReportSection section{"3. Settings", {}, {}, {}};
+    ReportTable t{"settings", "Analysis settings", {"Setting", "Value"}, {}, {}};
+    std::string thresholds;
+    for (double x : r.panel.thresholds) {
+        if (!thresholds.empty())
+            thresholds.append(", ");
+        thresholds.append(fixed(x, 3));
+    }
+    std::string scores;
+    for (const auto& score : r.intake.scoreColumns) {
+        if (!scores.empty())
+            scores.append(", ");
+        scores.append(score);
+    }
+    auto row = [&](const std::string& name, const std::string& value) { t.rows.push_back({textCell(name), textCell(value)}); };
+    row("Outcome column", r.intake.outcomeColumn + " (event = '" + s.audit.eventValue + "')");
+    row("Score columns", scores);
+    row("Score scale", std::string(scaleName(r.intake.scale)));
+    row("Decision thresholds (positive if risk >= t)", thresholds);
+    row("Risk groups", std::to_string(r.panel.riskGroups));
+    row("Confidence level", fixed(r.panel.confidence, 3));
+    row("C statistic interval", r.panel.cStatisticScale == CStatisticScale::Logit ? "DeLong, logit scale" : "DeLong, plain scale");
+    row("Bootstrap replicates", std::to_string(r.bootstrap.replicates));
+    row("Bootstrap seed", std::to_string(r.bootstrap.seed));
+    row("Bootstrap interval", r.bootstrap.replicates > 0 ? std::string(bootstrapCiName(r.bootstrap.method)) : "none (analytic only)");
+    row("Small-cell rule", "counts below " + std::to_string(minimumCell) + " suppressed");
+    row("Software", std::string("Plumbline ") + versionString);
+    section.tables.push_back(t);
+    return section;
+}
+
+ReportSection resultsSection(const AnalysisSnapshot& s, std::size_t minimumCell)
+{
+    const ValidationResult& v = s.validation;
+    ReportSection section{"4. Results", {}, {}, {ReportChart::Roc, ReportChart::Calibration}};
+    section.tables.push_back(metricTable("discrimination", "Discrimination", v, {CStatistic, Auprc, DiscriminationSlope}));
+    section.tables.push_back(metricTable("calibration", "Calibration", v,
+                                         {CalibrationIntercept, CalibrationSlope, RecalibrationIntercept, OeRatio, Ici, E50, E90, Emax}));
+    section.tables.push_back(metricTable("overall_accuracy", "Overall accuracy", v, {Brier, ScaledBrier, LogLoss, NagelkerkeR2}));
+    ReportTable tests{"calibration_tests", "Calibration tests", {"Model", "Test", "Statistic", "df", "p-value"}, {}, {}};
+    for (const auto& m : v.models) {
+        if (m.hosmerLemeshow)
+            tests.rows.push_back({textCell(m.name), textCell("Hosmer-Lemeshow (df = groups: external validation)"),
+                                  numberCell(m.hosmerLemeshow->statistic, 2), {std::to_string(m.hosmerLemeshow->df), double(m.hosmerLemeshow->df), false},
+                                  numberCell(m.hosmerLemeshow->pValue, 4)});
+        if (m.spiegelhalter)
+            tests.rows.push_back({textCell(m.name), textCell("Spiegelhalter z"), numberCell(m.spiegelhalter->z, 3), textCell("-"),
+                                  numberCell(m.spiegelhalter->pValue, 4)});
+        if (m.likelihoodRatio)
+            tests.rows.push_back({textCell(m.name), textCell("Likelihood ratio: intercept 0 and slope 1"),
+                                  numberCell(m.likelihoodRatio->joint.statistic, 2), textCell("2"), numberCell(m.likelihoodRatio->joint.pValue, 4)});
+    }
+    tests.note = "Large cohorts reject clinically unimportant miscalibration: read the risk-group table and the curve.";
+    section.tables.push_back(tests);
+    ReportTable groups{"risk_groups", "Risk groups", {"Model", "Group", "Patients", "Events", "Expected", "Mean predicted", "Observed", "Interval"}, {}, {}};
+    for (const auto& m : v.models)
+        for (const auto& g : m.riskGroups) {
+            const bool small = g.n < minimumCell || g.events < minimumCell || g.n - g.events < minimumCell;
+            groups.rows.push_back({textCell(m.name), {std::to_string(g.group), double(g.group), false}, countCell(g.n, minimumCell),
+                                   countCell(g.events, minimumCell), numberCell(g.expected, 1), numberCell(g.meanPredicted, 4),
+                                   small ? ReportCell{"suppressed", std::nullopt, true} : numberCell(g.observedRate, 4),
+                                   small ? ReportCell{"suppressed", std::nullopt, true} : textCell(fixed(g.ciLower, 4) + " to " + fixed(g.ciUpper, 4))});
+        }
+    groups.note = "Groups of about equal size by predicted risk; equal risks are never split. Counts below "
+        + std::to_string(minimumCell) + " (and proportions built on them) are suppressed.";
+    section.tables.push_back(groups);
+    ReportTable thresholds{"thresholds", "Decision thresholds and net benefit (positive if risk >= threshold)",
+                           {"Model", "Threshold", "TP", "FP", "TN", "FN", "Sensitivity", "Specificity", "PPV", "NPV", "Flagged",
+                            "Net benefit", "Treat all"}, {}, {}};
+    for (const auto& m : v.models)
+        for (const auto& t : m.thresholds)
+            thresholds.rows.push_back({textCell(m.name), numberCell(t.threshold, 3), countCell(t.tp, minimumCell), countCell(t.fp, minimumCell),
+                                       countCell(t.tn, minimumCell), countCell(t.fn, minimumCell), numberCell(t.sensitivity.value, 3),
+                                       numberCell(t.specificity.value, 3), numberCell(t.ppv.value, 3), numberCell(t.npv.value, 3),
+                                       numberCell(t.flagRate.value, 3), numberCell(t.netBenefit, 4), numberCell(t.netBenefitTreatAll, 4)});
+    section.tables.push_back(thresholds);
+    return section;
+}
+
+ReportSection comparisonSection(const AnalysisSnapshot& s, std::size_t minimumCell)
+{
+    ReportSection section{"5. Comparisons and updating", {}, {}, {}};
+    const ValidationResult& v = s.validation;
+    if (v.comparisons.empty() && s.updates.empty()) {
+        section.paragraphs.push_back("Not part of this analysis: one model, not updated.");
+        return section;
+    }
+    ReportTable differences{"comparisons", "Differences between models on the same patients (B - A)",
+                            {"Model A", "Model B", "Difference", "Estimate", "Interval", "Interval from", "p (test)"}, {}, {}};
+    for (const auto& c : v.comparisons) {
+        auto add = [&](const std::string& label, const DifferenceEstimate& d) {
+            differences.rows.push_back({textCell(c.modelA), textCell(c.modelB), textCell(label), numberCell(d.estimate.value, 4),
+                                        textCell(intervalText(d.estimate, 4)), textCell(d.estimate.lower ? ciMethodName(d.estimate.ciMethod) : "-"),
+                                        d.pValue ? numberCell(*d.pValue, 4) : textCell("-")});
+        };
+        for (const auto& d : c.differences)
+            add(d.key, d);
+        for (std::size_t t = 0; t < c.netBenefitDifferences.size(); ++t)
+            add("net_benefit_difference at " + fixed(c.netBenefitThresholds[t], 3), c.netBenefitDifferences[t]);
+        ReportTable reclass{"reclassification", "Reclassification of " + c.modelB + " against " + c.modelA,
+                            {"Outcome", "Category under A", "Category under B", "Patients"}, {}, {}};
+        const auto& r = c.reclassification;
+        auto category = [&](std::size_t k) {
+            const std::string lo = k == 0 ? "0" : fixed(r.cutPoints[k - 1], 3);
+            const std::string hi = k == r.cutPoints.size() ? "1" : fixed(r.cutPoints[k], 3);
+            return "[" + lo + ", " + hi + ")";
+        };
+        for (std::size_t i = 0; i < r.events.size(); ++i)
+            for (std::size_t j = 0; j < r.events.size(); ++j) {
+                reclass.rows.push_back({textCell("event"), textCell(category(i)), textCell(category(j)), countCell(r.events[i][j], minimumCell)});
+                reclass.rows.push_back({textCell("no event"), textCell(category(i)), textCell(category(j)), countCell(r.nonEvents[i][j], minimumCell)});
+            }
+        section.tables.push_back(reclass);
+    }
+    for (const auto& caution : comparisonCautions())
+        section.paragraphs.push_back(caution);
+    if (!differences.rows.empty())
+        section.tables.insert(section.tables.begin(), differences);
+    if (!s.updates.empty()) {
+        ReportTable updating{"updating", "Updating for the local population: apparent and optimism-corrected performance",
+                             {"Model", "Choice", "Formula", "Metric", "Apparent", "Optimism", "Corrected"}, {}, {}};
+        for (const auto& u : s.updates)
+            for (const auto& row : u.optimism)
+                updating.rows.push_back({textCell(u.model), textCell(std::string(updateChoiceName(u.fit.choice))), textCell(u.fit.formula()),
+                                         textCell(row.key), numberCell(row.apparent, 4), numberCell(row.optimism, 4), numberCell(row.corrected, 4)});
+        updating.note = s.updates.front().cautions.front();
+        section.tables.push_back(updating);
+    }
+    return section;
+}
+
+ReportSection methodsSection(const AnalysisSnapshot& s)
+{
+    ReportSection section{"6. Methods", {}, {}, {}};
+    for (std::string_view key : panelKeys) {
+        const MetricDefinition d = metricDefinition(key);
+        section.paragraphs.push_back(metricLabel(key) + ": " + std::string(d.definition) + " Source: " + std::string(d.source) + ".");
+    }
+    section.paragraphs.push_back("Risk-group intervals: Wilson 1927 (or Clopper & Pearson 1934); smoothed calibration curve: loess "
+                                 "(span 0.75, local quadratic, tricube; Cleveland, Grosse & Shyu 1992).");
+    if (s.request.bootstrap.replicates > 0)
+        section.paragraphs.push_back("Bootstrap: " + std::to_string(s.request.bootstrap.replicates) + " nonparametric replicates (seed "
+                                     + std::to_string(s.request.bootstrap.seed) + "), " + std::string(bootstrapCiName(s.request.bootstrap.method))
+                                     + " intervals (Efron 1987); differences between models from paired resamples.");
+    section.paragraphs.push_back("Net benefit: Vickers & Elkin 2006; NRI and IDI: Pencina et al. 2008; model updating: Steyerberg et al. "
+                                 "2004, Vergouwe et al. 2017; optimism correction: Harrell, Lee & Mark 1996.");
+    return section;
+}
+
+ReportSection checklistSection(const AnalysisSnapshot& s)
+{
+    ReportSection section{"7. Reporting checklist (TRIPOD 2015 / TRIPOD+AI 2024, validation items)", {}, {}, {}};
+    ReportTable t{"checklist", "Where this report covers the validation items", {"Topic", "TRIPOD 2015", "TRIPOD+AI 2024", "In this report"}, {}, {}};
+    const bool compared = !s.validation.comparisons.empty();
+    const bool updated = !s.updates.empty();
+    const std::vector<std::array<std::string, 4>> items{{
+        {"Title (validation, population, outcome)", "1", "1", "Section 1 (free text)"},
+        {"Data source and dates", "4a, 4b", "5a, 5b", "Sections 1-2; dates: free text"},
+        {"Participants, eligibility", "5a-5c", "6a-6c", "Section 2: exclusions by reason"},
+        {"Outcome definition and horizon", "6a, 6b", "8a-8c", "Section 1 (free text)"},
+        {"Predictors", "7a, 7b", "9a-9c", "NOT COVERED: describe the model's inputs"},
+        {"Sample size", "8", "10", "Section 2 counts and interval widths; no formal calculation"},
+        {"Missing data", "9", "11", "Section 2: missing outcome and scores excluded and counted"},
+        {"How predictions were calculated", "10c", "12g, 22", "Section 3: score column and scale"},
+        {"Performance measures", "10d", "12e", "Sections 4 and 6"},
+        {"Model updating", "10e", "12f", updated ? "Section 5" : "Not done"},
+        {"Risk groups, thresholds", "11", "15", "Section 4: risk groups and thresholds"},
+        {"Differences from the development data", "12", "16", "NOT COVERED: compare with the development study"},
+        {"Participant flow", "13a", "20a", "Section 2"},
+        {"Participant characteristics", "13b", "20b", "NOT COVERED: describe the cohort"},
+        {"Comparison with development data (case-mix)", "13c", "20c", "NOT COVERED"},
+        {"Performance with intervals", "16", "23a", "Section 4"},
+        {"Performance in subgroups, heterogeneity", "-", "23a, 23b", "NOT COVERED in this version"},
+        {"Updated model performance", "17", "24", updated ? "Section 5 (optimism-corrected)" : "Not done"},
+        {"Comparison of models", "-", "-", compared ? "Section 5" : "One model"},
+        {"Limitations, interpretation", "18, 19", "25, 26", "Section 8 cautions; reviewer's notes"},
+        {"Fairness", "-", "14", "NOT COVERED in this version"},
+        {"Code and settings for reproduction", "21", "18e, 18f", "Section 3; save the analysis file"},
+    }};
+    for (const auto& item : items)
+        t.rows.push_back({textCell(item[0]), textCell(item[1]), textCell(item[2]), textCell(item[3])});
+    t.note = "Item numbers: Collins et al. 2015 (TRIPOD) and Collins et al. 2024 (TRIPOD+AI); numbering beyond items 1-9 "
+             "and 1-6c recalled, check against the published checklists.";
+    section.tables.push_back(t);
+    return section;
+}
+
+} // namespace
+
+std::vector<const ReportTable*> ReportDocument::tables() const
+{
+    std::vector<const ReportTable*> out;
+    for (const auto& section : sections)
+        for (const auto& table : section.tables)
+            out.push_back(&table);
+    return out;
+}
+
+ReportDocument buildReport(const AnalysisSnapshot& s, const ReportFields& fields, std::size_t minimumCell,
+                           const std::string& createdUtc)
+{
+    ReportDocument d;
+    d.title = fields.title.empty() ? "Validation of a risk model on local data" : fields.title;
+    d.subtitle = "Plumbline " + std::string(versionString) + " - " + createdUtc;
+    d.sections.push_back(scopeSection(s, fields, createdUtc));
+    d.sections.push_back(provenanceSection(s, minimumCell));
+    d.sections.push_back(settingsSection(s, minimumCell));
+    d.sections.push_back(resultsSection(s, minimumCell));
+    d.sections.push_back(comparisonSection(s, minimumCell));
+    d.sections.push_back(methodsSection(s));
+    d.sections.push_back(checklistSection(s));
+    ReportSection warnings{"8. Warnings and cautions", {}, {}, {}};
+    for (const auto& w : s.audit.warnings)
+        warnings.paragraphs.push_back("Warning: " + w);
+    for (const auto& w : s.validation.warnings)
+        warnings.paragraphs.push_back("Warning: " + w);
+    for (const auto caution : standardCautions)
+        warnings.paragraphs.push_back("Caution: " + std::string(caution));
+    warnings.paragraphs.push_back("Caution: this report shows aggregates only; counts below " + std::to_string(minimumCell)
+                                  + " are suppressed. Keep patient-level files inside your organisation's controls.");
+    d.sections.push_back(warnings);
+    ReportSection signOff{"9. Reviewer's notes and sign-off", {}, {}, {}};
+    signOff.paragraphs.push_back("Notes: " + (fields.notes.empty() ? std::string("(none)") : fields.notes));
+    signOff.paragraphs.push_back("Reviewed by (name, role): ______________________________");
+    signOff.paragraphs.push_back("Decision and conditions: ______________________________");
+    signOff.paragraphs.push_back("Signature and date: ______________________________");
+    d.sections.push_back(signOff);
+    return d;
+}
+
+std::string neutralisedForSpreadsheet(const std::string& text)
+{
+    if (!text.empty() && (text[0] == '=' || text[0] == '+' || text[0] == '-' || text[0] == '@' || text[0] == '\t' || text[0] == '\r'))
+        return "'" + text;
+    return text;
+}
+
+} // namespace plumbline

@@ -1,0 +1,55 @@
+#pragma once
+
+#include "analysis_file.hpp"
+#include "analysis_snapshot.hpp"
+
+#include <optional>
+#include <string>
+#include <vector>
+
+namespace plumbline {
+
+// A cell of a report table: its text, its number (for spreadsheets), and whether it was
+// suppressed by the small-cell rule.
+struct ReportCell {
+    std::string text;
+    std::optional<double> number;
+    bool suppressed = false;
+};
+
+struct ReportTable {
+    std::string id;    // file-safe name: the CSV file and the spreadsheet's sheet
+    std::string title;
+    std::vector<std::string> headers;
+    std::vector<std::vector<ReportCell>> rows;
+    std::string note;
+};
+
+enum class ReportChart { Roc, Calibration };
+
+struct ReportSection {
+    std::string title;
+    std::vector<std::string> paragraphs;
+    std::vector<ReportTable> tables;
+    std::vector<ReportChart> charts;
+};
+
+// The whole report as content, in a reviewer's order; the PDF, HTML, spreadsheet and CSV
+// writers only lay it out, so every format carries the same numbers. Aggregates only: no row,
+// id or line number of the data appears; counts below `minimumCell` are suppressed.
+struct ReportDocument {
+    std::string title;
+    std::string subtitle;
+    std::vector<ReportSection> sections;
+
+    std::vector<const ReportTable*> tables() const;
+};
+
+ReportDocument buildReport(const AnalysisSnapshot& snapshot, const ReportFields& fields, std::size_t minimumCell,
+                           const std::string& createdUtc);
+
+// A value from the data (a column name, a group label) made safe for a spreadsheet or CSV
+// cell: a leading =, +, - or @ would make it a formula, so it is prefixed with a quote.
+std::string neutralisedForSpreadsheet(const std::string& text);
+
+} // namespace plumbline
