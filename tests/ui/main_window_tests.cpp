@@ -1,3 +1,4 @@
+#include "analysis_file.hpp"
 #include "bootstrap_engine.hpp"
 #include "calibration_chart_view.hpp"
 #include "cohort_simulator.hpp"
@@ -16,6 +17,7 @@
 #include "threshold_summary_model.hpp"
 #include "validation_task.hpp"
 
+#include <QDir>
 #include <QElapsedTimer>
 #include <QFile>
 #include <QImage>
@@ -251,6 +253,35 @@ private slots:
                 QApplication::processEvents();
                 window.grab().save(QStringLiteral("%1/tab-%2.png").arg(qEnvironmentVariable("PLUMBLINE_TEST_SCREENSHOTS")).arg(t));
             }
+        }
+    }
+
+    void theWindowAndTheCommandLineWriteTheSameTablesFromOneAnalysisFile()
+    {
+        QTemporaryDir dir;
+        AnalysisFile analysis;
+        analysis.intake = sampleRequest(30).intake;
+        analysis.bootstrap.replicates = 30;
+        analysis.bootstrap.seed = 5;
+        analysis.report.title = QStringLiteral("Same numbers everywhere").toStdString();
+        const QString file = dir.filePath(QStringLiteral("a.plumbline.json"));
+        QVERIFY(saveAnalysisFile(file.toStdString(), analysis).has_value());
+        QProcess cli;
+        cli.start(QStringLiteral(PLUMBLINE_CLI), {QStringLiteral("validate"), QStringLiteral("--settings"), file,
+                                                  QStringLiteral("--csv-dir"), dir.filePath(QStringLiteral("cli"))});
+        QVERIFY(cli.waitForFinished(120000));
+        QCOMPARE(cli.exitCode(), 0);
+        MainWindow window;
+        QSignalSpy finished(window.task(), &ValidationTask::finished);
+        QVERIFY(window.openAnalysis(file));
+        QVERIFY(finished.wait(120000));
+        QVERIFY(window.exportTables(dir.filePath(QStringLiteral("gui"))));
+        const QStringList tables = QDir(dir.filePath(QStringLiteral("cli"))).entryList({QStringLiteral("*.csv")});
+        QVERIFY(tables.size() >= 10);
+        for (const QString& table : tables) {
+            QFile a(dir.filePath(QStringLiteral("cli/") + table)), b(dir.filePath(QStringLiteral("gui/") + table));
+            QVERIFY(a.open(QIODevice::ReadOnly) && b.open(QIODevice::ReadOnly));
+            QVERIFY2(a.readAll() == b.readAll(), qPrintable(table));
         }
     }
 

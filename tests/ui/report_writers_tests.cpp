@@ -1,0 +1,160 @@
+#include "analysis_snapshot.hpp"
+#include "report_writers.hpp"
+#include "result_json.hpp"
+
+#include <QDir>
+#include <QFile>
+#include <QProcess>
+#include <QRegularExpression>
+#include <QTemporaryDir>
+#include <QTest>
+#include <QXmlStreamReader>
+
+#include <cmath>
+
+using namespace plumbline;
+
+namespace {
+
+// A cohort whose column names try to break the outputs: markup and a spreadsheet formula.
+const std::string hostileScore = "<script>alert(1)</script>";
+const std::string formulaScore = "=HYPERLINK(\"http://example.invalid\")";
+
+SnapshotPointer snapshotOf(std::size_t rows, std::size_t groups)
+{
+    std::string csv = "y," + std::string("\"") + hostileScore + "\",\"=HYPERLINK(\"\"http://example.invalid\"\")\"\n";
+    for (std::size_t i = 0; i < rows; ++i) {
+        const double p = 0.05 + 0.9 * double((i * 37) % 101) / 100.0;
+        const int y = double((i * 53) % 97) / 97.0 < p ? 1 : 0;
+        csv += std::to_string(y) + "," + std::to_string(p) + "," + std::to_string(std::min(0.99, p * 0.8 + 0.05)) + "\n";
+    }
+    IntakeSettings intake;
+    intake.cohortFile = "hostile.csv";
+    intake.outcomeColumn = "y";
+    intake.scoreColumns = {hostileScore, formulaScore};
+    auto result = runIntake(intake, *TextFile::fromBytes("hostile.csv", csv), std::nullopt);
+    auto snapshot = std::make_shared<AnalysisSnapshot>();
+    snapshot->request.intake = intake;
+    snapshot->request.panel.riskGroups = groups;
+    snapshot->validation = runValidation(result->cohort, snapshot->request.panel);
+    snapshot->audit = result->audit;
+    snapshot->inputs = result->inputs;
+    snapshot->cohort = std::make_shared<const Cohort>(std::move(result->cohort));
+    return snapshot;
+}
+
+QByteArray slurp(const QString& path)
+{
+    QFile file(path);
+    file.open(QIODevice::ReadOnly);
+    return file.readAll();
+}
+
+QString pythonOutput(const QString& script, const QStringList& arguments)
+{
+    QProcess python;
+    python.start(QStringLiteral("/usr/bin/python3"), QStringList{QStringLiteral("-c"), script} + arguments);
+    python.waitForFinished(30000);
+    return QString::fromUtf8(python.readAllStandardOutput()).trimmed();
+}
+
+} // namespace
+
+class ReportWritersTests : public QObject {
+    Q_OBJECT
+private slots:
+    void htmlIsWellFormedSelfContainedAndEscaped()
+    {
+        const SnapshotPointer snapshot = snapshotOf(600, 10);
+        ReportFields fields;
+        fields.notes = "Group label <script>x</script> & friends";
+        const ReportDocument document = buildReport(*snapshot, fields, 11, "2026-01-01T00:00:00Z");
+        ReportCharts charts(snapshot);
+        QTemporaryDir dir;
+        const QString path = dir.filePath(QStringLiteral("r.html"));
+        QVERIFY(writeReport(document, charts, path.toStdString()).has_value());
+        const QByteArray html = slurp(path);
+        QVERIFY(!html.contains("<script"));
+        QVERIFY(html.contains("&lt;script&gt;alert(1)&lt;/script&gt;"));
+        QVERIFY(html.contains("<svg"));
+        QVERIFY(!QString::fromUtf8(html).contains(QRegularExpression(QStringLiteral("(src|href)\\s*=\\s*\"(https?:|//|file:)"))));
+        // It parses as XML (every element closed, every text escaped).
+        QXmlStreamReader xml(html.mid(html.indexOf("<html")));
+        while (!xml.atEnd())
+            xml.readNext();
+        QVERIFY2(!xml.hasError(), qPrintable(xml.errorString()));
+    }
+
+    void csvAndXlsxNeutraliseFormulasAndSuppressSmallCells()
+    {
+        const SnapshotPointer snapshot = snapshotOf(100, 10); // ten patients a group: below 11
+        const ReportDocument document = buildReport(*snapshot, {}, 11, "2026-01-01T00:00:00Z");
+        QTemporaryDir dir;
+        QVERIFY(writeCsvTables(document, dir.filePath(QStringLiteral("csv")).toStdString()).has_value());
+        const QString discrimination = QString::fromUtf8(slurp(dir.filePath(QStringLiteral("csv/discrimination.csv"))));
+        QVERIFY(discrimination.contains(QStringLiteral("\"'=HYPERLINK(\"\"http://example.invalid\"\")\"")));
+        for (const QString& line : discrimination.split(QLatin1Char('\n')))
+            QVERIFY(!line.startsWith(QLatin1Char('=')) && !line.contains(QStringLiteral(",=")));
+        const QString groups = QString::fromUtf8(slurp(dir.filePath(QStringLiteral("csv/risk_groups.csv"))));
+        QVERIFY(groups.contains(QStringLiteral("<11")));
+        QVERIFY(groups.contains(QStringLiteral("suppressed")));
+        const QString workbook = dir.filePath(QStringLiteral("r.xlsx"));
+        QVERIFY(writeXlsxReport(document, workbook.toStdString()).has_value());
+        const QString check = QStringLiteral(
+            "import sys, zipfile\n"
+            "z = zipfile.ZipFile(sys.argv[1])\n"
+            "strings = z.read('xl/sharedStrings.xml').decode()\n"
+            "sheets = [n for n in z.namelist() if n.startswith('xl/worksheets/sheet')]\n"
+            "formulas = sum(z.read(n).decode().count('<f>') for n in sheets)\n"
+            "print(len(sheets), formulas, \"'=HYPERLINK\" in strings, '>=HYPERLINK' in strings)\n");
+        QCOMPARE(pythonOutput(check, {workbook}), QStringLiteral("%1 0 True False").arg(document.tables().size()));
+    }
+
+    void pdfHoldsEverySectionAndTheKeyNumbers()
+    {
+        const SnapshotPointer snapshot = snapshotOf(600, 10);
+        const ReportDocument document = buildReport(*snapshot, {}, 11, "2026-01-01T00:00:00Z");
+        ReportCharts charts(snapshot);
+        QTemporaryDir dir;
+        const QString path = dir.filePath(QStringLiteral("r.pdf"));
+        QVERIFY(writeReport(document, charts, path.toStdString()).has_value());
+        QProcess text;
+        text.start(QStringLiteral("pdftotext"), {QStringLiteral("-layout"), path, QStringLiteral("-")});
+        QVERIFY(text.waitForFinished(30000));
+        // Whitespace collapsed (a long title may wrap) and typographic ligatures (the font draws
+        // "ff" as one glyph, which pdftotext reports as U+FB00) spelled out.
+        QString content = QString::fromUtf8(text.readAllStandardOutput()).simplified();
+        content.replace(QChar(0xFB00), QStringLiteral("ff")).replace(QChar(0xFB01), QStringLiteral("fi")).replace(QChar(0xFB02), QStringLiteral("fl"));
+        for (const auto& section : document.sections)
+            QVERIFY2(content.contains(QString::fromStdString(section.title).simplified()), section.title.c_str());
+        for (const auto& model : snapshot->validation.models) {
+            const double c = *model.metrics[CStatistic].estimate.value;
+            QVERIFY(content.contains(QString::number(c, 'f', 3)));
+            QVERIFY(content.contains(QString::number(*model.metrics[CalibrationSlope].estimate.value, 'f', 3)));
+        }
+        QVERIFY(content.contains(QStringLiteral("page 1")));
+        QVERIFY(content.contains(QStringLiteral("Reviewed by")));
+    }
+
+    void aFailedWriteLeavesNoPartialFile()
+    {
+        const SnapshotPointer snapshot = snapshotOf(300, 10);
+        const ReportDocument document = buildReport(*snapshot, {}, 11, "2026-01-01T00:00:00Z");
+        ReportCharts charts(snapshot);
+        QTemporaryDir dir;
+        // The target is a folder: each writer gets its bytes down under a temporary name, then
+        // the rename fails; nothing is left behind and the folder is untouched.
+        const QString target = dir.filePath(QStringLiteral("report.pdf"));
+        QVERIFY(QDir().mkpath(target));
+        QVERIFY(!writeReport(document, charts, target.toStdString()).has_value());
+        const QString workbook = dir.filePath(QStringLiteral("report.xlsx"));
+        QVERIFY(QDir().mkpath(workbook));
+        QVERIFY(!writeXlsxReport(document, workbook.toStdString()).has_value());
+        QCOMPARE(QDir(dir.path()).entryList(QDir::NoDotAndDotDot | QDir::AllEntries).size(), 2);
+        QVERIFY(QDir(target).isEmpty());
+        QVERIFY(!writeReport(document, charts, dir.filePath(QStringLiteral("report.docx")).toStdString()).has_value());
+    }
+};
+
+QTEST_MAIN(ReportWritersTests)
+#include "report_writers_tests.moc"
