@@ -29,6 +29,7 @@ struct ValidateOptions {
     std::string reportFile;
     std::string xlsxFile;
     std::string csvFolder;
+    std::string chartFolder;
 };
 
 nlohmann::ordered_json resultJson(const AnalysisSnapshot& s)
@@ -58,7 +59,8 @@ nlohmann::ordered_json resultJson(const AnalysisSnapshot& s)
 // offscreen, so it never needs a display.
 int writeReports(const ValidateOptions& options, const AnalysisFile& analysis, const std::shared_ptr<const AnalysisSnapshot>& snapshot)
 {
-    const bool anyReport = !options.reportFile.empty() || !options.xlsxFile.empty() || !options.csvFolder.empty();
+    const bool anyReport = !options.reportFile.empty() || !options.xlsxFile.empty() || !options.csvFolder.empty()
+        || !options.chartFolder.empty();
     if (!anyReport)
         return Done;
     const ReportDocument document = buildReport(*snapshot, analysis.report, analysis.minimumCell, utcTimestamp());
@@ -72,7 +74,7 @@ int writeReports(const ValidateOptions& options, const AnalysisFile& analysis, c
             return reportError(written.error());
         std::cout << "Workbook: " << options.xlsxFile << '\n';
     }
-    if (!options.reportFile.empty()) {
+    if (!options.reportFile.empty() || !options.chartFolder.empty()) {
         static int argc = 1;
         static char name[] = "plumbline-cli";
         static char* argv[] = {name, nullptr};
@@ -82,9 +84,22 @@ int writeReports(const ValidateOptions& options, const AnalysisFile& analysis, c
         if (!QApplication::instance())
             application = std::make_unique<QApplication>(argc, argv);
         ReportCharts charts(snapshot);
-        if (auto written = writeReport(document, charts, options.reportFile); !written)
-            return reportError(written.error());
-        std::cout << "Report: " << options.reportFile << '\n';
+        if (!options.reportFile.empty()) {
+            if (auto written = writeReport(document, charts, options.reportFile); !written)
+                return reportError(written.error());
+            std::cout << "Report: " << options.reportFile << '\n';
+        }
+        if (!options.chartFolder.empty()) {
+            QString error;
+            if (!charts.exportAll(QString::fromStdString(options.chartFolder), &error)) {
+                InputError e;
+                e.file = options.chartFolder;
+                e.problem = "the charts could not be written (" + error.toStdString() + ").";
+                e.remedy = "choose a folder you may write to.";
+                return reportError(e);
+            }
+            std::cout << "Charts (PNG and SVG): " << options.chartFolder << '\n';
+        }
     }
     return Done;
 }
@@ -141,6 +156,7 @@ void addValidateCommand(CLI::App& app, int& exitStatus)
     command->add_option("--report", options->reportFile, "Write the validation report (.pdf or .html)");
     command->add_option("--xlsx", options->xlsxFile, "Write every table of the report to a workbook");
     command->add_option("--csv-dir", options->csvFolder, "Write every table of the report as CSV into this folder");
+    command->add_option("--chart-dir", options->chartFolder, "Write the ROC and calibration charts as PNG and SVG into this folder");
     command->callback([options, command, &exitStatus] { exitStatus = runValidate(*options, *command); });
 }
 

@@ -3,6 +3,10 @@
 #include "calibration_chart_view.hpp"
 #include "roc_chart_view.hpp"
 
+#include <QDir>
+
+#include <utility>
+
 namespace plumbline {
 
 ReportCharts::ReportCharts(const SnapshotPointer& snapshot)
@@ -28,6 +32,22 @@ void ReportCharts::draw(ReportChart chart, QPainter* painter, const QRectF& targ
 QByteArray ReportCharts::svg(ReportChart chart)
 {
     return (chart == ReportChart::Roc ? static_cast<ExportableChartView*>(m_roc.get()) : m_calibration.get())->svg(logicalSize());
+}
+
+bool ReportCharts::exportAll(const QString& folder, QString* error)
+{
+    if (!QDir().mkpath(folder)) {
+        if (error)
+            *error = QStringLiteral("the folder %1 cannot be created").arg(folder);
+        return false;
+    }
+    const QSize size(900, 700);
+    for (const auto& [view, name] : {std::pair<ExportableChartView*, QString>{m_roc.get(), QStringLiteral("roc")},
+                                     std::pair<ExportableChartView*, QString>{m_calibration.get(), QStringLiteral("calibration")}})
+        for (const QString suffix : {QStringLiteral(".png"), QStringLiteral(".svg")})
+            if (!view->exportTo(QDir(folder).filePath(name + suffix), size, error))
+                return false;
+    return true;
 }
 
 } // namespace plumbline

@@ -5,6 +5,7 @@
 
 #include <QByteArray>
 #include <QRectF>
+#include <QString>
 #include <QSize>
 
 #include <memory>
@@ -26,6 +27,8 @@ public:
     static QSize logicalSize() { return {540, 420}; } // small, so its text reads well when scaled to half a page
     void draw(ReportChart chart, QPainter* painter, const QRectF& target);
     QByteArray svg(ReportChart chart);
+    // roc.png, roc.svg, calibration.png, calibration.svg into a folder (created if needed).
+    bool exportAll(const QString& folder, QString* error);
 
 private:
     std::unique_ptr<RocChartView> m_roc;

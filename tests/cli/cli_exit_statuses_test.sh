@@ -88,6 +88,12 @@ for path in sys.argv[1:3]:
     assert "NaN" not in open(path).read()
 print("ok: points and flat scores give nulls with reasons")
 PY
+# Charts as PNG and SVG, tables, workbook and report in one run.
+expect 0 "" -- "$cli" validate "$sample" --outcome readmitted_30d --score local_score --bootstrap 0 --chart-dir "$work/charts" --report "$work/r.html"
+for f in roc.png roc.svg calibration.png calibration.svg; do
+  [[ -s "$work/charts/$f" ]] && echo "ok: chart $f written" || { echo "FAIL: chart $f missing"; failures=$((failures+1)); }
+done
+expect 2 "pdf" -- "$cli" validate "$sample" --outcome readmitted_30d --score local_score --bootstrap 0 --report "$work/r.docx"
 # Impossible analyses: exit 3.
 printf 'y,p\n0,0.2\n0,0.3\n' > "$work/oneclass.csv"
 expect 3 "both patients with and without the event" -- "$cli" validate "$work/oneclass.csv" --outcome y --score p
