@@ -79,6 +79,9 @@ std::expected<void, InputError> saveAnalysisFile(const std::string& path, const 
                        {"risk_groups", a.panel.riskGroups},
                        {"thresholds", a.panel.thresholds},
                        {"nri_cuts", a.panel.nriCutPoints},
+                       {"decision_range", {a.panel.decisionFrom, a.panel.decisionTo, a.panel.decisionStep}},
+                       {"period_unit", a.panel.periodUnit == PeriodUnit::Quarter ? "quarter" : "month"},
+                       {"date_format", !a.panel.dateFormat ? "iso" : *a.panel.dateFormat == DateFormat::DayFirst ? "dmy" : "mdy"},
                        {"c_statistic_interval", a.panel.cStatisticScale == CStatisticScale::Logit ? "logit" : "plain"},
                        {"binomial_interval", a.panel.binomialInterval == CiMethod::ClopperPearson ? "clopper-pearson" : "wilson"},
                        {"bootstrap", a.bootstrap.replicates},
@@ -150,6 +153,18 @@ std::expected<AnalysisFile, InputError> loadAnalysisFile(const std::string& path
         a.panel.riskGroups = o.value("risk_groups", std::size_t{10});
         a.panel.thresholds = o.value("thresholds", a.panel.thresholds);
         a.panel.nriCutPoints = o.value("nri_cuts", std::vector<double>{});
+        const auto range = o.value("decision_range", std::vector<double>{0.05, 0.50, 0.01});
+        if (range.size() == 3) {
+            a.panel.decisionFrom = range[0];
+            a.panel.decisionTo = range[1];
+            a.panel.decisionStep = range[2];
+        }
+        a.panel.periodUnit = o.value("period_unit", std::string("month")) == "quarter" ? PeriodUnit::Quarter : PeriodUnit::Month;
+        const std::string dates = o.value("date_format", std::string("iso"));
+        if (dates == "dmy")
+            a.panel.dateFormat = DateFormat::DayFirst;
+        else if (dates == "mdy")
+            a.panel.dateFormat = DateFormat::MonthFirst;
         a.panel.cStatisticScale = o.value("c_statistic_interval", std::string("logit")) == "plain" ? CStatisticScale::Plain : CStatisticScale::Logit;
         a.panel.binomialInterval = o.value("binomial_interval", std::string("wilson")) == "clopper-pearson" ? CiMethod::ClopperPearson : CiMethod::Wilson;
         a.bootstrap.replicates = o.value("bootstrap", std::size_t{1000});
@@ -158,6 +173,7 @@ std::expected<AnalysisFile, InputError> loadAnalysisFile(const std::string& path
         a.bootstrap.stratified = o.value("stratified_bootstrap", false);
         a.addUpdated = o.value("add_updated", std::string());
         a.minimumCell = o.value("minimum_cell", std::size_t{11});
+        a.panel.minimumCell = a.minimumCell;
         if (json.contains("report")) {
             const Json& t = json.at("report");
             a.report = {t.value("title", std::string()), t.value("model", std::string()), t.value("outcome", std::string()),

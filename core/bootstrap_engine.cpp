@@ -1,5 +1,6 @@
 #include "bootstrap_engine.hpp"
 
+#include "decision_curve.hpp"
 #include "logistic_recalibration.hpp"
 #include "metric_reading.hpp"
 #include "panel_acceleration.hpp"
@@ -43,6 +44,8 @@ struct Shared {
     std::vector<double> thresholds;
     std::vector<PairMoves> pairs;
     std::vector<std::vector<std::vector<double>>> netBenefit;
+    std::vector<double> decisionThresholds;
+    std::vector<std::vector<std::vector<double>>> decision; // [model][threshold][replicate]
     std::vector<std::array<std::vector<double>, 4>> pairValues;
 };
 
@@ -115,6 +118,9 @@ bool runReplicate(Shared& shared, std::size_t r, std::vector<std::uint16_t>& cou
             const auto nb = netBenefitAt(model.support, supportCounts, shared.thresholds);
             for (std::size_t j = 0; j < nb.size(); ++j)
                 shared.netBenefit[m][j][r] = nb[j];
+            const auto curve = netBenefitAt(model.support, supportCounts, shared.decisionThresholds);
+            for (std::size_t j = 0; j < curve.size(); ++j)
+                shared.decision[m][j][r] = curve[j];
         }
     }
     for (std::size_t p = 0; p < shared.pairs.size(); ++p) {
@@ -222,6 +228,7 @@ ModelBootstrap summariseModel(const Shared& shared, const Cohort& cohort, std::s
         curveX.push_back(point.predicted);
     out.calibrationBand = band(shared.curves[m], curveX, confidence);
     out.rocBand = band(shared.rocs[m], shared.rocRates, confidence);
+    out.decisionBand = band(shared.decision[m], shared.decisionThresholds, confidence);
     return out;
 }
 
@@ -298,6 +305,8 @@ std::optional<BootstrapResult> runBootstrap(const Cohort& cohort, const Validati
     }
     shared.redraws.assign(B, 0);
     shared.thresholds = full.settings.thresholds;
+    shared.decisionThresholds = decisionGrid(full.settings.decisionFrom, full.settings.decisionTo, full.settings.decisionStep);
+    shared.decision.assign(cohort.models.size(), std::vector<std::vector<double>>(shared.decisionThresholds.size(), std::vector<double>(B, undefinedValue)));
     shared.netBenefit.assign(cohort.models.size(), std::vector<std::vector<double>>(shared.thresholds.size(), std::vector<double>(B, undefinedValue)));
     if (scaleIsProbabilistic(cohort.scale))
         for (const auto& comparison : full.comparisons) {
@@ -378,6 +387,13 @@ void applyBootstrap(ValidationResult& result, const BootstrapResult& bootstrap)
         ModelValidation& model = result.models[m];
         model.calibrationBand = bootstrap.models[m].calibrationBand;
         model.rocBand = bootstrap.models[m].rocBand;
+        const CurveBand& decision = bootstrap.models[m].decisionBand;
+        for (auto& point : model.decisionCurve)
+            for (std::size_t j = 0; j < decision.x.size(); ++j)
+                if (decision.x[j] == point.threshold) {
+                    point.lower = decision.lower[j];
+                    point.upper = decision.upper[j];
+                }
         for (std::size_t k = 0; k < PanelMetricCount; ++k) {
             const auto& b = bootstrap.models[m].metrics[k];
             MetricEntry& entry = model.metrics[k];

@@ -31,6 +31,7 @@ struct ModelBootstrap {
     std::array<std::optional<MetricBootstrap>, PanelMetricCount> metrics;
     CurveBand calibrationBand; // at the full-sample smoothed curve's predicted risks
     CurveBand rocBand;         // sensitivity at fixed false-positive rates
+    CurveBand decisionBand;    // net benefit over the decision curve's thresholds
 };
 
 struct BootstrapResult {

@@ -4,6 +4,7 @@
 
 #include <cstddef>
 #include <cstdint>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -29,6 +30,7 @@ struct Cohort {
     ScoreScale scale = ScoreScale::Probability;
     std::vector<std::string> ids;             // filled only when an id column was given
     std::vector<CategoricalColumn> groups;
+    std::optional<CategoricalColumn> period;  // the raw date texts, dictionary-coded
     std::vector<std::uint32_t> sourceLines;   // line of each row in the cohort file
 
     std::size_t rows() const { return outcome.size(); }

@@ -95,11 +95,18 @@ std::expected<IntakeResult, InputError> runIntake(const IntakeSettings& settings
     return runIntake(settings, std::move(*cohortFile), std::move(outcomesFile));
 }
 
-std::expected<IntakeResult, InputError> runIntake(const IntakeSettings& settings, TextFile cohortFile,
+std::expected<IntakeResult, InputError> runIntake(const IntakeSettings& asked, TextFile cohortFile,
                                                   std::optional<TextFile> outcomesFile)
 {
-    if (auto ok = checkSettings(settings); !ok)
+    if (auto ok = checkSettings(asked); !ok)
         return std::unexpected(ok.error());
+    // The period column is read like a group column (its date texts dictionary-coded) and moved
+    // to the cohort's period afterwards.
+    IntakeSettings settings = asked;
+    const bool periodAlsoGroup = asked.periodColumn
+        && std::find(asked.groupColumns.begin(), asked.groupColumns.end(), *asked.periodColumn) != asked.groupColumns.end();
+    if (asked.periodColumn && !periodAlsoGroup)
+        settings.groupColumns.push_back(*asked.periodColumn);
     auto cohortTable = DelimitedTable::open(std::move(cohortFile), settings.delimiter);
     if (!cohortTable)
         return std::unexpected(cohortTable.error());
@@ -147,6 +154,13 @@ std::expected<IntakeResult, InputError> runIntake(const IntakeSettings& settings
     if (auto enough = checkEnoughRows(audit, settings); !enough)
         return std::unexpected(enough.error());
     result.cohort = std::move(*cohort);
+    if (asked.periodColumn) {
+        auto& groups = result.cohort.groups;
+        const auto it = std::find_if(groups.begin(), groups.end(), [&](const CategoricalColumn& c) { return c.name == *asked.periodColumn; });
+        result.cohort.period = *it;
+        if (!periodAlsoGroup)
+            groups.erase(it);
+    }
     result.inputs.push_back({"cohort", settings.cohortFile, cohortHash.get(), audit.rowsRead});
     if (outcomesTable)
         result.inputs.push_back({"outcomes", *settings.outcomesFile, outcomesHash, audit.join->outcomeRows});

@@ -100,6 +100,9 @@ public:
     void thresholds()
     {
         m_result.operatingPoints = operatingPoints(m_y, m_p, m_order, 0.005);
+        const ModelSupport support = buildModelSupport(m_p, m_order, true);
+        m_result.decisionCurve = decisionCurve(support, sampleCounts(support, m_y),
+                                               decisionGrid(m_settings.decisionFrom, m_settings.decisionTo, m_settings.decisionStep));
         m_result.riskDistribution = riskHistogram(m_y, m_p, 50);
         m_result.thresholds = thresholdMetrics(m_y, m_p, m_order, m_settings.thresholds, m_settings.confidence,
                                                m_settings.binomialInterval);

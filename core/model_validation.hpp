@@ -5,6 +5,7 @@
 #include "cohort.hpp"
 #include "discrimination.hpp"
 #include "estimate.hpp"
+#include "decision_curve.hpp"
 #include "metric_bootstrap.hpp"
 #include "operating_points.hpp"
 #include "panel_settings.hpp"
@@ -47,6 +48,7 @@ struct ModelValidation {
     std::string calibrationCurveMethod; // "direct", "binned" or empty when no curve
     std::vector<ThresholdMetrics> thresholds;
     std::vector<OperatingPoint> operatingPoints; // every 0.005 of risk, for a threshold slider
+    std::vector<DecisionCurvePoint> decisionCurve; // net benefit over the decision range
     RiskHistogram riskDistribution;               // 50 bins over 0-1, by outcome class
     CurveBand calibrationBand; // empty without a bootstrap
     CurveBand rocBand;

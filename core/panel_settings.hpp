@@ -2,8 +2,10 @@
 
 #include "discrimination.hpp"
 #include "estimate.hpp"
+#include "period_analysis.hpp"
 
 #include <cstddef>
+#include <optional>
 #include <vector>
 
 namespace plumbline {
@@ -18,6 +20,10 @@ struct PanelSettings {
     std::size_t rocPoints = 1000;                  // ROC points written out (C uses all data)
     std::size_t calibrationCurvePoints = 200;      // smoothed-curve points written out
     std::vector<double> nriCutPoints;              // risk categories for the NRI; empty: the thresholds
+    double decisionFrom = 0.05, decisionTo = 0.50, decisionStep = 0.01; // the decision curve's thresholds
+    std::size_t minimumCell = 11;                  // subgroup levels below this are flagged too small
+    PeriodUnit periodUnit = PeriodUnit::Month;
+    std::optional<DateFormat> dateFormat;          // nullopt: ISO dates only; ambiguous ones refused
 
     const std::vector<double>& cutPoints() const { return nriCutPoints.empty() ? thresholds : nriCutPoints; }
 };

@@ -1,5 +1,7 @@
 #include "validation.hpp"
 
+#include "panel_keys.hpp"
+
 #include <algorithm>
 #include <exception>
 #include <thread>
@@ -59,7 +61,21 @@ ValidationResult runValidation(const Cohort& cohort, const PanelSettings& settin
         if (failure)
             std::rethrow_exception(failure);
     result.comparisons = compareModels(cohort, result, settings, settings.cutPoints());
+    if (!cohort.groups.empty())
+        result.subgroups = analyseSubgroups(cohort, settings, settings.minimumCell);
+    if (cohort.period)
+        if (auto periods = analysePeriods(cohort, *cohort.period, settings.dateFormat, settings.periodUnit, settings.confidence))
+            result.periods = std::move(*periods);
+    // Achieved precision beside the widths commonly aimed at (Riley et al. 2021 examples; from memory).
+    for (const auto& model : result.models)
+        for (const auto& [metric, target] : {std::pair<PanelMetric, double>{CStatistic, 0.1}, {OeRatio, 0.2}, {CalibrationSlope, 0.2}}) {
+            const Estimate& e = model.metrics[metric].estimate;
+            if (e.lower && e.upper)
+                result.precision.push_back({model.name, std::string(panelKeys[metric]), *e.upper - *e.lower, target});
+        }
     result.warnings = cohortWarnings(cohort);
+    if (result.periods)
+        result.warnings.insert(result.warnings.end(), result.periods->warnings.begin(), result.periods->warnings.end());
     for (const auto& model : result.models)
         result.warnings.insert(result.warnings.end(), model.warnings.begin(), model.warnings.end());
     return result;

@@ -3,6 +3,7 @@
 #include "cohort.hpp"
 #include "model_comparison.hpp"
 #include "model_validation.hpp"
+#include "subgroup_analysis.hpp"
 #include "panel_settings.hpp"
 
 #include <optional>
@@ -18,6 +19,13 @@ struct ValidationResult {
     std::vector<ModelComparison> comparisons; // every pair, model_b − model_a
     std::vector<std::string> warnings; // cohort-level, then each model's
     std::optional<BootstrapSummary> bootstrap; // empty when intervals are analytic only
+    std::optional<SubgroupAnalysis> subgroups; // when the cohort has group columns
+    std::optional<PeriodAnalysis> periods;     // when the cohort has a period column
+    struct PrecisionRow {
+        std::string model, metric;
+        double width = 0.0, target = 0.0; // achieved interval width against a common target
+    };
+    std::vector<PrecisionRow> precision;
 
     const ModelValidation* model(const std::string& name) const;
 };

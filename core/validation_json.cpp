@@ -137,6 +137,12 @@ Json modelJson(const ModelValidation& m)
     model["roc_band"] = rocBand;
     model["calibration_curve_method"] = m.calibrationCurveMethod.empty() ? Json(nullptr) : Json(m.calibrationCurveMethod);
     model["thresholds"] = thresholdsJson(m);
+    Json netBenefit = Json::array();
+    for (const auto& p : m.decisionCurve)
+        netBenefit.push_back({{"threshold", p.threshold}, {"model", p.netBenefit}, {"treat_all", p.treatAll}, {"treat_none", 0.0},
+                              {"standardized", p.standardized}, {"net_reduction_per_100", p.netReductionPer100},
+                              {"ci_lower", numberOrNull(p.lower)}, {"ci_upper", numberOrNull(p.upper)}});
+    model["net_benefit"] = netBenefit;
     return model;
 }
 
@@ -187,6 +193,52 @@ Json comparisonsJson(const ValidationResult& result)
                        {"cautions", cautions}});
     }
     return out;
+}
+
+void addUsefulnessFairnessDriftJson(Json& json, const ValidationResult& result)
+{
+    if (result.subgroups) {
+        Json subgroups = Json::array();
+        for (const auto& r : result.subgroups->results) {
+            Json metrics = Json::object();
+            for (const auto& entry : r.panel.metrics)
+                metrics[entry.key] = estimateJson(entry.estimate);
+            subgroups.push_back({{"column", r.column}, {"level", r.level}, {"model", r.model}, {"n", r.n}, {"events", r.events},
+                                 {"too_small", r.tooSmall}, {"metrics", metrics}});
+        }
+        json["subgroups"] = subgroups;
+        Json heterogeneity = Json::array();
+        for (const auto& h : result.subgroups->heterogeneity)
+            heterogeneity.push_back({{"column", h.column}, {"model", h.model}, {"metric", h.metric}, {"test", "Cochran Q (inverse-variance)"},
+                                     {"q", h.q}, {"df", h.df}, {"levels", h.levels}, {"p_value", h.df > 0 ? Json(h.pValue) : Json(nullptr)}});
+        json["heterogeneity"] = heterogeneity;
+        Json funnel = Json::array();
+        for (const auto& f : result.subgroups->funnel)
+            funnel.push_back({{"column", f.column}, {"level", f.level}, {"model", f.model}, {"observed", f.observed}, {"expected", f.expected},
+                              {"oe_ratio", f.oe}, {"limits_95", {f.lower95, f.upper95}}, {"limits_99_8", {f.lower998, f.upper998}}});
+        json["funnel"] = funnel;
+    } else {
+        json["subgroups"] = Json::array();
+    }
+    if (result.periods) {
+        Json periods = Json::array();
+        for (const auto& p : result.periods->results)
+            periods.push_back({{"period", p.period}, {"model", p.model}, {"n", p.n}, {"events", p.events},
+                               {"metrics", {{"c_statistic", estimateJson(p.c)}, {"oe_ratio", estimateJson(p.oe)},
+                                            {"calibration_intercept", estimateJson(p.calibrationIntercept)}}},
+                               {"outside_first_year", p.outsideFirstYear}});
+        json["periods"] = periods;
+        json["period_reference"] = {{"first_year", result.periods->firstYearPeriods}, {"undated_rows", result.periods->undated},
+                                    {"unit", result.periods->unit == PeriodUnit::Month ? "month" : "quarter"},
+                                    {"note", result.periods->note}};
+    } else {
+        json["periods"] = Json::array();
+    }
+    Json precision = Json::array();
+    for (const auto& p : result.precision)
+        precision.push_back({{"model", p.model}, {"metric", p.metric}, {"interval_width", p.width}, {"common_target", p.target},
+                             {"meets_target", p.width <= p.target}});
+    json["precision"] = precision;
 }
 
 Json numberOrNull(const std::optional<double>& value)

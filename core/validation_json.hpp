@@ -16,6 +16,9 @@ nlohmann::ordered_json bootstrapJson(const ValidationResult& result);
 // net benefit differences by threshold, the reclassification table and the cautions.
 nlohmann::ordered_json comparisonsJson(const ValidationResult& result);
 
+// The subgroup, heterogeneity, funnel, period and precision blocks (null when not part of the run).
+void addUsefulnessFairnessDriftJson(nlohmann::ordered_json& json, const ValidationResult& result);
+
 // A number or null: undefined values are written as null, never as NaN.
 nlohmann::ordered_json numberOrNull(const std::optional<double>& value);
 

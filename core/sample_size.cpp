@@ -1,0 +1,152 @@
+#include "sample_size.hpp"
+
+#include "distributions.hpp"
+
+#include <cmath>
+#include <cstdio>
+#include <vector>
+
+namespace plumbline {
+
+namespace {
+
+constexpr int gridPoints = 4001;
+
+double expit(double x)
+{
+    return 1.0 / (1.0 + std::exp(-x));
+}
+
+// The LP distribution on a fine grid: points and normalised weights.
+struct Grid {
+    std::vector<double> x, w;
+};
+
+Grid grid(double mu, double sigma)
+{
+    Grid g;
+    const double span = 9.0 * sigma;
+    double total = 0.0;
+    for (int i = 0; i < gridPoints; ++i) {
+        const double x = mu - span + 2.0 * span * i / (gridPoints - 1);
+        const double z = (x - mu) / sigma;
+        g.x.push_back(x);
+        g.w.push_back(std::exp(-0.5 * z * z));
+        total += g.w.back();
+    }
+    for (double& w : g.w)
+        w /= total;
+    return g;
+}
+
+double meanRisk(double mu, double sigma)
+{
+    const Grid g = grid(mu, sigma);
+    double m = 0.0;
+    for (int i = 0; i < gridPoints; ++i)
+        m += g.w[i] * expit(g.x[i]);
+    return m;
+}
+
+// C of the LP for outcomes drawn from it: P(x_event > x_non-event), ties (none on a grid) half.
+double cOf(double mu, double sigma)
+{
+    const Grid g = grid(mu, sigma);
+    double events = 0.0, nonEvents = 0.0, below = 0.0, numerator = 0.0;
+    for (int i = 0; i < gridPoints; ++i) {
+        const double e = g.w[i] * expit(g.x[i]), n = g.w[i] * (1.0 - expit(g.x[i]));
+        numerator += e * (below + 0.5 * n);
+        below += n;
+        events += e;
+        nonEvents += n;
+    }
+    return numerator / (events * nonEvents);
+}
+
+double solveMu(double prevalence, double sigma)
+{
+    double lo = -20.0, hi = 20.0;
+    for (int k = 0; k < 200; ++k) {
+        const double mid = 0.5 * (lo + hi);
+        (meanRisk(mid, sigma) < prevalence ? lo : hi) = mid;
+    }
+    return 0.5 * (lo + hi);
+}
+
+std::string label(const char* format, double value)
+{
+    char buffer[64];
+    std::snprintf(buffer, sizeof buffer, format, value);
+    return buffer;
+}
+
+} // namespace
+
+std::optional<SampleSizePlan> planSampleSize(double phi, double c, const SampleSizeTargets& targets)
+{
+    if (!(phi > 0.0 && phi < 1.0) || !(c > 0.5 && c < 1.0))
+        return std::nullopt;
+    SampleSizePlan plan;
+    // σ by bisection on C (C rises with σ), μ for each σ from the prevalence.
+    double lo = 1e-3, hi = 10.0;
+    for (int k = 0; k < 100; ++k) {
+        const double mid = 0.5 * (lo + hi);
+        (cOf(solveMu(phi, mid), mid) < c ? lo : hi) = mid;
+    }
+    plan.sigma = 0.5 * (lo + hi);
+    plan.mu = solveMu(phi, plan.sigma);
+    const double z = zForConfidence(targets.confidence);
+    auto add = [&](std::string name, double se, double n) {
+        const auto patients = static_cast<std::size_t>(std::ceil(n - 1e-9));
+        plan.criteria.push_back({std::move(name), se, patients, double(patients) * phi});
+    };
+    // 1. O/E: SE(ln O/E) = sqrt((1 − φ)/(Nφ)); a width w around 1 means SE = asinh(w/2)/z.
+    const double seOe = std::asinh(targets.oeWidth / 2.0) / z;
+    add("O/E", seOe, (1.0 - phi) / (phi * seOe * seOe));
+    // 2. Slope: N = I_α / (SE² (I_α I_β − I_αβ²)) with the information over the LP distribution.
+    const Grid g = grid(plan.mu, plan.sigma);
+    double ia = 0.0, iab = 0.0, ib = 0.0;
+    for (int i = 0; i < gridPoints; ++i) {
+        const double p = expit(g.x[i]), v = g.w[i] * p * (1.0 - p);
+        ia += v;
+        iab += v * g.x[i];
+        ib += v * g.x[i] * g.x[i];
+    }
+    const double seSlope = targets.slopeWidth / (2.0 * z);
+    add("calibration slope", seSlope, ia / (seSlope * seSlope * (ia * ib - iab * iab)));
+    // 3. C: the Newcombe (2006) form of Hanley & McNeil's SE with N/2 − 1; solve for N.
+    const double seC = targets.cWidth / (2.0 * z);
+    auto seOfC = [&](double n) {
+        const double m = n / 2.0 - 1.0;
+        return std::sqrt(c * (1.0 - c) * (1.0 + m * (1.0 - c) / (2.0 - c) + m * c / (1.0 + c)) / (n * n * phi * (1.0 - phi)));
+    };
+    double nLo = 4.0, nHi = 1e9;
+    for (int k = 0; k < 200; ++k) {
+        const double mid = 0.5 * (nLo + nHi);
+        (seOfC(mid) > seC ? nLo : nHi) = mid;
+    }
+    add("C statistic", seC, nHi);
+    // 4. Standardised net benefit at each threshold (methods §7.1): SE from Se and Sp at t.
+    const double seNb = targets.netBenefitWidth / (2.0 * z);
+    for (double t : targets.thresholds) {
+        double tp = 0.0, fp = 0.0;
+        for (int i = 0; i < gridPoints; ++i)
+            if (expit(g.x[i]) >= t) {
+                tp += g.w[i] * expit(g.x[i]);
+                fp += g.w[i] * (1.0 - expit(g.x[i]));
+            }
+        const double se = tp / phi, sp = 1.0 - fp / (1.0 - phi);
+        const double w = (1.0 - phi) / phi * t / (1.0 - t);
+        const double n = (se * (1.0 - se) / phi + w * w * sp * (1.0 - sp) / (1.0 - phi) + w * w * (1.0 - sp) * (1.0 - sp) / (phi * (1.0 - phi)))
+            / (seNb * seNb);
+        add(label("net benefit at %.2f", t), seNb, n);
+    }
+    for (const auto& criterion : plan.criteria)
+        if (criterion.patients > plan.minimum) {
+            plan.minimum = criterion.patients;
+            plan.driver = criterion.name;
+        }
+    return plan;
+}
+
+} // namespace plumbline
