@@ -64,6 +64,9 @@ std::expected<AnalysisFile, InputError> AnalysisOptions::resolved(const CLI::App
         if (given("--c-interval")) p.cStatisticScale = panelGiven->cStatisticScale;
         if (given("--binomial-interval")) p.binomialInterval = panelGiven->binomialInterval;
         if (given("--nri-cuts")) p.nriCutPoints = panelGiven->nriCutPoints;
+        if (given("--decision-range")) { p.decisionFrom = panelGiven->decisionFrom; p.decisionTo = panelGiven->decisionTo; p.decisionStep = panelGiven->decisionStep; }
+        if (given("--period-unit")) p.periodUnit = panelGiven->periodUnit;
+        if (given("--date-format")) p.dateFormat = panelGiven->dateFormat;
         BootstrapSettings& b = out.bootstrap;
         if (given("--bootstrap")) b.replicates = bootstrapGiven.replicates;
         if (given("--seed")) b.seed = bootstrapGiven.seed;
@@ -73,6 +76,7 @@ std::expected<AnalysisFile, InputError> AnalysisOptions::resolved(const CLI::App
     out.bootstrap.threads = bootstrapGiven.threads; // never saved: it changes no result
     if (settingsFile.empty() || given("--add-updated")) out.addUpdated = addUpdated;
     if (settingsFile.empty() || given("--min-cell")) out.minimumCell = minimumCell;
+    out.panel.minimumCell = out.minimumCell;
     auto text = [&](const char* option, const std::string& value, std::string& field) {
         if (settingsFile.empty() || given(option))
             field = value;

@@ -2,6 +2,7 @@
 // line of defence: whatever escapes a command is reported once, with a non-crash exit status.
 #include "cli_exit.hpp"
 #include "cli_inspect_command.hpp"
+#include "cli_plan_command.hpp"
 #include "cli_simulate_command.hpp"
 #include "cli_update_command.hpp"
 #include "cli_validate_command.hpp"
@@ -23,6 +24,7 @@ int main(int argc, char** argv)
     addValidateCommand(app, exitStatus);
     addSimulateCommand(app, exitStatus);
     addUpdateCommand(app, exitStatus);
+    addPlanCommand(app, exitStatus);
     try {
         app.parse(argc, argv);
     } catch (const CLI::ParseError& error) {

@@ -16,6 +16,10 @@ void PanelOptions::addTo(CLI::App& command)
     command.add_option("--binomial-interval", binomialInterval, "Interval for proportions")
         ->check(CLI::IsMember({"wilson", "clopper-pearson"}));
     command.add_option("--nri-cuts", nriCuts, "Risk cut-points of the categorical NRI (default: the thresholds)");
+    command.add_option("--decision-range", decisionRange, "Decision curve thresholds: from,to,step (default 0.05,0.50,0.01)");
+    command.add_option("--period-unit", periodUnit, "Periods of --period: month or quarter")->check(CLI::IsMember({"month", "quarter"}));
+    command.add_option("--date-format", dateFormat, "Dates of --period: iso (YYYY-MM-DD), dmy (DD/MM/YYYY) or mdy (MM/DD/YYYY)")
+        ->check(CLI::IsMember({"iso", "dmy", "mdy"}));
 }
 
 std::expected<PanelSettings, InputError> PanelOptions::resolved() const
@@ -46,6 +50,27 @@ std::expected<PanelSettings, InputError> PanelOptions::resolved() const
         return std::unexpected(*error);
     if (auto error = risks(nriCuts, "--nri-cuts", settings.nriCutPoints))
         return std::unexpected(*error);
+    std::vector<double> range;
+    std::stringstream parts(decisionRange);
+    std::string part;
+    while (std::getline(parts, part, ','))
+        if (const auto value = parseNumber(part, false))
+            range.push_back(*value);
+    if (range.size() != 3 || !(range[0] > 0.0 && range[0] < range[1] && range[1] < 1.0 && range[2] > 0.0)) {
+        InputError error;
+        error.value = decisionRange;
+        error.problem = "--decision-range takes three numbers: the first and last threshold (between 0 and 1) and the step.";
+        error.remedy = "e.g. --decision-range 0.05,0.50,0.01.";
+        return std::unexpected(error);
+    }
+    settings.decisionFrom = range[0];
+    settings.decisionTo = range[1];
+    settings.decisionStep = range[2];
+    settings.periodUnit = periodUnit == "quarter" ? PeriodUnit::Quarter : PeriodUnit::Month;
+    if (dateFormat == "dmy")
+        settings.dateFormat = DateFormat::DayFirst;
+    else if (dateFormat == "mdy")
+        settings.dateFormat = DateFormat::MonthFirst;
     return settings;
 }
 

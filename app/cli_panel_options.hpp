@@ -18,6 +18,9 @@ struct PanelOptions {
     std::string cInterval = "logit";
     std::string binomialInterval = "wilson";
     std::string nriCuts;
+    std::string decisionRange = "0.05,0.50,0.01";
+    std::string periodUnit = "month";
+    std::string dateFormat = "iso";
 
     void addTo(CLI::App& command);
     std::expected<PanelSettings, InputError> resolved() const;

@@ -4,6 +4,7 @@
 
 #include <cstdio>
 #include <iomanip>
+#include <numeric>
 #include <string>
 
 namespace plumbline::cli {
@@ -137,6 +138,89 @@ void printComparisons(std::ostream& out, const ValidationResult& result)
     }
 }
 
+void printDecisionCurves(std::ostream& out, const ValidationResult& result)
+{
+    if (result.models.empty() || result.models.front().decisionCurve.empty())
+        return;
+    out << "\nDecision curve (net benefit; treat none = 0), every fifth threshold:\n" << std::right << std::setw(7) << "t";
+    for (const auto& m : result.models)
+        out << "  " << std::setw(18) << m.name.substr(0, 18);
+    out << "  " << std::setw(12) << "treat all" << '\n';
+    const auto& grid = result.models.front().decisionCurve;
+    for (std::size_t k = 0; k < grid.size(); k += 5) {
+        out << std::setw(7) << number(grid[k].threshold, 2);
+        for (const auto& m : result.models)
+            out << "  " << std::setw(18) << number(m.decisionCurve[k].netBenefit, 4);
+        out << "  " << std::setw(12) << number(grid[k].treatAll, 4) << '\n';
+    }
+}
+
+void printSubgroups(std::ostream& out, const ValidationResult& result)
+{
+    if (!result.subgroups)
+        return;
+    // Levels are listed under each model so that long site names are never cut.
+    std::size_t width = 12;
+    for (const auto& r : result.subgroups->results)
+        width = std::max(width, r.column.size() + 3 + r.level.size() + 2);
+    out << "\nSubgroups:\n";
+    for (const auto& model : result.models) {
+        out << "  " << model.name << "\n    " << std::left << std::setw(int(width)) << "column = level" << std::right << std::setw(8)
+            << "n" << std::setw(8) << "events" << "   " << std::left << std::setw(24) << "C" << "O/E\n";
+        // The overall value first, so that each level is read against it.
+        const Estimate& allC = model.metrics[CStatistic].estimate;
+        const Estimate& allOe = model.metrics[OeRatio].estimate;
+        const auto& hist = model.riskDistribution;
+        const std::size_t events = std::accumulate(hist.events.begin(), hist.events.end(), std::size_t{0});
+        const std::size_t rows = events + std::accumulate(hist.nonEvents.begin(), hist.nonEvents.end(), std::size_t{0});
+        out << "    " << std::left << std::setw(int(width)) << "all patients" << std::right << std::setw(8) << rows
+            << std::setw(8) << events << "   " << std::left << std::setw(24)
+            << (number(allC.value) + " (" + interval(allC, 3) + ")") << number(allOe.value) << " (" << interval(allOe, 3) << ")"
+            << std::right << '\n';
+        for (const auto& r : result.subgroups->results) {
+            if (r.model != model.name)
+                continue;
+            const Estimate& c = r.panel.metrics[CStatistic].estimate;
+            const Estimate& oe = r.panel.metrics[OeRatio].estimate;
+            out << "    " << std::left << std::setw(int(width)) << (r.column + " = " + r.level) << std::right << std::setw(8) << r.n
+                << std::setw(8) << r.events << "   " << std::left << std::setw(24) << (number(c.value) + " (" + interval(c, 3) + ")")
+                << number(oe.value) << " (" << interval(oe, 3) << ")" << (r.tooSmall ? "  [too small to estimate well]" : "")
+                << std::right << '\n';
+        }
+    }
+    for (const auto& h : result.subgroups->heterogeneity)
+        if (h.df > 0)
+            out << "  heterogeneity of " << metricLabel(h.metric) << " across " << h.column << " (" << h.model << "): Q " << number(h.q, 2)
+                << ", df " << h.df << ", p " << pValue(h.pValue) << '\n';
+    for (const auto& f : result.subgroups->funnel)
+        if (f.oe < f.lower95 || f.oe > f.upper95)
+            out << "  funnel: " << f.column << " = " << f.level << " (" << f.model << ") O/E " << number(f.oe) << " lies outside the "
+                << (f.oe < f.lower998 || f.oe > f.upper998 ? "99.8 %" : "95 %") << " limits for " << number(f.expected, 0)
+                << " expected events\n";
+}
+
+void printPeriods(std::ostream& out, const ValidationResult& result)
+{
+    if (!result.periods)
+        return;
+    out << "\nOver time (" << (result.periods->unit == PeriodUnit::Month ? "months" : "quarters") << "):\n";
+    for (const auto& p : result.periods->results)
+        out << "  " << std::left << std::setw(10) << p.period << std::setw(18) << p.model.substr(0, 17) << std::right << std::setw(7) << p.n
+            << "  C " << number(p.c.value) << "  O/E " << number(p.oe.value) << " (" << interval(p.oe, 3) << ")"
+            << (p.outsideFirstYear ? "  [outside the first year's interval]" : "") << '\n';
+    out << "  note: " << result.periods->note << '\n';
+}
+
+void printPrecision(std::ostream& out, const ValidationResult& result)
+{
+    if (result.precision.empty())
+        return;
+    out << "\nPrecision achieved (interval width against a common target):\n";
+    for (const auto& p : result.precision)
+        out << "  " << std::left << std::setw(20) << p.model.substr(0, 19) << std::setw(26) << metricLabel(p.metric) << std::right
+            << number(p.width, 3) << " (target " << number(p.target, 2) << (p.width <= p.target ? ", met)\n" : ", not met)\n");
+}
+
 } // namespace
 
 void printPanel(std::ostream& out, const ValidationResult& result)
@@ -155,6 +239,10 @@ void printPanel(std::ostream& out, const ValidationResult& result)
         printThresholds(out, model);
     }
     printComparisons(out, result);
+    printDecisionCurves(out, result);
+    printSubgroups(out, result);
+    printPeriods(out, result);
+    printPrecision(out, result);
     if (!result.warnings.empty()) {
         out << "\nWarnings:\n";
         for (const auto& warning : result.warnings)

@@ -46,6 +46,7 @@ nlohmann::ordered_json resultJson(const AnalysisSnapshot& s)
     json["bootstrap"] = bootstrapJson(s.validation);
     json["models"] = modelsJson(s.validation);
     json["comparisons"] = comparisonsJson(s.validation);
+    addUsefulnessFairnessDriftJson(json, s.validation);
     json["updates"] = nlohmann::ordered_json::array();
     for (const auto& update : s.updates)
         json["updates"].push_back(updateJson(update));
@@ -115,6 +116,14 @@ int runValidate(const ValidateOptions& options, const CLI::App& command)
     auto result = runIntake(analysis->intake);
     if (!result)
         return reportError(result.error());
+    if (result->cohort.period)
+        if (auto periods = analysePeriods(result->cohort, *result->cohort.period, analysis->panel.dateFormat,
+                                          analysis->panel.periodUnit, analysis->panel.confidence);
+            !periods) {
+            InputError error = periods.error();
+            error.file = analysis->intake.cohortFile;
+            return reportError(error);
+        }
     auto snapshot = std::make_shared<AnalysisSnapshot>();
     snapshot->request = AnalysisRequest::fromAnalysisFile(*analysis);
     // Each model updated for the local population enters as one more model, "<name>_updated".
