@@ -190,6 +190,71 @@ ReportSection resultsSection(const AnalysisSnapshot& s, std::size_t minimumCell)
                                        numberCell(t.specificity.value, 3), numberCell(t.ppv.value, 3), numberCell(t.npv.value, 3),
                                        numberCell(t.flagRate.value, 3), numberCell(t.netBenefit, 4), numberCell(t.netBenefitTreatAll, 4)});
     section.tables.push_back(thresholds);
+    ReportTable decision{"net_benefit", "Decision curve: net benefit by threshold (treat none = 0)",
+                         {"Model", "Threshold", "Net benefit", "Interval", "Treat all", "Standardised", "Net reduction per 100"}, {}, {}};
+    for (const auto& m : v.models)
+        for (const auto& p : m.decisionCurve)
+            decision.rows.push_back({textCell(m.name), numberCell(p.threshold, 2), numberCell(p.netBenefit, 4),
+                                     textCell(p.lower ? fixed(*p.lower, 4) + " to " + fixed(*p.upper, 4) : "-"), numberCell(p.treatAll, 4),
+                                     numberCell(p.standardized, 4), numberCell(p.netReductionPer100, 2)});
+    decision.note = "Net reduction in interventions per 100 patients against treating everyone (Vickers et al. 2008). Read only "
+                    "the thresholds the care team would use.";
+    section.tables.push_back(decision);
+    return section;
+}
+
+ReportSection subgroupSection(const AnalysisSnapshot& s, std::size_t minimumCell)
+{
+    const ValidationResult& v = s.validation;
+    ReportSection section{"6. Subgroups, sites and performance over time", {}, {}, {}};
+    if (!v.subgroups && !v.periods)
+        section.paragraphs.push_back("Not part of this analysis (no subgroup or period column).");
+    if (v.subgroups) {
+        ReportTable groups{"subgroups", "Performance within subgroups",
+                           {"Column", "Level", "Model", "Patients", "Events", "C statistic", "C interval", "O/E", "O/E interval", "Note"}, {}, {}};
+        for (const auto& r : v.subgroups->results) {
+            const Estimate& c = r.panel.metrics[CStatistic].estimate;
+            const Estimate& oe = r.panel.metrics[OeRatio].estimate;
+            groups.rows.push_back({textCell(r.column), textCell(r.level), textCell(r.model), countCell(r.n, minimumCell),
+                                   countCell(r.events, minimumCell), numberCell(r.tooSmall ? std::nullopt : c.value, 3),
+                                   textCell(r.tooSmall ? "-" : intervalText(c, 3)), numberCell(r.tooSmall ? std::nullopt : oe.value, 3),
+                                   textCell(r.tooSmall ? "-" : intervalText(oe, 3)), textCell(r.tooSmall ? "too small to estimate (shown, not hidden)" : "")});
+        }
+        groups.note = "Levels with fewer than " + std::to_string(minimumCell) + " patients, events or non-events are flagged and their estimates withheld.";
+        section.tables.push_back(groups);
+        ReportTable het{"heterogeneity", "Do levels differ? Cochran's Q across levels", {"Column", "Model", "Metric", "Q", "df", "p-value"}, {}, {}};
+        for (const auto& h : v.subgroups->heterogeneity)
+            het.rows.push_back({textCell(h.column), textCell(h.model), textCell(metricLabel(h.metric)), numberCell(h.q, 2),
+                                {std::to_string(h.df), double(h.df), false}, h.df > 0 ? numberCell(h.pValue, 4) : textCell("-")});
+        section.tables.push_back(het);
+        ReportTable funnel{"funnel", "Funnel: observed/expected by level against control limits (Spiegelhalter 2005)",
+                           {"Column", "Level", "Model", "Expected events", "O/E", "95 % limits", "99.8 % limits", "Signal"}, {}, {}};
+        for (const auto& f : v.subgroups->funnel) {
+            const bool out95 = f.oe < f.lower95 || f.oe > f.upper95, out998 = f.oe < f.lower998 || f.oe > f.upper998;
+            funnel.rows.push_back({textCell(f.column), textCell(f.level), textCell(f.model), numberCell(f.expected, 1), numberCell(f.oe, 3),
+                                   textCell(fixed(f.lower95, 3) + " to " + fixed(f.upper95, 3)),
+                                   textCell(fixed(f.lower998, 3) + " to " + fixed(f.upper998, 3)),
+                                   textCell(out998 ? "outside 99.8 %" : out95 ? "outside 95 %" : "within")});
+        }
+        section.tables.push_back(funnel);
+    }
+    if (v.periods) {
+        ReportTable periods{"periods", "Performance over time", {"Period", "Model", "Patients", "Events", "C statistic", "O/E", "O/E interval",
+                                                                 "Calibration-in-the-large", "Against the first year"}, {}, {}};
+        for (const auto& p : v.periods->results)
+            periods.rows.push_back({textCell(p.period), textCell(p.model), countCell(p.n, minimumCell), countCell(p.events, minimumCell),
+                                    numberCell(p.c.value, 3), numberCell(p.oe.value, 3), textCell(intervalText(p.oe, 3)),
+                                    numberCell(p.calibrationIntercept.value, 3), textCell(p.outsideFirstYear ? "outside its interval" : "")});
+        periods.note = v.periods->note;
+        section.tables.push_back(periods);
+    }
+    ReportTable precision{"precision", "Precision achieved", {"Model", "Metric", "Interval width", "Common target", "Met"}, {}, {}};
+    for (const auto& p : v.precision)
+        precision.rows.push_back({textCell(p.model), textCell(metricLabel(p.metric)), numberCell(p.width, 3), numberCell(p.target, 2),
+                                  textCell(p.width <= p.target ? "yes" : "no")});
+    precision.note = "Targets as in the sample-size criteria of Riley et al. 2021 (CI width 0.1 for C, 0.2 for O/E and the slope; "
+                     "common choices). Plan a study with plumbline-cli plan.";
+    section.tables.push_back(precision);
     return section;
 }
 
@@ -247,7 +312,7 @@ ReportSection comparisonSection(const AnalysisSnapshot& s, std::size_t minimumCe
 
 ReportSection methodsSection(const AnalysisSnapshot& s)
 {
-    ReportSection section{"6. Methods", {}, {}, {}};
+    ReportSection section{"7. Methods", {}, {}, {}};
     for (std::string_view key : panelKeys) {
         const MetricDefinition d = metricDefinition(key);
         section.paragraphs.push_back(metricLabel(key) + ": " + std::string(d.definition) + " Source: " + std::string(d.source) + ".");
@@ -265,7 +330,7 @@ ReportSection methodsSection(const AnalysisSnapshot& s)
 
 ReportSection checklistSection(const AnalysisSnapshot& s)
 {
-    ReportSection section{"7. Reporting checklist (TRIPOD 2015 / TRIPOD+AI 2024, validation items)", {}, {}, {}};
+    ReportSection section{"8. Reporting checklist (TRIPOD 2015 / TRIPOD+AI 2024, validation items)", {}, {}, {}};
     ReportTable t{"checklist", "Where this report covers the validation items", {"Topic", "TRIPOD 2015", "TRIPOD+AI 2024", "In this report"}, {}, {}};
     const bool compared = !s.validation.comparisons.empty();
     const bool updated = !s.updates.empty();
@@ -275,10 +340,10 @@ ReportSection checklistSection(const AnalysisSnapshot& s)
         {"Participants, eligibility", "5a-5c", "6a-6c", "Section 2: exclusions by reason"},
         {"Outcome definition and horizon", "6a, 6b", "8a-8c", "Section 1 (free text)"},
         {"Predictors", "7a, 7b", "9a-9c", "NOT COVERED: describe the model's inputs"},
-        {"Sample size", "8", "10", "Section 2 counts and interval widths; no formal calculation"},
+        {"Sample size", "8", "10", "Section 6: precision achieved; plan with plumbline-cli plan"},
         {"Missing data", "9", "11", "Section 2: missing outcome and scores excluded and counted"},
         {"How predictions were calculated", "10c", "12g, 22", "Section 3: score column and scale"},
-        {"Performance measures", "10d", "12e", "Sections 4 and 6"},
+        {"Performance measures", "10d", "12e", "Sections 4 and 7"},
         {"Model updating", "10e", "12f", updated ? "Section 5" : "Not done"},
         {"Risk groups, thresholds", "11", "15", "Section 4: risk groups and thresholds"},
         {"Differences from the development data", "12", "16", "NOT COVERED: compare with the development study"},
@@ -286,11 +351,11 @@ ReportSection checklistSection(const AnalysisSnapshot& s)
         {"Participant characteristics", "13b", "20b", "NOT COVERED: describe the cohort"},
         {"Comparison with development data (case-mix)", "13c", "20c", "NOT COVERED"},
         {"Performance with intervals", "16", "23a", "Section 4"},
-        {"Performance in subgroups, heterogeneity", "-", "23a, 23b", "NOT COVERED in this version"},
+        {"Performance in subgroups, heterogeneity", "-", "23a, 23b", s.validation.subgroups ? "Section 6" : "NOT COVERED: no subgroup column given"},
         {"Updated model performance", "17", "24", updated ? "Section 5 (optimism-corrected)" : "Not done"},
         {"Comparison of models", "-", "-", compared ? "Section 5" : "One model"},
-        {"Limitations, interpretation", "18, 19", "25, 26", "Section 8 cautions; reviewer's notes"},
-        {"Fairness", "-", "14", "NOT COVERED in this version"},
+        {"Limitations, interpretation", "18, 19", "25, 26", "Section 9 cautions; reviewer's notes"},
+        {"Fairness", "-", "14", s.validation.subgroups ? "Section 6 (performance by group)" : "NOT COVERED: no subgroup column given"},
         {"Code and settings for reproduction", "21", "18e, 18f", "Section 3; save the analysis file"},
     }};
     for (const auto& item : items)
@@ -323,9 +388,10 @@ ReportDocument buildReport(const AnalysisSnapshot& s, const ReportFields& fields
     d.sections.push_back(settingsSection(s, minimumCell));
     d.sections.push_back(resultsSection(s, minimumCell));
     d.sections.push_back(comparisonSection(s, minimumCell));
+    d.sections.push_back(subgroupSection(s, minimumCell));
     d.sections.push_back(methodsSection(s));
     d.sections.push_back(checklistSection(s));
-    ReportSection warnings{"8. Warnings and cautions", {}, {}, {}};
+    ReportSection warnings{"9. Warnings and cautions", {}, {}, {}};
     for (const auto& w : s.audit.warnings)
         warnings.paragraphs.push_back("Warning: " + w);
     for (const auto& w : s.validation.warnings)
@@ -335,7 +401,7 @@ ReportDocument buildReport(const AnalysisSnapshot& s, const ReportFields& fields
     warnings.paragraphs.push_back("Caution: this report shows aggregates only; counts below " + std::to_string(minimumCell)
                                   + " are suppressed. Keep patient-level files inside your organisation's controls.");
     d.sections.push_back(warnings);
-    ReportSection signOff{"9. Reviewer's notes and sign-off", {}, {}, {}};
+    ReportSection signOff{"10. Reviewer's notes and sign-off", {}, {}, {}};
     signOff.paragraphs.push_back("Notes: " + (fields.notes.empty() ? std::string("(none)") : fields.notes));
     signOff.paragraphs.push_back("Reviewed by (name, role): ______________________________");
     signOff.paragraphs.push_back("Decision and conditions: ______________________________");
