@@ -27,7 +27,7 @@ TEST_CASE("An analysis file keeps every setting and finds its inputs relative to
     a.intake.outcomeColumn = "y";
     a.intake.scoreColumns = {"p"};
     a.intake.groupColumns = {"site"};
-    a.intake.eventValue = "1";
+    a.intake.eventValue = std::string("1");
     a.intake.scale = ScoreScale::Percent;
     a.panel.thresholds = {0.05, 0.3};
     a.panel.cStatisticScale = CStatisticScale::Plain;
