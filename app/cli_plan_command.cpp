@@ -3,7 +3,6 @@
 #include "cli_exit.hpp"
 #include "sample_size.hpp"
 
-#include <iomanip>
 #include <iostream>
 #include <memory>
 
@@ -28,19 +27,8 @@ int runPlan(const PlanOptions& options)
         error.remedy = "give e.g. --prevalence 0.15 --c-statistic 0.70.";
         return reportError(error);
     }
-    std::cout << "Minimum sample size for an external validation (Riley et al. 2021 criteria)\n"
-              << "  anticipated outcome proportion " << options.prevalence << ", C statistic " << options.c << "\n"
-              << "  linear predictor assumed Normal(" << std::fixed << std::setprecision(4) << plan->mu << ", "
-              << plan->sigma << "^2), calibration assumed perfect\n\n";
-    std::cout << "  " << std::left << std::setw(26) << "criterion" << std::right << std::setw(11) << "target SE" << std::setw(12)
-              << "patients" << std::setw(10) << "events\n";
-    for (const auto& c : plan->criteria)
-        std::cout << "  " << std::left << std::setw(26) << c.name << std::right << std::setw(11) << std::setprecision(5) << c.targetSe
-                  << std::setw(12) << c.patients << std::setw(10) << std::setprecision(0) << c.events << '\n';
-    std::cout << "\n  Minimum: " << plan->minimum << " patients (about " << std::setprecision(0) << double(plan->minimum) * options.prevalence
-              << " events), driven by the " << plan->driver << " criterion.\n"
-              << "  Targets: CI widths 0.2 for O/E and slope, 0.1 for C, 0.2 for standardised net benefit (common choices; "
-                 "set them with --oe-width, --slope-width, --c-width, --nb-width).\n";
+    std::cout << describePlan(*plan, options.prevalence, options.c, targets)
+              << "  Set the targets with --oe-width, --slope-width, --c-width and --nb-width.\n";
     return Done;
 }
 } // namespace

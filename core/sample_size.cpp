@@ -2,6 +2,8 @@
 
 #include "distributions.hpp"
 
+#include <iomanip>
+#include <sstream>
 #include <cmath>
 #include <cstdio>
 #include <vector>
@@ -147,6 +149,26 @@ std::optional<SampleSizePlan> planSampleSize(double phi, double c, const SampleS
             plan.driver = criterion.name;
         }
     return plan;
+}
+
+std::string describePlan(const SampleSizePlan& plan, double prevalence, double cStatistic, const SampleSizeTargets& targets)
+{
+    std::ostringstream out;
+    out << "Minimum sample size for an external validation (Riley et al. 2021 criteria)\n"
+        << "  anticipated outcome proportion " << prevalence << ", C statistic " << cStatistic << "\n"
+        << "  linear predictor assumed Normal(" << std::fixed << std::setprecision(4) << plan.mu << ", " << plan.sigma
+        << "^2), calibration assumed perfect\n\n";
+    out << "  " << std::left << std::setw(26) << "criterion" << std::right << std::setw(11) << "target SE" << std::setw(12)
+        << "patients" << std::setw(10) << "events" << '\n';
+    for (const auto& c : plan.criteria)
+        out << "  " << std::left << std::setw(26) << c.name << std::right << std::setw(11) << std::setprecision(5) << c.targetSe
+            << std::setw(12) << c.patients << std::setw(10) << std::setprecision(0) << c.events << '\n';
+    out << "\n  Minimum: " << plan.minimum << " patients (about " << std::setprecision(0) << double(plan.minimum) * prevalence
+        << " events), driven by the " << plan.driver << " criterion.\n"
+        << std::setprecision(2) << "  Targets: CI widths " << targets.oeWidth << " for O/E, " << targets.slopeWidth
+        << " for the calibration slope, " << targets.cWidth << " for C, " << targets.netBenefitWidth
+        << " for standardised net benefit (the defaults are common choices, not rules).\n";
+    return out.str();
 }
 
 } // namespace plumbline

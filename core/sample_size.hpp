@@ -37,4 +37,8 @@ struct SampleSizePlan {
 // nullopt when the inputs are outside (0, 1) or C is not in (0.5, 1).
 std::optional<SampleSizePlan> planSampleSize(double prevalence, double cStatistic, const SampleSizeTargets& targets = {});
 
+// The plan as the text the command line prints and the window shows: assumptions, one row per
+// criterion, the minimum and the criterion that drives it, and the targets used.
+std::string describePlan(const SampleSizePlan& plan, double prevalence, double cStatistic, const SampleSizeTargets& targets);
+
 } // namespace plumbline

@@ -63,9 +63,15 @@ ValidationResult runValidation(const Cohort& cohort, const PanelSettings& settin
     result.comparisons = compareModels(cohort, result, settings, settings.cutPoints());
     if (!cohort.groups.empty())
         result.subgroups = analyseSubgroups(cohort, settings, settings.minimumCell);
-    if (cohort.period)
+    std::string periodProblem;
+    if (cohort.period) {
+        // The command line refuses such a run before it starts; the window still shows the rest
+        // of the validation and says why there is no view over time.
         if (auto periods = analysePeriods(cohort, *cohort.period, settings.dateFormat, settings.periodUnit, settings.confidence))
             result.periods = std::move(*periods);
+        else
+            periodProblem = "No view over time: " + periods.error().message();
+    }
     // Achieved precision beside the widths commonly aimed at (Riley et al. 2021 examples; from memory).
     for (const auto& model : result.models)
         for (const auto& [metric, target] : {std::pair<PanelMetric, double>{CStatistic, 0.1}, {OeRatio, 0.2}, {CalibrationSlope, 0.2}}) {
@@ -74,6 +80,8 @@ ValidationResult runValidation(const Cohort& cohort, const PanelSettings& settin
                 result.precision.push_back({model.name, std::string(panelKeys[metric]), *e.upper - *e.lower, target});
         }
     result.warnings = cohortWarnings(cohort);
+    if (!periodProblem.empty())
+        result.warnings.push_back(periodProblem);
     if (result.periods)
         result.warnings.insert(result.warnings.end(), result.periods->warnings.begin(), result.periods->warnings.end());
     for (const auto& model : result.models)
