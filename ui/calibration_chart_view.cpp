@@ -58,11 +58,7 @@ void CalibrationChartView::setSnapshot(SnapshotPointer snapshot)
 {
     m_snapshot = std::move(snapshot);
     QChart* c = chart();
-    c->removeAllSeries();
-    for (QAbstractAxis* axis : c->axes()) {
-        c->removeAxis(axis);
-        delete axis;
-    }
+    clearChart(c);
     m_series.clear();
     m_maximum = m_snapshot ? axisEnd(m_snapshot->validation) : 1.0;
     c->addAxis(probabilityAxis(tr("Predicted risk  (points: risk groups with 95 % CI; lines: smoothed, with band)"), m_maximum),

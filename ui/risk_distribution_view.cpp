@@ -28,11 +28,7 @@ void RiskDistributionView::setSnapshot(SnapshotPointer snapshot, int model, doub
 {
     m_snapshot = std::move(snapshot);
     QChart* c = chart();
-    c->removeAllSeries();
-    for (QAbstractAxis* axis : c->axes()) {
-        c->removeAxis(axis);
-        delete axis;
-    }
+    clearChart(c);
     m_thresholdLine = nullptr;
     if (!m_snapshot || model < 0 || model >= static_cast<int>(m_snapshot->validation.models.size()))
         return;

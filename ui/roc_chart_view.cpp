@@ -62,11 +62,7 @@ void RocChartView::setSnapshot(SnapshotPointer snapshot)
 {
     m_snapshot = std::move(snapshot);
     QChart* c = chart();
-    c->removeAllSeries();
-    for (QAbstractAxis* axis : c->axes()) {
-        c->removeAxis(axis);
-        delete axis;
-    }
+    clearChart(c);
     m_series.clear();
     c->addAxis(probabilityAxis(tr("1 − specificity (false-positive rate)")), Qt::AlignBottom);
     c->addAxis(probabilityAxis(tr("Sensitivity")), Qt::AlignLeft);

@@ -28,11 +28,7 @@ void UpdateCalibrationView::setGroups(const std::vector<RiskGroup>& original, co
                                       int modelIndex)
 {
     QChart* c = chart();
-    c->removeAllSeries();
-    for (QAbstractAxis* axis : c->axes()) {
-        c->removeAxis(axis);
-        delete axis;
-    }
+    clearChart(c);
     double top = 0.1;
     for (const auto* groups : {&original, &updated})
         for (const auto& g : *groups)
@@ -42,11 +38,7 @@ void UpdateCalibrationView::setGroups(const std::vector<RiskGroup>& original, co
     auto* y = probabilityAxis(tr("Observed proportion"), m_top);
     c->addAxis(x, Qt::AlignBottom);
     c->addAxis(y, Qt::AlignLeft);
-    auto add = [&](QAbstractSeries* series) {
-        c->addSeries(series);
-        series->attachAxis(x);
-        series->attachAxis(y);
-    };
+    auto add = [&](QAbstractSeries* series) { addOnAxes(c, series, x, y); };
     auto* ideal = new QLineSeries;
     ideal->setName(tr("Ideal"));
     ideal->append(0, 0);
