@@ -4,6 +4,10 @@
 #include "cautions.hpp"
 #include "cohort_panel.hpp"
 #include "comparison_panel.hpp"
+#include "decision_curve_view.hpp"
+#include "period_panel.hpp"
+#include "planner_dialog.hpp"
+#include "subgroup_panel.hpp"
 #include "updating_panel.hpp"
 #include "copyable_table_view.hpp"
 #include "import_dialog.hpp"
@@ -68,6 +72,9 @@ MainWindow::MainWindow(QWidget* parent)
     , m_cohort(new CohortPanel)
     , m_comparison(new ComparisonPanel)
     , m_updating(new UpdatingPanel)
+    , m_decision(new DecisionCurveView)
+    , m_subgroups(new SubgroupPanel)
+    , m_periods(new PeriodPanel)
     , m_settings(new SettingsPanel)
     , m_tabs(new QTabWidget)
     , m_toggles(new QHBoxLayout)
@@ -185,6 +192,11 @@ void MainWindow::buildMenus()
     rerun->setShortcut(QKeySequence::Refresh);
     QAction* cancel = analysis->addAction(tr("&Cancel run"), m_task, &ValidationTask::cancel);
     cancel->setShortcut(QKeySequence(Qt::Key_Escape));
+    analysis->addSeparator();
+    analysis->addAction(tr("&Plan a sample size…"), this, [this] {
+        PlannerDialog dialog(this);
+        dialog.exec();
+    });
     QMenu* help = menuBar()->addMenu(tr("&Help"));
     help->addAction(tr("&Cautions"), this, [this] { QMessageBox::information(this, tr("Cautions"), cautionText()); });
     help->addAction(tr("&About Plumbline"), this, &MainWindow::showAbout);
@@ -226,6 +238,9 @@ QWidget* MainWindow::buildCentralArea()
     m_tabs->addTab(metricView, tr("&Metrics"));
     m_tabs->addTab(m_riskGroupView, tr("Risk &groups"));
     m_tabs->addTab(m_comparison, tr("Co&mparison"));
+    m_tabs->addTab(m_decision, tr("&Net benefit"));
+    m_tabs->addTab(m_subgroups, tr("Su&bgroups"));
+    m_tabs->addTab(m_periods, tr("Over &time"));
     m_tabs->addTab(m_updating, tr("&Updating"));
     m_tabs->addTab(m_cohort, tr("C&ohort"));
     m_tabs->addTab(m_settings, tr("&Settings"));
@@ -373,6 +388,9 @@ void MainWindow::showSnapshot(SnapshotPointer snapshot)
     m_cohort->setSnapshot(m_snapshot);
     m_comparison->setSnapshot(m_snapshot);
     m_updating->setSnapshot(m_snapshot);
+    m_decision->setSnapshot(m_snapshot);
+    m_subgroups->setSnapshot(m_snapshot);
+    m_periods->setSnapshot(m_snapshot);
     rebuildModelToggles();
     setThreshold(m_threshold->threshold());
     const std::size_t warnings = m_snapshot->validation.warnings.size() + audit.warnings.size();
@@ -386,6 +404,7 @@ void MainWindow::setThreshold(double threshold)
     m_distribution->setThreshold(threshold);
     m_comparison->setThreshold(threshold);
     m_updating->setThreshold(threshold);
+    m_decision->setThreshold(threshold);
 }
 
 void MainWindow::rebuildModelToggles()

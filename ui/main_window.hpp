@@ -18,6 +18,9 @@ namespace plumbline {
 class CalibrationChartView;
 class CohortPanel;
 class ComparisonPanel;
+class DecisionCurveView;
+class PeriodPanel;
+class SubgroupPanel;
 class UpdatingPanel;
 class CopyableTableView;
 class MetricTableModel;
@@ -59,6 +62,9 @@ public:
     CopyableTableView* riskGroupView() const { return m_riskGroupView; }
     RiskGroupTableModel* riskGroupModel() const { return m_riskGroups; }
     ComparisonPanel* comparisonPanel() const { return m_comparison; }
+    DecisionCurveView* decisionCurveView() const { return m_decision; }
+    SubgroupPanel* subgroupPanel() const { return m_subgroups; }
+    PeriodPanel* periodPanel() const { return m_periods; }
     UpdatingPanel* updatingPanel() const { return m_updating; }
 
 protected:
@@ -91,6 +97,9 @@ private:
     CohortPanel* m_cohort;
     ComparisonPanel* m_comparison;
     UpdatingPanel* m_updating;
+    DecisionCurveView* m_decision;
+    SubgroupPanel* m_subgroups;
+    PeriodPanel* m_periods;
     SettingsPanel* m_settings;
     QTabWidget* m_tabs;
     QHBoxLayout* m_toggles;

@@ -32,9 +32,17 @@ SettingsPanel::SettingsPanel(QWidget* parent)
     , m_period(new QLineEdit)
     , m_notes(new QLineEdit)
     , m_minimumCell(new QSpinBox)
+    , m_periodUnit(new QComboBox)
+    , m_dateFormat(new QComboBox)
     , m_problem(new QLabel)
 {
     m_minimumCell->setRange(1, 1000);
+    m_periodUnit->addItem(tr("Month"), int(PeriodUnit::Month));
+    m_periodUnit->addItem(tr("Quarter"), int(PeriodUnit::Quarter));
+    // No guessing between day-first and month-first: 03/04/2025 is refused until the user says.
+    m_dateFormat->addItem(tr("YYYY-MM-DD only"), -1);
+    m_dateFormat->addItem(tr("DD/MM/YYYY"), int(DateFormat::DayFirst));
+    m_dateFormat->addItem(tr("MM/DD/YYYY"), int(DateFormat::MonthFirst));
     m_title->setPlaceholderText(tr("e.g. External validation of the supplier's 30-day readmission score"));
     m_outcome->setPlaceholderText(tr("e.g. unplanned readmission to any network hospital within 30 days"));
     m_replicates->setRange(0, 20000);
@@ -65,6 +73,8 @@ SettingsPanel::SettingsPanel(QWidget* parent)
     form->addRow(tr("Perio&d:"), m_period);
     form->addRow(tr("Reviewer's &notes:"), m_notes);
     form->addRow(tr("Suppress counts &below:"), m_minimumCell);
+    form->addRow(tr("Over time, by:"), m_periodUnit);
+    form->addRow(tr("Dates &written as:"), m_dateFormat);
     form->addRow(QString(), rerun);
     form->addRow(QString(), m_problem);
     connect(rerun, &QPushButton::clicked, this, [this] {
@@ -93,6 +103,8 @@ void SettingsPanel::setRequest(const AnalysisRequest& request)
     m_period->setText(QString::fromStdString(request.report.period));
     m_notes->setText(QString::fromStdString(request.report.notes));
     m_minimumCell->setValue(int(request.minimumCell));
+    m_periodUnit->setCurrentIndex(m_periodUnit->findData(int(request.panel.periodUnit)));
+    m_dateFormat->setCurrentIndex(m_dateFormat->findData(request.panel.dateFormat ? int(*request.panel.dateFormat) : -1));
     m_problem->clear();
 }
 
@@ -107,6 +119,9 @@ std::optional<AnalysisRequest> SettingsPanel::request() const
     out.report = {m_title->text().toStdString(), m_model->text().toStdString(), m_outcome->text().toStdString(),
                   m_population->text().toStdString(), m_period->text().toStdString(), m_notes->text().toStdString()};
     out.minimumCell = std::size_t(m_minimumCell->value());
+    out.panel.periodUnit = PeriodUnit(m_periodUnit->currentData().toInt());
+    const int dateFormat = m_dateFormat->currentData().toInt();
+    out.panel.dateFormat = dateFormat < 0 ? std::nullopt : std::optional<DateFormat>(DateFormat(dateFormat));
     out.panel.riskGroups = std::size_t(m_groups->value());
     out.panel.thresholds.clear();
     for (const QString& item : m_thresholds->text().split(QLatin1Char(','), Qt::SkipEmptyParts)) {

@@ -44,6 +44,8 @@ private:
     QLineEdit* m_period;
     QLineEdit* m_notes;
     QSpinBox* m_minimumCell;
+    QComboBox* m_periodUnit;
+    QComboBox* m_dateFormat;
     QLabel* m_problem;
 };
 

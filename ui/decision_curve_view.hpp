@@ -1,0 +1,27 @@
+#pragma once
+
+#include "analysis_snapshot.hpp"
+#include "exportable_chart_view.hpp"
+
+class QLineSeries;
+
+namespace plumbline {
+
+// Net benefit of each model, of treating everyone and of treating no one over the decision
+// range, with the bootstrap band when there is one, and a vertical line at the shared threshold.
+// The y axis stops a little below zero: treat-all falls steeply at high thresholds and would
+// otherwise flatten the curves that matter.
+class DecisionCurveView : public ExportableChartView {
+    Q_OBJECT
+public:
+    explicit DecisionCurveView(QWidget* parent = nullptr);
+
+    void setSnapshot(SnapshotPointer snapshot);
+    void setThreshold(double threshold);
+
+private:
+    QLineSeries* m_thresholdLine = nullptr;
+    double m_bottom = -0.05, m_top = 0.1;
+};
+
+} // namespace plumbline

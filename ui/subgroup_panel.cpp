@@ -1,0 +1,118 @@
+#include "subgroup_panel.hpp"
+
+#include "forest_chart_view.hpp"
+#include "funnel_chart_view.hpp"
+#include "metric_reading.hpp"
+
+#include <QComboBox>
+#include <QHBoxLayout>
+#include <QLabel>
+#include <QSplitter>
+#include <QVBoxLayout>
+
+namespace plumbline {
+
+SubgroupPanel::SubgroupPanel(QWidget* parent)
+    : QWidget(parent)
+    , m_picker(new QComboBox)
+    , m_c(new ForestChartView(tr("C statistic by level"), tr("C statistic")))
+    , m_oe(new ForestChartView(tr("Observed / expected by level"), tr("O/E")))
+    , m_funnel(new FunnelChartView)
+    , m_summary(new QLabel)
+{
+    m_picker->setAccessibleName(tr("Subgroup column and model"));
+    m_summary->setWordWrap(true);
+    m_summary->setTextInteractionFlags(Qt::TextSelectableByMouse);
+    auto* top = new QHBoxLayout;
+    auto* pickerLabel = new QLabel(tr("Sub&group column and model:"));
+    pickerLabel->setBuddy(m_picker);
+    top->addWidget(pickerLabel);
+    top->addWidget(m_picker, 1);
+    auto* charts = new QSplitter(Qt::Horizontal);
+    charts->addWidget(m_c);
+    charts->addWidget(m_oe);
+    charts->addWidget(m_funnel);
+    auto* layout = new QVBoxLayout(this);
+    layout->addLayout(top);
+    layout->addWidget(charts, 1);
+    layout->addWidget(m_summary);
+    connect(m_picker, &QComboBox::currentIndexChanged, this, &SubgroupPanel::showChoice);
+    setSnapshot(nullptr);
+}
+
+void SubgroupPanel::setSnapshot(SnapshotPointer snapshot)
+{
+    m_snapshot = std::move(snapshot);
+    const QSignalBlocker block(m_picker);
+    m_picker->clear();
+    if (m_snapshot && m_snapshot->validation.subgroups)
+        for (const auto& column : m_snapshot->cohort ? m_snapshot->cohort->groups : std::vector<CategoricalColumn>{})
+            for (std::size_t m = 0; m < m_snapshot->validation.models.size(); ++m)
+                m_picker->addItem(QStringLiteral("%1 — %2").arg(QString::fromStdString(column.name),
+                                                               QString::fromStdString(m_snapshot->validation.models[m].name)),
+                                  QStringList{QString::fromStdString(column.name), QString::number(m)});
+    m_picker->setEnabled(m_picker->count() > 0);
+    showChoice(m_picker->currentIndex());
+}
+
+QString SubgroupPanel::summaryText() const
+{
+    return m_summary->text();
+}
+
+void SubgroupPanel::showChoice(int index)
+{
+    if (index < 0 || !m_snapshot || !m_snapshot->validation.subgroups) {
+        m_c->setRows({}, Estimate::undefined(), std::nullopt, 0);
+        m_oe->setRows({}, Estimate::undefined(), std::nullopt, 0);
+        m_funnel->setFunnel({}, nullptr, 0);
+        m_summary->setText(tr("No subgroup column was chosen. Choose one or more in File → Open (Subgroup columns), "
+                              "or give --group on the command line."));
+        return;
+    }
+    const QStringList choice = m_picker->itemData(index).toStringList();
+    const std::string column = choice.at(0).toStdString();
+    const int modelIndex = choice.at(1).toInt();
+    const ModelValidation& model = m_snapshot->validation.models[std::size_t(modelIndex)];
+    const SubgroupAnalysis& analysis = *m_snapshot->validation.subgroups;
+    std::vector<ForestRow> c, oe;
+    QStringList small;
+    for (const auto& r : analysis.results) {
+        if (r.column != column || r.model != model.name)
+            continue;
+        const std::string mark = r.tooSmall ? "too small" : "";
+        c.push_back({r.level, r.panel.metrics[CStatistic].estimate, r.tooSmall, mark});
+        oe.push_back({r.level, r.panel.metrics[OeRatio].estimate, r.tooSmall, mark});
+        if (r.tooSmall)
+            small << QString::fromStdString(r.level);
+    }
+    m_c->setRows(c, model.metrics[CStatistic].estimate, std::nullopt, modelIndex);
+    m_oe->setRows(oe, model.metrics[OeRatio].estimate, 1.0, modelIndex);
+    std::vector<FunnelPoint> points;
+    for (const auto& p : analysis.funnel)
+        if (p.column == column && p.model == model.name)
+            points.push_back(p);
+    const FunnelLimits* limits = nullptr;
+    for (const auto& l : analysis.funnelLimits)
+        if (l.column == column)
+            limits = &l;
+    m_funnel->setFunnel(points, limits, modelIndex);
+    QStringList lines;
+    for (const auto& h : analysis.heterogeneity)
+        if (h.column == column && h.model == model.name && h.df > 0)
+            lines << tr("Do levels differ in %1? Cochran's Q %2 on %3 df, p %4.")
+                         .arg(QString::fromStdString(metricLabel(h.metric)))
+                         .arg(h.q, 0, 'f', 2)
+                         .arg(h.df)
+                         .arg(h.pValue < 0.001 ? QStringLiteral("< 0.001") : QString::number(h.pValue, 'f', 3));
+    if (!small.isEmpty())
+        lines << tr("Too small to estimate well (fewer than %1 patients, events or non-events; hollow, and left out of the "
+                    "tests and the funnel): %2.")
+                     .arg(m_snapshot->request.minimumCell)
+                     .arg(small.join(QStringLiteral(", ")));
+    lines << tr("The funnel's limits are around O/E = 1: a model miscalibrated overall puts every level outside them, so "
+                "read it after calibration.");
+    m_summary->setText(lines.join(QLatin1Char('\n')));
+}
+
+} // namespace plumbline

@@ -1,0 +1,38 @@
+#pragma once
+
+#include "analysis_snapshot.hpp"
+
+#include <QWidget>
+
+class QComboBox;
+class QLabel;
+
+namespace plumbline {
+
+class ForestChartView;
+class FunnelChartView;
+
+// Performance within subgroups: pick a column and a model; forest charts of C and O/E per level
+// beside the overall value, the funnel of O/E against expected events, and the heterogeneity
+// tests. Levels too small to estimate well are drawn hollow and named, not hidden.
+class SubgroupPanel : public QWidget {
+    Q_OBJECT
+public:
+    explicit SubgroupPanel(QWidget* parent = nullptr);
+
+    void setSnapshot(SnapshotPointer snapshot);
+    QComboBox* picker() const { return m_picker; }
+    QString summaryText() const;
+
+private:
+    void showChoice(int index);
+
+    SnapshotPointer m_snapshot;
+    QComboBox* m_picker;
+    ForestChartView* m_c;
+    ForestChartView* m_oe;
+    FunnelChartView* m_funnel;
+    QLabel* m_summary;
+};
+
+} // namespace plumbline
