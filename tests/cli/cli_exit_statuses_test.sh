@@ -117,5 +117,25 @@ print("ok: join balances on both sides")
 PY
 expect 2 "need an id" -- "$cli" validate "$samples/readmission-scores.csv" --outcomes "$samples/readmission-outcomes.csv" --outcome readmitted_30d --score supplier_score
 
+# Subgroups, periods and the planner.
+printf 'y,p,d\n1,0.2,2025-01-03\n0,0.1,03/04/2025\n' > "$work/ambiguous.csv"
+expect 2 "line 3, column 'd', value '03/04/2025'" -- "$cli" validate "$work/ambiguous.csv" --outcome y --score p --period d --bootstrap 0
+expect 2 "between 0 and 1" -- "$cli" plan --prevalence 1.5 --c-statistic 0.7
+# The worked example of shared/methods.md §9.3 (Riley et al. 2021 criteria): slope-driven.
+plan=$("$cli" plan --prevalence 0.15 --c-statistic 0.70 --threshold 0.15)
+if [[ $plan == *"driven by the calibration slope criterion"* && $plan == *"2185"* ]]; then echo "ok: plan prints the criteria"
+else echo "FAIL: plan output: $plan"; failures=$((failures+1)); fi
+expect 0 "" -- "$cli" validate "$sample" --outcome readmitted_30d --score supplier_score --group hospital \
+  --period discharge_date --period-unit quarter --bootstrap 0 --json "$work/groups.json"
+/usr/bin/python3 - "$work/groups.json" <<'PY' || failures=$((failures+1))
+import json, sys
+r = json.load(open(sys.argv[1]))
+levels = {s["level"] for s in r["subgroups"]}
+assert levels == {"Ashford Regional", "Harbour General", "Millbrook Community"}, levels
+assert [p["period"] for p in r["periods"]][:2] == ["2024-Q1", "2024-Q2"]
+assert len(r["models"][0]["net_benefit"]) == 46
+print("ok: subgroups, periods and net benefit in the JSON")
+PY
+
 echo "$failures failure(s)"
 [[ $failures -eq 0 ]]

@@ -8,6 +8,7 @@
 
 #include <catch2/catch.hpp>
 
+#include <algorithm>
 #include <cmath>
 
 using namespace plumbline;
@@ -84,6 +85,10 @@ TEST_CASE("Ambiguous dates are refused with a message and a stated format is fol
     CHECK(refused.error().column == "d");
     CHECK(refused.error().value == "1/01/2025");
     CHECK(refused.error().line == 2); // the first data row, after the header
+    // The whole validation still runs and says why there is no view over time.
+    const ValidationResult whole = runValidation(intake->cohort, PanelSettings{});
+    CHECK_FALSE(whole.periods);
+    CHECK(std::ranges::any_of(whole.warnings, [](const std::string& w) { return w.find("--date-format") != std::string::npos; }));
     const auto monthFirst = analysePeriods(intake->cohort, *intake->cohort.period, DateFormat::MonthFirst, PeriodUnit::Quarter, 0.95);
     REQUIRE(monthFirst);
     CHECK(monthFirst->undated == 0);

@@ -3,6 +3,10 @@
 #include "calibration_chart_view.hpp"
 #include "cohort_simulator.hpp"
 #include "comparison_panel.hpp"
+#include "decision_curve_view.hpp"
+#include "period_panel.hpp"
+#include "planner_dialog.hpp"
+#include "subgroup_panel.hpp"
 #include "model_updating.hpp"
 #include "updating_panel.hpp"
 #include "copyable_table_view.hpp"
@@ -12,6 +16,7 @@
 #include "panel_keys.hpp"
 #include "risk_distribution_view.hpp"
 #include "risk_group_table_model.hpp"
+#include "sample_size.hpp"
 #include "roc_chart_view.hpp"
 #include "threshold_panel.hpp"
 #include "threshold_summary_model.hpp"
@@ -30,6 +35,9 @@
 #include <QTableWidget>
 #include <QTest>
 #include <QApplication>
+#include <QChart>
+#include <QComboBox>
+#include <QLineSeries>
 #include <QTimer>
 
 using namespace plumbline;
@@ -254,6 +262,65 @@ private slots:
                 window.grab().save(QStringLiteral("%1/tab-%2.png").arg(qEnvironmentVariable("PLUMBLINE_TEST_SCREENSHOTS")).arg(t));
             }
         }
+    }
+
+    void theNetBenefitSubgroupAndTimeTabsShowTheCoresResults()
+    {
+        MainWindow window;
+        window.resize(1500, 1000);
+        AnalysisRequest request = sampleRequest(0);
+        request.intake.groupColumns = {"hospital", "age_band"};
+        request.intake.periodColumn = "discharge_date";
+        QVERIFY(runAndWait(window, request));
+        const ValidationResult& result = window.snapshot()->validation;
+        QVERIFY(result.subgroups && result.periods);
+        // Net benefit: one curve per model, treat all, treat none and the threshold line, which
+        // follows the shared threshold.
+        QChart* chart = window.decisionCurveView()->chart();
+        QCOMPARE(chart->series().size(), qsizetype(5));
+        window.thresholdPanel()->setThreshold(0.3);
+        auto* line = qobject_cast<QLineSeries*>(chart->series().back());
+        QVERIFY(line && line->count() == 2);
+        QCOMPARE(line->at(0).x(), 0.3);
+        auto* first = qobject_cast<QLineSeries*>(chart->series().front());
+        QCOMPARE(first->at(0).y(), result.models[0].decisionCurve[0].netBenefit);
+        // Subgroups: a choice per column and model; the summary carries the core's Q.
+        QCOMPARE(window.subgroupPanel()->picker()->count(), 4);
+        const HeterogeneityTest* test = nullptr;
+        for (const auto& h : result.subgroups->heterogeneity)
+            if (h.column == "hospital" && h.model == "supplier_score" && h.metric == "calibration_intercept")
+                test = &h;
+        QVERIFY(test);
+        QVERIFY(window.subgroupPanel()->summaryText().contains(QString::number(test->q, 'f', 2)));
+        // Over time: the core's drift warning and the usual causes of drift.
+        QVERIFY(!result.periods->warnings.empty());
+        QVERIFY(window.periodPanel()->noteText().contains(QString::fromStdString(result.periods->warnings.front())));
+        QVERIFY(window.periodPanel()->noteText().contains(QStringLiteral("coding")));
+        if (qEnvironmentVariableIsSet("PLUMBLINE_TEST_SCREENSHOTS")) {
+            auto* tabs = window.findChild<QTabWidget*>();
+            for (int t = 3; t < 6; ++t) {
+                tabs->setCurrentIndex(t);
+                QApplication::processEvents();
+                window.grab().save(QStringLiteral("%1/usefulness-%2.png").arg(qEnvironmentVariable("PLUMBLINE_TEST_SCREENSHOTS")).arg(t));
+            }
+        }
+    }
+
+    void thePlannerShowsTheCoresPlanAndRefusesABadThreshold()
+    {
+        // shared/methods.md §9.3 worked example (Riley et al. 2021 criteria): φ 0.15, C 0.70 →
+        // 2185 patients for O/E, and the calibration slope drives the minimum.
+        PlannerDialog dialog;
+        dialog.setInputs(0.15, 0.70, QStringLiteral("0.15"));
+        SampleSizeTargets targets;
+        targets.thresholds = {0.15};
+        const auto plan = planSampleSize(0.15, 0.70, targets);
+        QVERIFY(plan);
+        QCOMPARE(dialog.planText(), QString::fromStdString(describePlan(*plan, 0.15, 0.70, targets)));
+        QVERIFY(dialog.planText().contains(QStringLiteral("2185")));
+        QVERIFY(dialog.planText().contains(QStringLiteral("driven by the calibration slope")));
+        dialog.setInputs(0.15, 0.70, QStringLiteral("0.1, 1.5"));
+        QVERIFY(dialog.planText().contains(QStringLiteral("'1.5' is not a risk")));
     }
 
     void theWindowAndTheCommandLineWriteTheSameTablesFromOneAnalysisFile()
