@@ -195,6 +195,8 @@ void MainWindow::buildMenus()
     analysis->addSeparator();
     analysis->addAction(tr("&Plan a sample size…"), this, [this] {
         PlannerDialog dialog(this);
+        if (m_snapshot)
+            dialog.setAchieved(m_snapshot->validation.precision);
         dialog.exec();
     });
     QMenu* help = menuBar()->addMenu(tr("&Help"));

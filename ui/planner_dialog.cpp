@@ -1,12 +1,14 @@
 #include "planner_dialog.hpp"
 
 #include "field_values.hpp"
+#include "metric_reading.hpp"
 #include "sample_size.hpp"
 
 #include <QDialogButtonBox>
 #include <QDoubleSpinBox>
 #include <QFontDatabase>
 #include <QFormLayout>
+#include <QLabel>
 #include <QLineEdit>
 #include <QPlainTextEdit>
 #include <QVBoxLayout>
@@ -18,6 +20,7 @@ PlannerDialog::PlannerDialog(QWidget* parent)
     , m_prevalence(new QDoubleSpinBox)
     , m_c(new QDoubleSpinBox)
     , m_thresholds(new QLineEdit(QStringLiteral("0.1")))
+    , m_achieved(new QLabel(tr("No cohort is loaded: open one to see the precision it achieves.")))
     , m_plan(new QPlainTextEdit)
 {
     setWindowTitle(tr("Plan a sample size"));
@@ -38,6 +41,9 @@ PlannerDialog::PlannerDialog(QWidget* parent)
     form->addRow(tr("&Thresholds for net benefit:"), m_thresholds);
     auto* buttons = new QDialogButtonBox(QDialogButtonBox::Close);
     auto* layout = new QVBoxLayout(this);
+    m_achieved->setWordWrap(true);
+    m_achieved->setTextInteractionFlags(Qt::TextSelectableByMouse);
+    layout->addWidget(m_achieved);
     layout->addLayout(form);
     layout->addWidget(m_plan, 1);
     layout->addWidget(buttons);
@@ -54,6 +60,23 @@ void PlannerDialog::setInputs(double prevalence, double cStatistic, const QStrin
     m_c->setValue(cStatistic);
     m_thresholds->setText(thresholds);
     recompute();
+}
+
+void PlannerDialog::setAchieved(const std::vector<ValidationResult::PrecisionRow>& rows)
+{
+    QStringList lines{tr("Precision achieved on the loaded cohort (interval width against a common target):")};
+    for (const auto& r : rows)
+        lines << tr("  %1, %2: %3 (target %4, %5)")
+                     .arg(QString::fromStdString(r.model), QString::fromStdString(metricLabel(r.metric)))
+                     .arg(r.width, 0, 'f', 3)
+                     .arg(r.target, 0, 'f', 2)
+                     .arg(r.width <= r.target ? tr("met") : tr("not met"));
+    m_achieved->setText(lines.join(QLatin1Char('\n')));
+}
+
+QString PlannerDialog::achievedText() const
+{
+    return m_achieved->text();
 }
 
 QString PlannerDialog::planText() const

@@ -1,8 +1,11 @@
 #pragma once
 
+#include "validation.hpp"
+
 #include <QDialog>
 
 class QDoubleSpinBox;
+class QLabel;
 class QLineEdit;
 class QPlainTextEdit;
 
@@ -17,6 +20,9 @@ public:
     explicit PlannerDialog(QWidget* parent = nullptr);
 
     void setInputs(double prevalence, double cStatistic, const QString& thresholds);
+    // The loaded cohort's achieved interval widths beside the common targets, shown above the plan.
+    void setAchieved(const std::vector<ValidationResult::PrecisionRow>& rows);
+    QString achievedText() const;
     QString planText() const;
 
 private:
@@ -25,6 +31,7 @@ private:
     QDoubleSpinBox* m_prevalence;
     QDoubleSpinBox* m_c;
     QLineEdit* m_thresholds;
+    QLabel* m_achieved;
     QPlainTextEdit* m_plan;
 };
 

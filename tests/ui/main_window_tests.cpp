@@ -321,6 +321,12 @@ private slots:
         QVERIFY(dialog.planText().contains(QStringLiteral("driven by the calibration slope")));
         dialog.setInputs(0.15, 0.70, QStringLiteral("0.1, 1.5"));
         QVERIFY(dialog.planText().contains(QStringLiteral("'1.5' is not a risk")));
+        // The loaded cohort's achieved precision, as the core computed it.
+        dialog.setAchieved({{"supplier_score", "c_statistic", 0.0179, 0.1}, {"supplier_score", "calibration_slope", 0.25, 0.2}});
+        QVERIFY(dialog.achievedText().contains(QStringLiteral("supplier_score, C statistic: 0.018 (target 0.10, met)")));
+        QVERIFY(dialog.achievedText().contains(QStringLiteral("Calibration slope: 0.250 (target 0.20, not met)")));
+        if (qEnvironmentVariableIsSet("PLUMBLINE_TEST_SCREENSHOTS"))
+            dialog.grab().save(QStringLiteral("%1/planner.png").arg(qEnvironmentVariable("PLUMBLINE_TEST_SCREENSHOTS")));
     }
 
     void theWindowAndTheCommandLineWriteTheSameTablesFromOneAnalysisFile()
