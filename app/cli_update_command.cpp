@@ -1,5 +1,7 @@
 #include "cli_update_command.hpp"
 
+#include "csv_quoting.hpp"
+
 #include "atomic_file.hpp"
 #include "cli_exit.hpp"
 #include "cli_intake_options.hpp"
@@ -26,16 +28,6 @@ struct UpdateOptions {
     std::size_t replicates = 200;
     std::uint64_t seed = 20240101;
 };
-
-std::string csvField(const std::string& text)
-{
-    if (text.find_first_of(",\"\n\r") == std::string::npos)
-        return text;
-    std::string quoted = "\"";
-    for (char c : text)
-        quoted += c == '"' ? std::string("\"\"") : std::string(1, c);
-    return quoted + "\"";
-}
 
 std::string shortest(double value)
 {
@@ -104,9 +96,9 @@ int runUpdate(const UpdateOptions& options, const CLI::App& command)
     }
     printIntakeSummary(std::cout, *settings, *intake);
     printUpdate(*result);
-    std::string csv = csvField(*settings->idColumn) + "," + csvField(model.name) + "," + csvField(model.name + "_updated") + "\n";
+    std::string csv = csvQuoted(*settings->idColumn) + "," + csvQuoted(model.name) + "," + csvQuoted(model.name + "_updated") + "\n";
     for (std::size_t i = 0; i < intake->cohort.rows(); ++i)
-        csv += csvField(intake->cohort.ids[i]) + "," + shortest(model.values[i]) + "," + shortest(result->fit.updatedRisk(model.values[i])) + "\n";
+        csv += csvQuoted(intake->cohort.ids[i]) + "," + shortest(model.values[i]) + "," + shortest(result->fit.updatedRisk(model.values[i])) + "\n";
     if (auto written = writeFileAtomically(options.out, csv); !written)
         return reportError(written.error());
     std::cout << "\nUpdated scores: " << options.out << " (" << withThousands(intake->cohort.rows())

@@ -149,13 +149,7 @@ MetricBootstrap summarise(const std::vector<double>& sorted, double estimate, co
 {
     MetricBootstrap b;
     b.replicatesUsed = sorted.size();
-    double mean = 0.0, squares = 0.0;
-    for (double v : sorted)
-        mean += v;
-    mean /= double(sorted.size());
-    for (double v : sorted)
-        squares += (v - mean) * (v - mean);
-    b.se = sorted.size() > 1 ? std::sqrt(squares / double(sorted.size() - 1)) : 0.0;
+    b.se = replicateStandardDeviation(sorted);
     b.percentile = percentileInterval(sorted, confidence);
     b.acceleration = acceleration.value;
     b.accelerationMethod = acceleration.method;

@@ -66,4 +66,17 @@ std::optional<BcaLevels> bcaLevels(std::span<const double> sorted, double estima
     return BcaLevels{z0, level(normalQuantile(alpha / 2.0)), level(normalQuantile(1.0 - alpha / 2.0))};
 }
 
+double replicateStandardDeviation(std::span<const double> replicates)
+{
+    if (replicates.size() < 2)
+        return 0.0;
+    double mean = 0.0, squares = 0.0;
+    for (double v : replicates)
+        mean += v;
+    mean /= double(replicates.size());
+    for (double v : replicates)
+        squares += (v - mean) * (v - mean);
+    return std::sqrt(squares / double(replicates.size() - 1));
+}
+
 } // namespace plumbline

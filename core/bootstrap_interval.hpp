@@ -16,6 +16,10 @@ double sortedQuantile(std::span<const double> sorted, double probability);
 // Percentile interval: the α/2 and 1−α/2 type-7 quantiles of the replicates (sorted ascending).
 std::pair<double, double> percentileInterval(std::span<const double> sorted, double confidence);
 
+// The standard deviation of the replicates (n − 1 divisor): the bootstrap standard error; 0 for
+// fewer than two replicates.
+double replicateStandardDeviation(std::span<const double> replicates);
+
 // Efron's acceleration from jackknife-type values θ_(i) (Efron 1987, JASA 82:171):
 // a = Σ(θ̄ − θ_(i))³ / (6 [Σ(θ̄ − θ_(i))²]^{3/2}); 0 when all values are equal. With `counts`,
 // value i stands for counts[i] patients (grouped data).

@@ -73,13 +73,7 @@ MetricBootstrap pairedSummary(const std::vector<double>& replicates, double conf
     b.replicatesUsed = sorted.size();
     if (sorted.size() < 2)
         return b;
-    double mean = 0.0, squares = 0.0;
-    for (double v : sorted)
-        mean += v;
-    mean /= double(sorted.size());
-    for (double v : sorted)
-        squares += (v - mean) * (v - mean);
-    b.se = std::sqrt(squares / double(sorted.size() - 1));
+    b.se = replicateStandardDeviation(sorted);
     b.percentile = percentileInterval(sorted, confidence);
     b.accelerationMethod = "none (percentile interval of paired differences)";
     return b;

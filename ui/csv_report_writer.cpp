@@ -1,6 +1,7 @@
 #include "report_writers.hpp"
 
 #include "atomic_file.hpp"
+#include "csv_quoting.hpp"
 
 #include <filesystem>
 #include <map>
@@ -13,13 +14,7 @@ std::string csvField(const ReportCell& cell)
 {
     // Numbers are written as they read; any text (labels from the data included) is neutralised
     // so that a spreadsheet never takes it for a formula, then quoted when it needs to be.
-    const std::string text = cell.number ? cell.text : neutralisedForSpreadsheet(cell.text);
-    if (text.find_first_of(",\"\n\r") == std::string::npos)
-        return text;
-    std::string quoted = "\"";
-    for (char c : text)
-        quoted += c == '"' ? std::string("\"\"") : std::string(1, c);
-    return quoted + "\"";
+    return csvQuoted(cell.number ? cell.text : neutralisedForSpreadsheet(cell.text));
 }
 
 } // namespace

@@ -210,20 +210,25 @@ QString ImportDialog::problemText() const
     return m_problem->text();
 }
 
+std::optional<DelimitedTable> ImportDialog::openTable(const QString& path)
+{
+    auto file = TextFile::load(path.toStdString());
+    auto table = file ? DelimitedTable::open(std::move(*file), delimiterChoice())
+                      : std::expected<DelimitedTable, InputError>(std::unexpected(file.error()));
+    if (!table) {
+        showProblem(QString::fromStdString(table.error().message()));
+        return std::nullopt;
+    }
+    return std::move(*table);
+}
+
 bool ImportDialog::loadFile(const QString& path)
 {
     m_file->setText(path);
     m_problem->clear();
-    auto file = TextFile::load(path.toStdString());
-    if (!file) {
-        showProblem(QString::fromStdString(file.error().message()));
+    const auto table = openTable(path);
+    if (!table)
         return false;
-    }
-    const auto table = DelimitedTable::open(std::move(*file), delimiterChoice());
-    if (!table) {
-        showProblem(QString::fromStdString(table.error().message()));
-        return false;
-    }
     const auto profile = profileColumns(*table, 5000);
     if (!profile) {
         showProblem(QString::fromStdString(profile.error().message()));
@@ -238,16 +243,9 @@ bool ImportDialog::loadOutcomesFile(const QString& path)
 {
     m_twoFiles->setChecked(true);
     m_outcomesFile->setText(path);
-    auto file = TextFile::load(path.toStdString());
-    if (!file) {
-        showProblem(QString::fromStdString(file.error().message()));
+    const auto table = openTable(path);
+    if (!table)
         return false;
-    }
-    const auto table = DelimitedTable::open(std::move(*file), delimiterChoice());
-    if (!table) {
-        showProblem(QString::fromStdString(table.error().message()));
-        return false;
-    }
     m_outcomesId->clear();
     m_outcome->clear();
     m_outcome->addItem(none);

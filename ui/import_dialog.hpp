@@ -1,5 +1,6 @@
 #pragma once
 
+#include "delimited_table.hpp"
 #include "input_error.hpp"
 #include "intake.hpp"
 
@@ -46,6 +47,8 @@ private:
     void fillColumnChoices(const std::vector<std::string>& header, const struct ColumnRoles& roles);
     void showPreview(const struct TablePreview& preview);
     void showProblem(const QString& text);
+    // The file read and split into fields; on failure the problem is shown and nullopt returned.
+    std::optional<DelimitedTable> openTable(const QString& path);
     void showIntake(const std::expected<IntakeResult, InputError>& result);
     void startCheck();
     std::optional<char> delimiterChoice() const;
