@@ -64,6 +64,7 @@ std::expected<AnalysisFile, InputError> AnalysisOptions::resolved(const CLI::App
         if (given("--c-interval")) p.cStatisticScale = panelGiven->cStatisticScale;
         if (given("--binomial-interval")) p.binomialInterval = panelGiven->binomialInterval;
         if (given("--nri-cuts")) p.nriCutPoints = panelGiven->nriCutPoints;
+        if (given("--decision-threshold")) p.decisionThreshold = panelGiven->decisionThreshold;
         if (given("--decision-range")) { p.decisionFrom = panelGiven->decisionFrom; p.decisionTo = panelGiven->decisionTo; p.decisionStep = panelGiven->decisionStep; }
         if (given("--period-unit")) p.periodUnit = panelGiven->periodUnit;
         if (given("--date-format")) p.dateFormat = panelGiven->dateFormat;

@@ -20,7 +20,7 @@ struct AnalysisOptions {
     PanelOptions panel;
     BootstrapOptions bootstrap;
     std::string addUpdated;
-    std::size_t minimumCell = 11;
+    std::size_t minimumCell = AnalysisFile{}.minimumCell;
     ReportFields report;
     std::string settingsFile;
     std::string saveSettingsFile;

@@ -11,7 +11,7 @@ namespace plumbline::cli {
 // The bootstrap options of `validate` (interface page), plus --stratified-bootstrap.
 struct BootstrapOptions {
     BootstrapSettings settings;
-    std::string ciMethod = "bca";
+    std::string ciMethod{bootstrapCiName(BootstrapSettings{}.method)}; // the core's default
 
     void addTo(CLI::App& command);
     BootstrapSettings resolved() const;

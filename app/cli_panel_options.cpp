@@ -2,15 +2,49 @@
 
 #include "field_values.hpp"
 
+#include <cstdio>
 #include <sstream>
 
 namespace plumbline::cli {
+
+namespace {
+
+std::string numberList(const std::vector<double>& values)
+{
+    std::string out;
+    for (double v : values) {
+        char buffer[32];
+        std::snprintf(buffer, sizeof buffer, "%g", v);
+        out += (out.empty() ? "" : ",") + std::string(buffer);
+    }
+    return out;
+}
+
+} // namespace
+
+PanelOptions::PanelOptions()
+{
+    const PanelSettings d;
+    thresholds = numberList(d.thresholds);
+    groups = d.riskGroups;
+    confidence = d.confidence;
+    decisionThreshold = d.decisionThreshold;
+    cInterval = d.cStatisticScale == CStatisticScale::Plain ? "plain" : "logit";
+    binomialInterval = d.binomialInterval == CiMethod::ClopperPearson ? "clopper-pearson" : "wilson";
+    nriCuts = numberList(d.nriCutPoints);
+    decisionRange = numberList({d.decisionFrom, d.decisionTo, d.decisionStep});
+    periodUnit = d.periodUnit == PeriodUnit::Quarter ? "quarter" : "month";
+    dateFormat = !d.dateFormat ? "iso" : *d.dateFormat == DateFormat::DayFirst ? "dmy" : "mdy";
+}
 
 void PanelOptions::addTo(CLI::App& command)
 {
     command.add_option("--thresholds", thresholds, "Decision thresholds, e.g. 0.1,0.2,0.3 (positive if risk >= t)");
     command.add_option("--groups", groups, "Number of risk groups for the calibration table")->check(CLI::Range(2, 100));
     command.add_option("--confidence", confidence, "Confidence level of the intervals")->check(CLI::Range(0.5, 0.999));
+    command.add_option("--decision-threshold", decisionThreshold,
+                       "The threshold the care team will act on, marked on the report's charts (default 0.2)")
+        ->check(CLI::Range(0.0, 1.0));
     command.add_option("--c-interval", cInterval, "Scale of the C statistic's interval")
         ->check(CLI::IsMember({"logit", "plain"}));
     command.add_option("--binomial-interval", binomialInterval, "Interval for proportions")
@@ -27,6 +61,7 @@ std::expected<PanelSettings, InputError> PanelOptions::resolved() const
     PanelSettings settings;
     settings.riskGroups = groups;
     settings.confidence = confidence;
+    settings.decisionThreshold = decisionThreshold;
     settings.cStatisticScale = cInterval == "plain" ? CStatisticScale::Plain : CStatisticScale::Logit;
     settings.binomialInterval = binomialInterval == "clopper-pearson" ? CiMethod::ClopperPearson : CiMethod::Wilson;
     auto risks = [](const std::string& text, const std::string& option, std::vector<double>& out) -> std::optional<InputError> {

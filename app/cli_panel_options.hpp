@@ -12,15 +12,20 @@ namespace plumbline::cli {
 
 // The metric-panel options of `validate` (names from the interface page, plus our own two).
 struct PanelOptions {
-    std::string thresholds = "0.1,0.2,0.3";
-    std::size_t groups = 10;
-    double confidence = 0.95;
-    std::string cInterval = "logit";
-    std::string binomialInterval = "wilson";
+    // Defaults come from PanelSettings{}: the one source of defaults for the CLI, the window and
+    // the analysis-file reader.
+    PanelOptions();
+
+    std::string thresholds;
+    std::size_t groups;
+    double confidence;
+    double decisionThreshold;
+    std::string cInterval;
+    std::string binomialInterval;
     std::string nriCuts;
-    std::string decisionRange = "0.05,0.50,0.01";
-    std::string periodUnit = "month";
-    std::string dateFormat = "iso";
+    std::string decisionRange;
+    std::string periodUnit;
+    std::string dateFormat;
 
     void addTo(CLI::App& command);
     std::expected<PanelSettings, InputError> resolved() const;

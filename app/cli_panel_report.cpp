@@ -1,6 +1,7 @@
 #include "cli_panel_report.hpp"
 
 #include "metric_reading.hpp"
+#include "value_text.hpp"
 
 #include <cstdio>
 #include <iomanip>
@@ -13,18 +14,7 @@ namespace {
 
 std::string number(const std::optional<double>& value, int digits = 3)
 {
-    if (!value)
-        return "-";
-    char buffer[32];
-    std::snprintf(buffer, sizeof buffer, "%.*f", digits, *value);
-    return buffer;
-}
-
-std::string pValue(double p)
-{
-    if (p < 0.001)
-        return "< 0.001";
-    return number(p, 3);
+    return fixedText(value, digits, "-");
 }
 
 std::string shortMethod(CiMethod method)
@@ -69,15 +59,15 @@ void printTests(std::ostream& out, const ModelValidation& model)
 {
     if (model.hosmerLemeshow)
         out << "  Hosmer-Lemeshow: chi2 " << number(model.hosmerLemeshow->statistic, 2) << ", df "
-            << model.hosmerLemeshow->df << " (one per risk group: external validation), p "
-            << pValue(model.hosmerLemeshow->pValue) << "; large cohorts reject small miscalibration, read the table\n";
+            << model.hosmerLemeshow->df << " (one per risk group: external validation), "
+            << pValueText(model.hosmerLemeshow->pValue) << "; large cohorts reject small miscalibration, read the table\n";
     if (model.spiegelhalter)
-        out << "  Spiegelhalter: z " << number(model.spiegelhalter->z, 2) << ", p " << pValue(model.spiegelhalter->pValue) << '\n';
+        out << "  Spiegelhalter: z " << number(model.spiegelhalter->z, 2) << ", " << pValueText(model.spiegelhalter->pValue) << '\n';
     if (model.likelihoodRatio) {
         const auto& lr = *model.likelihoodRatio;
-        out << "  Likelihood-ratio tests: intercept 0 and slope 1 jointly p " << pValue(lr.joint.pValue)
-            << "; calibration-in-the-large p " << pValue(lr.interceptOnly.pValue) << "; slope given intercept p "
-            << pValue(lr.slopeGivenIntercept.pValue) << '\n';
+        out << "  Likelihood-ratio tests: intercept 0 and slope 1 jointly " << pValueText(lr.joint.pValue)
+            << "; calibration-in-the-large " << pValueText(lr.interceptOnly.pValue) << "; slope given intercept "
+            << pValueText(lr.slopeGivenIntercept.pValue) << '\n';
     }
 }
 
@@ -128,7 +118,7 @@ void printComparisons(std::ostream& out, const ValidationResult& result)
         for (const auto& d : c.differences)
             out << "  " << std::left << std::setw(30) << differenceLabel(d.key) << std::right << std::setw(9)
                 << number(d.estimate.value, 4) << "   " << std::left << std::setw(22) << interval(d.estimate, 4)
-                << (d.pValue ? pValue(*d.pValue) : std::string("-")) << '\n';
+                << (d.pValue ? pValueText(*d.pValue) : std::string("-")) << '\n';
         for (std::size_t t = 0; t < c.netBenefitDifferences.size(); ++t)
             out << "  " << std::left << std::setw(30) << ("Net benefit at " + number(c.netBenefitThresholds[t], 2))
                 << std::right << std::setw(9) << number(c.netBenefitDifferences[t].estimate.value, 4) << "   " << std::left
@@ -191,7 +181,7 @@ void printSubgroups(std::ostream& out, const ValidationResult& result)
     for (const auto& h : result.subgroups->heterogeneity)
         if (h.df > 0)
             out << "  heterogeneity of " << metricLabel(h.metric) << " across " << h.column << " (" << h.model << "): Q " << number(h.q, 2)
-                << ", df " << h.df << ", p " << pValue(h.pValue) << '\n';
+                << ", df " << h.df << ", " << pValueText(h.pValue) << '\n';
     for (const auto& f : result.subgroups->funnel)
         if (f.oe < f.lower95 || f.oe > f.upper95)
             out << "  funnel: " << f.column << " = " << f.level << " (" << f.model << ") O/E " << number(f.oe) << " lies outside the "

@@ -79,6 +79,7 @@ std::expected<void, InputError> saveAnalysisFile(const std::string& path, const 
                        {"risk_groups", a.panel.riskGroups},
                        {"thresholds", a.panel.thresholds},
                        {"nri_cuts", a.panel.nriCutPoints},
+                       {"decision_threshold", a.panel.decisionThreshold},
                        {"decision_range", {a.panel.decisionFrom, a.panel.decisionTo, a.panel.decisionStep}},
                        {"period_unit", a.panel.periodUnit == PeriodUnit::Quarter ? "quarter" : "month"},
                        {"date_format", !a.panel.dateFormat ? "iso" : *a.panel.dateFormat == DateFormat::DayFirst ? "dmy" : "mdy"},
@@ -149,11 +150,12 @@ std::expected<AnalysisFile, InputError> loadAnalysisFile(const std::string& path
             a.intake.delimiter = r.at("delimiter").get<std::string>()[0];
         a.intake.decimalComma = r.value("decimal_comma", false);
         const Json& o = json.at("options");
-        a.panel.confidence = o.value("confidence", 0.95);
-        a.panel.riskGroups = o.value("risk_groups", std::size_t{10});
+        a.panel.confidence = o.value("confidence", a.panel.confidence);
+        a.panel.riskGroups = o.value("risk_groups", a.panel.riskGroups);
         a.panel.thresholds = o.value("thresholds", a.panel.thresholds);
-        a.panel.nriCutPoints = o.value("nri_cuts", std::vector<double>{});
-        const auto range = o.value("decision_range", std::vector<double>{0.05, 0.50, 0.01});
+        a.panel.nriCutPoints = o.value("nri_cuts", a.panel.nriCutPoints);
+        a.panel.decisionThreshold = o.value("decision_threshold", a.panel.decisionThreshold);
+        const auto range = o.value("decision_range", std::vector<double>{a.panel.decisionFrom, a.panel.decisionTo, a.panel.decisionStep});
         if (range.size() == 3) {
             a.panel.decisionFrom = range[0];
             a.panel.decisionTo = range[1];
@@ -167,12 +169,12 @@ std::expected<AnalysisFile, InputError> loadAnalysisFile(const std::string& path
             a.panel.dateFormat = DateFormat::MonthFirst;
         a.panel.cStatisticScale = o.value("c_statistic_interval", std::string("logit")) == "plain" ? CStatisticScale::Plain : CStatisticScale::Logit;
         a.panel.binomialInterval = o.value("binomial_interval", std::string("wilson")) == "clopper-pearson" ? CiMethod::ClopperPearson : CiMethod::Wilson;
-        a.bootstrap.replicates = o.value("bootstrap", std::size_t{1000});
-        a.bootstrap.seed = o.value("seed", std::uint64_t{20240101});
+        a.bootstrap.replicates = o.value("bootstrap", a.bootstrap.replicates);
+        a.bootstrap.seed = o.value("seed", a.bootstrap.seed);
         a.bootstrap.method = o.value("ci_method", std::string("bca")) == "percentile" ? BootstrapCi::Percentile : BootstrapCi::Bca;
-        a.bootstrap.stratified = o.value("stratified_bootstrap", false);
+        a.bootstrap.stratified = o.value("stratified_bootstrap", a.bootstrap.stratified);
         a.addUpdated = o.value("add_updated", std::string());
-        a.minimumCell = o.value("minimum_cell", std::size_t{11});
+        a.minimumCell = o.value("minimum_cell", a.minimumCell);
         a.panel.minimumCell = a.minimumCell;
         if (json.contains("report")) {
             const Json& t = json.at("report");

@@ -33,9 +33,12 @@ ColumnRoles guessColumnRoles(const TableProfile& profile)
         static const std::vector<std::vector<std::string>> pairs{{"0", "1"}, {"no", "yes"}, {"n", "y"}, {"false", "true"}};
         return c.type == "binary" && std::find(pairs.begin(), pairs.end(), c.levels) != pairs.end();
     };
+    auto outcomeNamed = [](const ColumnProfile& c) {
+        return nameHas(c.name, {"readmit", "outcome", "event", "died", "death", "status", "label"});
+    };
     for (int pass = 0; pass < 2 && !roles.outcome; ++pass)
         for (const auto& c : columns)
-            if (outcomeLike(c) && (pass == 1 || nameHas(c.name, {"readmit", "outcome", "event", "died", "death", "status", "label"}))) {
+            if (outcomeLike(c) && (pass == 1 || outcomeNamed(c))) {
                 roles.outcome = c.name;
                 break;
             }
@@ -66,7 +69,9 @@ ColumnRoles guessColumnRoles(const TableProfile& profile)
             roles.id = c.name;
         else if (!roles.period && c.type == "date")
             roles.period = c.name;
-        else if ((c.type == "text" || c.type == "binary") && c.distinct >= 2 && c.distinct <= 20)
+        // An outcome-named column the outcome guess passed over (three values, say) is a
+        // problem for the user to resolve, not a subgroup.
+        else if ((c.type == "text" || c.type == "binary") && c.distinct >= 2 && c.distinct <= 20 && !outcomeNamed(c))
             roles.groups.push_back(c.name);
     }
     return roles;

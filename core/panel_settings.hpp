@@ -19,6 +19,7 @@ struct PanelSettings {
     CiMethod binomialInterval = CiMethod::Wilson; // or ClopperPearson
     std::size_t rocPoints = 1000;                  // ROC points written out (C uses all data)
     std::size_t calibrationCurvePoints = 200;      // smoothed-curve points written out
+    double decisionThreshold = 0.2;                // the threshold the care team will act on: marked on charts
     std::vector<double> nriCutPoints;              // risk categories for the NRI; empty: the thresholds
     double decisionFrom = 0.05, decisionTo = 0.50, decisionStep = 0.01; // the decision curve's thresholds
     std::size_t minimumCell = 11;                  // subgroup levels below this are flagged too small

@@ -180,6 +180,7 @@ std::expected<PeriodAnalysis, InputError> analysePeriods(const Cohort& cohort, c
         subset(firstYear, y, p);
         const Estimate referenceOe = observedExpectedRatio(y, p, confidence);
         const Estimate referenceCitl = citl(y, p);
+        out.firstYear.push_back({cohort.models[m].name, cStatistic(y, p, CStatisticScale::Logit, confidence), referenceOe, referenceCitl});
         for (const auto& [period, index] : rows) {
             subset(index, y, p);
             PeriodResult r;

@@ -30,10 +30,17 @@ struct PeriodResult {
     bool outsideFirstYear = false;
 };
 
+// The first year's values that every later period is compared with, per model.
+struct PeriodReference {
+    std::string model;
+    Estimate c, oe, calibrationIntercept;
+};
+
 struct PeriodAnalysis {
     PeriodUnit unit = PeriodUnit::Month;
     std::vector<PeriodResult> results;       // by model, then period in time order
     std::vector<std::string> firstYearPeriods;
+    std::vector<PeriodReference> firstYear;   // one per model
     std::size_t undated = 0;                 // rows without a usable date, left out here
     std::vector<std::string> warnings;
     std::string note;                        // the usual causes of drift, for the reader

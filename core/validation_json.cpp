@@ -259,6 +259,7 @@ Json panelSettingsJson(const PanelSettings& settings)
     return {{"confidence", settings.confidence},
             {"risk_groups", settings.riskGroups},
             {"thresholds", settings.thresholds},
+            {"decision_threshold", settings.decisionThreshold},
             {"c_statistic_interval", settings.cStatisticScale == CStatisticScale::Logit ? "logit" : "plain"},
             {"binomial_interval", settings.binomialInterval == CiMethod::ClopperPearson ? "clopper-pearson" : "wilson"}};
 }

@@ -9,16 +9,15 @@
 
 namespace plumbline {
 
-ReportCharts::ReportCharts(const SnapshotPointer& snapshot)
+ReportCharts::ReportCharts(const SnapshotPointer& snapshot, std::optional<double> threshold)
     : m_roc(std::make_unique<RocChartView>())
     , m_calibration(std::make_unique<CalibrationChartView>())
 {
     m_roc->setSnapshot(snapshot);
     m_calibration->setSnapshot(snapshot);
-    // The charts mark the first decision threshold of the analysis.
-    const double threshold = snapshot && !snapshot->request.panel.thresholds.empty() ? snapshot->request.panel.thresholds.front() : 0.2;
-    m_roc->setThreshold(threshold);
-    m_calibration->setThreshold(threshold);
+    const double marked = threshold.value_or(snapshot ? snapshot->request.panel.decisionThreshold : PanelSettings{}.decisionThreshold);
+    m_roc->setThreshold(marked);
+    m_calibration->setThreshold(marked);
 }
 
 ReportCharts::~ReportCharts() = default;

@@ -9,6 +9,7 @@
 #include <QSize>
 
 #include <memory>
+#include <optional>
 
 class QPainter;
 
@@ -21,7 +22,9 @@ class RocChartView;
 // report and the window draw the same thing. Needs a QApplication (Qt Charts are widgets).
 class ReportCharts {
 public:
-    explicit ReportCharts(const SnapshotPointer& snapshot);
+    // The charts mark `threshold` (the window's current one); without it, the analysis's
+    // decision threshold.
+    explicit ReportCharts(const SnapshotPointer& snapshot, std::optional<double> threshold = std::nullopt);
     ~ReportCharts();
 
     static QSize logicalSize() { return {540, 420}; } // small, so its text reads well when scaled to half a page

@@ -75,3 +75,12 @@ TEST_CASE("A two-valued column that is not outcome-like is never guessed as the 
     CHECK_FALSE(roles.outcome.has_value()); // sex (F/M) is binary but no outcome
     CHECK(roles.scale == ScoreScale::Probability); // a stray 1.3 is not a percent scale
 }
+
+TEST_CASE("A three-valued outcome-named column is neither the outcome nor a pre-ticked subgroup", "[inspect]")
+{
+    auto table = DelimitedTable::open(*TextFile::fromBytes("three.csv", "readmitted,p,ward\nyes,0.2,A\nno,0.3,B\nmaybe,0.5,A\n"),
+                                      std::nullopt);
+    const auto roles = guessColumnRoles(*profileColumns(*table, 1000));
+    CHECK_FALSE(roles.outcome.has_value());
+    CHECK(roles.groups == std::vector<std::string>{"ward"});
+}
