@@ -1,38 +1,20 @@
 #include "cli_panel_options.hpp"
 
-#include "field_values.hpp"
-
-#include <cstdio>
-#include <sstream>
+#include "option_lists.hpp"
 
 namespace plumbline::cli {
-
-namespace {
-
-std::string numberList(const std::vector<double>& values)
-{
-    std::string out;
-    for (double v : values) {
-        char buffer[32];
-        std::snprintf(buffer, sizeof buffer, "%g", v);
-        out += (out.empty() ? "" : ",") + std::string(buffer);
-    }
-    return out;
-}
-
-} // namespace
 
 PanelOptions::PanelOptions()
 {
     const PanelSettings d;
-    thresholds = numberList(d.thresholds);
+    thresholds = riskListText(d.thresholds, ",");
     groups = d.riskGroups;
     confidence = d.confidence;
     decisionThreshold = d.decisionThreshold;
     cInterval = d.cStatisticScale == CStatisticScale::Plain ? "plain" : "logit";
     binomialInterval = d.binomialInterval == CiMethod::ClopperPearson ? "clopper-pearson" : "wilson";
-    nriCuts = numberList(d.nriCutPoints);
-    decisionRange = numberList({d.decisionFrom, d.decisionTo, d.decisionStep});
+    nriCuts = riskListText(d.nriCutPoints, ",");
+    decisionRange = riskListText({d.decisionFrom, d.decisionTo, d.decisionStep}, ",");
     periodUnit = d.periodUnit == PeriodUnit::Quarter ? "quarter" : "month";
     dateFormat = !d.dateFormat ? "iso" : *d.dateFormat == DateFormat::DayFirst ? "dmy" : "mdy";
 }
@@ -64,43 +46,20 @@ std::expected<PanelSettings, InputError> PanelOptions::resolved() const
     settings.decisionThreshold = decisionThreshold;
     settings.cStatisticScale = cInterval == "plain" ? CStatisticScale::Plain : CStatisticScale::Logit;
     settings.binomialInterval = binomialInterval == "clopper-pearson" ? CiMethod::ClopperPearson : CiMethod::Wilson;
-    auto risks = [](const std::string& text, const std::string& option, std::vector<double>& out) -> std::optional<InputError> {
-        out.clear();
-        std::stringstream list(text);
-        std::string item;
-        while (std::getline(list, item, ',')) {
-            const auto value = parseNumber(item, false);
-            if (!value || !(*value > 0.0 && *value < 1.0)) {
-                InputError error;
-                error.value = item;
-                error.problem = "each " + option + " value must be a risk strictly between 0 and 1.";
-                error.remedy = "give them as probabilities separated by commas, e.g. " + option + " 0.1,0.2,0.3.";
-                return error;
-            }
-            out.push_back(*value);
-        }
-        return std::nullopt;
-    };
-    if (auto error = risks(thresholds, "--thresholds", settings.thresholds))
-        return std::unexpected(*error);
-    if (auto error = risks(nriCuts, "--nri-cuts", settings.nriCutPoints))
-        return std::unexpected(*error);
-    std::vector<double> range;
-    std::stringstream parts(decisionRange);
-    std::string part;
-    while (std::getline(parts, part, ','))
-        if (const auto value = parseNumber(part, false))
-            range.push_back(*value);
-    if (range.size() != 3 || !(range[0] > 0.0 && range[0] < range[1] && range[1] < 1.0 && range[2] > 0.0)) {
-        InputError error;
-        error.value = decisionRange;
-        error.problem = "--decision-range takes three numbers: the first and last threshold (between 0 and 1) and the step.";
-        error.remedy = "e.g. --decision-range 0.05,0.50,0.01.";
-        return std::unexpected(error);
-    }
-    settings.decisionFrom = range[0];
-    settings.decisionTo = range[1];
-    settings.decisionStep = range[2];
+    const auto tableThresholds = parseRiskList(thresholds, "--thresholds");
+    if (!tableThresholds)
+        return std::unexpected(tableThresholds.error());
+    settings.thresholds = *tableThresholds;
+    const auto cuts = parseRiskList(nriCuts, "--nri-cuts");
+    if (!cuts)
+        return std::unexpected(cuts.error());
+    settings.nriCutPoints = *cuts;
+    const auto range = parseDecisionRange(decisionRange, "--decision-range");
+    if (!range)
+        return std::unexpected(range.error());
+    settings.decisionFrom = range->from;
+    settings.decisionTo = range->to;
+    settings.decisionStep = range->step;
     settings.periodUnit = periodUnit == "quarter" ? PeriodUnit::Quarter : PeriodUnit::Month;
     if (dateFormat == "dmy")
         settings.dateFormat = DateFormat::DayFirst;

@@ -3,9 +3,7 @@
 // options]` runs the analysis, renders the whole window to OUT.png and exits — no display needed.
 // As the composition root it catches what escapes and shows it once.
 #include "atomic_file.hpp"
-#include "cli_bootstrap_options.hpp"
-#include "cli_intake_options.hpp"
-#include "cli_panel_options.hpp"
+#include "cli_analysis_options.hpp"
 #include "main_window.hpp"
 #include "validation_task.hpp"
 #include "version.hpp"
@@ -25,9 +23,7 @@
 namespace {
 
 struct GuiOptions {
-    plumbline::cli::IntakeOptions intake;
-    plumbline::cli::PanelOptions panel;
-    plumbline::cli::BootstrapOptions bootstrap;
+    plumbline::cli::AnalysisOptions analysis; // the options of `plumbline-cli validate`
     std::string snapshot;
 };
 
@@ -83,9 +79,7 @@ int main(int argc, char** argv)
 
     CLI::App parser{"Plumbline workbench", "plumbline"};
     GuiOptions options;
-    options.intake.addTo(parser, false);
-    options.panel.addTo(parser);
-    options.bootstrap.addTo(parser);
+    options.analysis.addTo(parser);
     parser.add_option("--snapshot", options.snapshot, "Render the window with the results to this PNG and exit");
     std::vector<std::string> arguments;
     for (const QString& argument : QApplication::arguments().mid(1))
@@ -99,22 +93,20 @@ int main(int argc, char** argv)
 
     try {
         plumbline::MainWindow window;
-        const auto intake = options.intake.resolved(parser);
-        const auto panel = options.panel.resolved();
-        if (!intake || !panel) {
-            const std::string message = (!intake ? intake.error() : panel.error()).message();
+        std::vector<std::string> settingsWarnings;
+        const auto analysis = options.analysis.resolved(parser, settingsWarnings);
+        if (!analysis) {
+            const std::string message = analysis.error().message();
             if (!options.snapshot.empty()) {
                 std::cerr << "plumbline: error: " << message << '\n';
                 return 2;
             }
             QMessageBox::warning(nullptr, QStringLiteral("Plumbline"), QString::fromStdString(message));
         }
-        plumbline::AnalysisRequest request;
-        if (intake)
-            request.intake = *intake;
-        if (panel)
-            request.panel = *panel;
-        request.bootstrap = options.bootstrap.resolved();
+        for (const auto& warning : settingsWarnings)
+            std::cerr << "plumbline: warning: " << warning << '\n';
+        // The same defaults as the command line: everything not given comes from AnalysisFile{}.
+        const plumbline::AnalysisRequest request = plumbline::AnalysisRequest::fromAnalysisFile(analysis.value_or(plumbline::AnalysisFile{}));
         const bool complete = !request.intake.cohortFile.empty() && !request.intake.outcomeColumn.empty()
             && !request.intake.scoreColumns.empty();
         if (!options.snapshot.empty()) {

@@ -46,7 +46,7 @@ ColumnRoles guessColumnRoles(const TableProfile& profile)
     for (const auto& c : columns) {
         if (roles.outcome && c.name == *roles.outcome)
             continue;
-        const bool numeric = c.type == "number" || c.type == "integer" || (c.type == "text" && !c.minimum.empty());
+        const bool numeric = couldHoldScores(c);
         const bool named = nameHas(c.name, {"score", "risk", "prob", "pred"});
         if (numeric && (named || (c.type == "number" && maximumOf(c) <= 1.0)))
             roles.scores.push_back(c.name);
@@ -75,6 +75,11 @@ ColumnRoles guessColumnRoles(const TableProfile& profile)
             roles.groups.push_back(c.name);
     }
     return roles;
+}
+
+bool couldHoldScores(const ColumnProfile& c)
+{
+    return c.type == "number" || c.type == "integer" || (c.type == "text" && !c.minimum.empty());
 }
 
 TablePreview previewTable(const DelimitedTable& table, std::size_t maxRows)

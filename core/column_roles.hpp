@@ -22,6 +22,9 @@ struct ColumnRoles {
 
 ColumnRoles guessColumnRoles(const TableProfile& profile);
 
+// Numbers, or numbers with stray text the intake will count: a column that can hold scores.
+bool couldHoldScores(const ColumnProfile& column);
+
 // The first rows of a table as parsed (after quoting rules), with their line numbers.
 struct TablePreview {
     std::vector<std::string> header;

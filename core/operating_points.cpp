@@ -58,4 +58,9 @@ RiskHistogram riskHistogram(std::span<const std::uint8_t> outcome, std::span<con
     return h;
 }
 
+OperatingPoint treatAll(const OperatingPoint& point)
+{
+    return {point.threshold, point.tp + point.fn, point.fp + point.tn, 0, 0};
+}
+
 } // namespace plumbline

@@ -30,6 +30,9 @@ struct OperatingPointSummary {
 };
 OperatingPointSummary summarise(const OperatingPoint& point);
 
+// The same patients with everyone flagged (the treat-all strategy), at the same threshold.
+OperatingPoint treatAll(const OperatingPoint& point);
+
 // Predicted risks of events and of non-events in equal-width bins over [0, 1] (the calibration
 // plot's distribution strip).
 struct RiskHistogram {

@@ -23,6 +23,16 @@ std::string fixedText(const std::optional<double>& value, int digits, const std:
     return value ? fixedText(*value, digits) : missing;
 }
 
+std::string estimateText(const Estimate& e, int digits, const std::string& missing)
+{
+    if (!e.value)
+        return missing;
+    std::string text = fixedText(*e.value, digits);
+    if (e.lower && e.upper)
+        text += " (" + fixedText(*e.lower, digits) + " to " + fixedText(*e.upper, digits) + ")";
+    return text;
+}
+
 std::string pValueText(double p)
 {
     if (!std::isfinite(p))

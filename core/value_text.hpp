@@ -16,6 +16,10 @@ namespace plumbline {
 std::string fixedText(double value, int digits);
 std::string fixedText(const std::optional<double>& value, int digits, const std::string& missing = "–");
 
+// "0.719 (0.710 to 0.728)", or the value alone when there is no interval; `missing` when the
+// estimate is undefined.
+std::string estimateText(const Estimate& estimate, int digits, const std::string& missing = "–");
+
 // "p < 0.001", "p = 0.372", "p > 0.999".
 std::string pValueText(double p);
 

@@ -2,6 +2,7 @@
 
 #include "chart_style.hpp"
 #include "model_palette.hpp"
+#include "value_text.hpp"
 
 #include <QAreaSeries>
 #include <QChart>
@@ -32,6 +33,11 @@ double axisEnd(const ValidationResult& result)
     return std::min(1.0, std::ceil(top * 10.0 - 1e-9) / 10.0);
 }
 
+QString text(double value, int digits)
+{
+    return QString::fromStdString(fixedText(value, digits));
+}
+
 } // namespace
 
 CalibrationChartView::CalibrationChartView(QWidget* parent)
@@ -39,8 +45,11 @@ CalibrationChartView::CalibrationChartView(QWidget* parent)
 {
     auto* chart = new QChart;
     styleChart(chart, tr("Calibration: observed against predicted risk"));
+    chart->legend()->setAlignment(Qt::AlignRight);
     setChart(chart);
-    setMinimumSize(320, 200);
+    setMinimumSize(320, 240);
+    setSquarePlot(true);
+    setObjectName(QStringLiteral("calibration-plot"));
     setAccessibleName(tr("Calibration plot"));
 }
 
@@ -50,19 +59,40 @@ void CalibrationChartView::attach(QAbstractSeries* series, bool inLegend)
     for (QAbstractAxis* axis : chart()->axes())
         series->attachAxis(axis);
     if (!inLegend)
-        for (QLegendMarker* marker : chart()->legend()->markers(series))
-            marker->setVisible(false);
+        keepOutOfLegend(series);
+}
+
+int CalibrationChartView::groupAt(int model, const QPointF& point) const
+{
+    const auto& groups = m_snapshot->validation.models[static_cast<std::size_t>(model)].riskGroups;
+    for (std::size_t k = 0; k < groups.size(); ++k)
+        if (groups[k].meanPredicted == point.x() && groups[k].observedRate == point.y())
+            return static_cast<int>(k);
+    return -1;
+}
+
+QString CalibrationChartView::groupTip(int model, int group) const
+{
+    const ModelValidation& m = m_snapshot->validation.models[static_cast<std::size_t>(model)];
+    const RiskGroup& g = m.riskGroups[static_cast<std::size_t>(group)];
+    return tr("%1, risk group %2 (risks %3–%4)\n%5 patients, %6 with the event\nmean predicted %7, observed %8 (%9–%10)")
+        .arg(QString::fromStdString(m.name))
+        .arg(g.group)
+        .arg(text(g.riskMin, 3), text(g.riskMax, 3))
+        .arg(g.n)
+        .arg(g.events)
+        .arg(text(g.meanPredicted, 3), text(g.observedRate, 3), text(g.ciLower, 3), text(g.ciUpper, 3));
 }
 
 void CalibrationChartView::setSnapshot(SnapshotPointer snapshot)
 {
     m_snapshot = std::move(snapshot);
     QChart* c = chart();
-    clearChart(c);
+    resetChart();
     m_series.clear();
+    m_highlightModel = -1;
     m_maximum = m_snapshot ? axisEnd(m_snapshot->validation) : 1.0;
-    c->addAxis(probabilityAxis(tr("Predicted risk  (points: risk groups with 95 % CI; lines: smoothed, with band)"), m_maximum),
-               Qt::AlignBottom);
+    c->addAxis(probabilityAxis(tr("Predicted risk"), m_maximum), Qt::AlignBottom);
     c->addAxis(probabilityAxis(tr("Observed proportion"), m_maximum), Qt::AlignLeft);
     auto* ideal = new QLineSeries;
     ideal->setName(tr("Ideal"));
@@ -75,6 +105,7 @@ void CalibrationChartView::setSnapshot(SnapshotPointer snapshot)
         for (std::size_t m = 0; m < models.size(); ++m) {
             const int index = static_cast<int>(m);
             const ModelValidation& model = models[m];
+            const QString name = QString::fromStdString(model.name);
             ModelSeries s;
             if (!model.calibrationBand.x.empty()) {
                 auto* upper = new QLineSeries;
@@ -84,6 +115,8 @@ void CalibrationChartView::setSnapshot(SnapshotPointer snapshot)
                     lower->append(model.calibrationBand.x[j], std::clamp(model.calibrationBand.lower[j], 0.0, m_maximum));
                 }
                 s.band = new QAreaSeries(upper, lower);
+                upper->setParent(s.band); // the area series does not own its boundary lines
+                lower->setParent(s.band);
                 s.band->setColor(bandColour(index));
                 s.band->setBorderColor(Qt::transparent);
                 attach(s.band, false);
@@ -92,7 +125,7 @@ void CalibrationChartView::setSnapshot(SnapshotPointer snapshot)
                 s.curve = new QLineSeries;
                 for (const auto& point : model.calibrationCurve) // clamped for display only
                     s.curve->append(point.predicted, std::clamp(point.observed, 0.0, m_maximum));
-                s.curve->setName(QString::fromStdString(model.name));
+                s.curve->setName(tr("%1 (smoothed)").arg(name));
                 s.curve->setPen(QPen(modelColour(index), 2));
                 attach(s.curve, true);
             }
@@ -105,55 +138,61 @@ void CalibrationChartView::setSnapshot(SnapshotPointer snapshot)
                 s.whiskers.push_back(whisker);
             }
             s.groups = new QScatterSeries;
-            s.groups->setName(tr("%1 (risk groups)").arg(QString::fromStdString(model.name)));
+            s.groups->setName(tr("%1 (risk groups, %2 % CI)").arg(name).arg(m_snapshot->validation.settings.confidence * 100.0));
             s.groups->setMarkerSize(8);
             s.groups->setColor(modelColour(index));
             s.groups->setBorderColor(Qt::white);
             for (const auto& g : model.riskGroups)
                 s.groups->append(g.meanPredicted, g.observedRate);
-            attach(s.groups, false);
+            attach(s.groups, true);
             connect(s.groups, &QScatterSeries::hovered, this, [this, index](const QPointF& point, bool state) {
-                if (!state) {
-                    emit riskGroupHovered(index, -1);
-                    return;
-                }
-                const auto& groups = m_snapshot->validation.models[static_cast<std::size_t>(index)].riskGroups;
-                for (std::size_t k = 0; k < groups.size(); ++k)
-                    if (groups[k].meanPredicted == point.x() && groups[k].observedRate == point.y())
-                        emit riskGroupHovered(index, static_cast<int>(k));
+                const int group = state ? groupAt(index, point) : -1;
+                if (group >= 0)
+                    showValueTip(groupTip(index, group));
+                emit riskGroupHovered(index, group);
+            });
+            connect(s.groups, &QScatterSeries::clicked, this, [this, index](const QPointF& point) {
+                const int group = groupAt(index, point);
+                if (group >= 0)
+                    emit riskGroupClicked(index, group);
             });
             m_series.push_back(s);
         }
     }
+    m_visible.assign(m_series.size(), true);
     m_highlight = new QScatterSeries;
     m_highlight->setMarkerSize(18);
     m_highlight->setColor(Qt::transparent);
     m_highlight->setBorderColor(QColor(30, 30, 30));
     attach(m_highlight, false);
     m_thresholdLine = new QLineSeries;
-    m_thresholdLine->setName(tr("Threshold"));
-    m_thresholdLine->setPen(QPen(QColor(60, 60, 60), 1.2, Qt::DotLine));
-    attach(m_thresholdLine, false);
+    m_thresholdLine->setPen(thresholdPen());
+    attach(m_thresholdLine, true);
     setThreshold(m_threshold);
+    fitPlotArea();
 }
 
 void CalibrationChartView::setThreshold(double threshold)
 {
     m_threshold = threshold;
-    if (m_thresholdLine)
-        m_thresholdLine->replace(QList<QPointF>{QPointF(threshold, 0.0), QPointF(threshold, m_maximum)});
+    if (!m_thresholdLine)
+        return;
+    m_thresholdLine->replace(QList<QPointF>{QPointF(threshold, 0.0), QPointF(threshold, m_maximum)});
+    m_thresholdLine->setName(thresholdName(threshold));
 }
 
 void CalibrationChartView::setModelVisible(int model, bool visible)
 {
     if (model < 0 || model >= static_cast<int>(m_series.size()))
         return;
+    m_visible[static_cast<std::size_t>(model)] = visible;
     const ModelSeries& s = m_series[static_cast<std::size_t>(model)];
     for (QAbstractSeries* series : std::initializer_list<QAbstractSeries*>{s.groups, s.curve, s.band})
-        if (series)
-            series->setVisible(visible);
+        setSeriesVisible(series, visible);
     for (QLineSeries* whisker : s.whiskers)
-        whisker->setVisible(visible);
+        setSeriesVisible(whisker, visible);
+    if (!visible && model == m_highlightModel)
+        highlightRiskGroup(-1, -1); // no ring around a point that is not shown
 }
 
 void CalibrationChartView::highlightRiskGroup(int model, int group)
@@ -161,12 +200,15 @@ void CalibrationChartView::highlightRiskGroup(int model, int group)
     if (!m_highlight)
         return;
     m_highlight->clear();
-    if (!m_snapshot || model < 0 || group < 0 || model >= static_cast<int>(m_snapshot->validation.models.size()))
+    m_highlightModel = -1;
+    if (!m_snapshot || model < 0 || group < 0 || model >= static_cast<int>(m_snapshot->validation.models.size())
+        || !m_visible[static_cast<std::size_t>(model)])
         return;
     const auto& groups = m_snapshot->validation.models[static_cast<std::size_t>(model)].riskGroups;
-    if (group < static_cast<int>(groups.size()))
-        m_highlight->append(groups[static_cast<std::size_t>(group)].meanPredicted,
-                            groups[static_cast<std::size_t>(group)].observedRate);
+    if (group < static_cast<int>(groups.size())) {
+        m_highlight->append(groups[static_cast<std::size_t>(group)].meanPredicted, groups[static_cast<std::size_t>(group)].observedRate);
+        m_highlightModel = model;
+    }
 }
 
 double CalibrationChartView::thresholdLineX() const

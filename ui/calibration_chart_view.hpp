@@ -33,6 +33,7 @@ public:
 
 signals:
     void riskGroupHovered(int model, int group);
+    void riskGroupClicked(int model, int group);
 
 private:
     struct ModelSeries {
@@ -42,11 +43,15 @@ private:
         std::vector<QLineSeries*> whiskers;
     };
     void attach(QAbstractSeries* series, bool inLegend);
+    int groupAt(int model, const QPointF& point) const;
+    QString groupTip(int model, int group) const;
 
     SnapshotPointer m_snapshot;
     std::vector<ModelSeries> m_series;
     QLineSeries* m_thresholdLine = nullptr;
     QScatterSeries* m_highlight = nullptr;
+    std::vector<bool> m_visible;
+    int m_highlightModel = -1;
     double m_maximum = 1.0;
     double m_threshold = 0.2;
 };

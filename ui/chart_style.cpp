@@ -4,17 +4,47 @@
 #include <QFont>
 #include <QValueAxis>
 
+#include <cmath>
+
 namespace plumbline {
+
+namespace {
+
+QFont chartFont(int points)
+{
+    return QFont(QStringLiteral("DejaVu Sans"), points);
+}
+
+// The 1-2-5 step that gives about `wanted` intervals over `span`.
+double niceStep(double span, int wanted)
+{
+    const double raw = span / std::max(1, wanted);
+    const double magnitude = std::pow(10.0, std::floor(std::log10(raw)));
+    for (const double factor : {1.0, 2.0, 2.5, 5.0, 10.0})
+        if (factor * magnitude >= raw)
+            return factor * magnitude;
+    return 10.0 * magnitude;
+}
+
+int decimalsFor(double step)
+{
+    int decimals = 0;
+    while (decimals < 6 && std::abs(step * std::pow(10.0, decimals) - std::round(step * std::pow(10.0, decimals))) > 1e-9)
+        ++decimals;
+    return decimals;
+}
+
+} // namespace
 
 void styleChart(QChart* chart, const QString& title)
 {
-    QFont titleFont(QStringLiteral("DejaVu Sans"), 11);
+    QFont titleFont = chartFont(10);
     titleFont.setBold(true);
     chart->setTitleFont(titleFont);
     chart->setTitle(title);
     chart->setAnimationOptions(QChart::NoAnimation);
     chart->setBackgroundRoundness(0);
-    chart->legend()->setFont(QFont(QStringLiteral("DejaVu Sans"), 9));
+    chart->legend()->setFont(chartFont(8));
     chart->legend()->setAlignment(Qt::AlignBottom);
     chart->setMargins(QMargins(4, 4, 4, 4));
 }
@@ -30,8 +60,27 @@ QValueAxis* probabilityAxis(const QString& title, double maximum)
     axis->setTickAnchor(0.0);
     axis->setTickInterval(maximum > 0.6 ? 0.2 : 0.1);
     axis->setLabelFormat(QStringLiteral("%.1f"));
-    axis->setTitleFont(QFont(QStringLiteral("DejaVu Sans"), 9));
-    axis->setLabelsFont(QFont(QStringLiteral("DejaVu Sans"), 8));
+    axis->setTitleFont(chartFont(9));
+    axis->setLabelsFont(chartFont(8));
+    return axis;
+}
+
+QValueAxis* roundAxis(const QString& title, double low, double high, int wantedTicks)
+{
+    if (!(high > low)) {
+        low -= 0.5;
+        high += 0.5;
+    }
+    const double step = niceStep(high - low, wantedTicks);
+    auto* axis = new QValueAxis;
+    axis->setRange(std::floor(low / step + 1e-9) * step, std::ceil(high / step - 1e-9) * step);
+    axis->setTitleText(title);
+    axis->setTickType(QValueAxis::TicksDynamic);
+    axis->setTickAnchor(0.0);
+    axis->setTickInterval(step);
+    axis->setLabelFormat(QStringLiteral("%.%1f").arg(decimalsFor(step)));
+    axis->setTitleFont(chartFont(9));
+    axis->setLabelsFont(chartFont(8));
     return axis;
 }
 
@@ -49,6 +98,16 @@ void addOnAxes(QChart* chart, QAbstractSeries* series, QAbstractAxis* x, QAbstra
     chart->addSeries(series);
     series->attachAxis(x);
     series->attachAxis(y);
+}
+
+QPen thresholdPen()
+{
+    return QPen(QColor(200, 40, 40), 1.2, Qt::DashLine);
+}
+
+QString thresholdName(double threshold)
+{
+    return QObject::tr("Threshold %1").arg(threshold, 0, 'f', 3);
 }
 
 } // namespace plumbline

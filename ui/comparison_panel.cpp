@@ -2,6 +2,7 @@
 
 #include "model_comparison.hpp"
 #include "roc_chart_view.hpp"
+#include "value_text.hpp"
 
 #include <QComboBox>
 #include <QCoreApplication>
@@ -37,7 +38,7 @@ QString differenceName(const std::string& key)
 
 QString number(const std::optional<double>& v, int digits = 4)
 {
-    return v ? QString::number(*v, 'f', digits) : QStringLiteral("–");
+    return QString::fromStdString(fixedText(v, digits));
 }
 
 } // namespace
@@ -51,7 +52,7 @@ ComparisonPanel::ComparisonPanel(QWidget* parent)
     , m_cautions(new QLabel)
 {
     m_differences->setColumnCount(5);
-    m_differences->setHorizontalHeaderLabels({tr("Difference (B − A)"), tr("Estimate"), tr("Interval"), tr("Interval from"), tr("p (test)")});
+    m_differences->setHorizontalHeaderLabels({tr("Difference (B − A)"), tr("Estimate"), tr("Interval"), tr("Interval from"), tr("Test")});
     m_differences->verticalHeader()->hide();
     m_differences->setEditTriggers(QAbstractItemView::NoEditTriggers);
     m_differences->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
@@ -119,8 +120,8 @@ void ComparisonPanel::showPair(int index)
         const int row = m_differences->rowCount();
         m_differences->insertRow(row);
         const QString interval = d.estimate.lower ? QStringLiteral("%1 to %2").arg(number(d.estimate.lower), number(d.estimate.upper)) : QStringLiteral("–");
-        const QString source = d.estimate.lower ? QString::fromStdString(ciMethodName(d.estimate.ciMethod)) : QString();
-        const QString p = d.pValue ? (*d.pValue < 0.001 ? QStringLiteral("< 0.001") : QString::number(*d.pValue, 'f', 3)) : QStringLiteral("–");
+        const QString source = d.estimate.lower ? QString::fromStdString(ciMethodLabel(d.estimate.ciMethod)) : QString();
+        const QString p = d.pValue ? QString::fromStdString(pValueText(*d.pValue)) : QStringLiteral("–");
         const QStringList cells{name, number(d.estimate.value), interval, source, p};
         for (int column = 0; column < cells.size(); ++column)
             m_differences->setItem(row, column, new QTableWidgetItem(cells[column]));
@@ -145,8 +146,8 @@ void ComparisonPanel::showPair(int index)
         m_atThreshold->setText(tr("At threshold %1: A flags %2 %, sensitivity %3, net benefit %4; "
                                   "B flags %5 %, sensitivity %6, net benefit %7.")
                                    .arg(m_threshold, 0, 'f', 3)
-                                   .arg(100.0 * sa.flagRate, 0, 'f', 1).arg(number(sa.sensitivity, 3)).arg(sa.netBenefit, 0, 'f', 4)
-                                   .arg(100.0 * sb.flagRate, 0, 'f', 1).arg(number(sb.sensitivity, 3)).arg(sb.netBenefit, 0, 'f', 4));
+                                   .arg(100.0 * sa.flagRate, 0, 'f', 1).arg(number(sa.sensitivity, 3)).arg(number(sa.netBenefit, 4))
+                                   .arg(100.0 * sb.flagRate, 0, 'f', 1).arg(number(sb.sensitivity, 3)).arg(number(sb.netBenefit, 4)));
     }
     const ReclassificationTable& r = c.reclassification;
     const int categories = int(r.events.size());

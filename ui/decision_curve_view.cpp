@@ -2,6 +2,7 @@
 
 #include "chart_style.hpp"
 #include "model_palette.hpp"
+#include "value_text.hpp"
 
 #include <QAreaSeries>
 #include <QChart>
@@ -10,52 +11,72 @@
 #include <QValueAxis>
 
 #include <algorithm>
+#include <cmath>
 
 namespace plumbline {
+
+namespace {
+
+QString text(double value, int digits)
+{
+    return QString::fromStdString(fixedText(value, digits));
+}
+
+// The decision-curve point nearest to a hovered threshold.
+QString curveTip(const ModelValidation& model, double threshold)
+{
+    const auto& curve = model.decisionCurve;
+    const auto nearest = std::min_element(curve.begin(), curve.end(), [&](const auto& a, const auto& b) {
+        return std::abs(a.threshold - threshold) < std::abs(b.threshold - threshold);
+    });
+    if (nearest == curve.end())
+        return {};
+    return QObject::tr("%1 at threshold %2\nnet benefit %3 (treat all %4), standardised %5")
+        .arg(QString::fromStdString(model.name), text(nearest->threshold, 2), text(nearest->netBenefit, 4),
+             text(nearest->treatAll, 4), text(nearest->standardized, 3));
+}
+
+} // namespace
 
 DecisionCurveView::DecisionCurveView(QWidget* parent)
     : ExportableChartView(parent)
 {
     auto* chart = new QChart;
-    styleChart(chart, tr("Decision curve"));
+    styleChart(chart, tr("Decision curve: net benefit by threshold"));
+    chart->legend()->setAlignment(Qt::AlignRight);
     setChart(chart);
     setMinimumSize(320, 240);
+    setObjectName(QStringLiteral("decision-curve"));
     setAccessibleName(tr("Decision curve"));
 }
 
 void DecisionCurveView::setSnapshot(SnapshotPointer snapshot)
 {
+    m_snapshot = std::move(snapshot);
     QChart* c = chart();
-    c->removeAllSeries();
+    resetChart();
+    m_series.clear();
     m_thresholdLine = nullptr;
-    for (QAbstractAxis* axis : c->axes()) {
-        c->removeAxis(axis);
-        delete axis;
-    }
-    if (!snapshot || snapshot->validation.models.empty() || snapshot->validation.models.front().decisionCurve.empty())
+    if (!m_snapshot || m_snapshot->validation.models.empty() || m_snapshot->validation.models.front().decisionCurve.empty())
         return;
-    const auto& models = snapshot->validation.models;
+    const auto& models = m_snapshot->validation.models;
     const auto& grid = models.front().decisionCurve;
     double top = 0.0;
     for (const auto& m : models)
         for (const auto& p : m.decisionCurve)
             top = std::max({top, p.netBenefit, p.treatAll, p.upper.value_or(0.0)});
-    m_top = top > 0.0 ? top * 1.1 : 0.05;
-    m_bottom = -0.25 * m_top;
+    top = top > 0.0 ? top * 1.1 : 0.05;
     auto* x = probabilityAxis(tr("Threshold probability"), grid.back().threshold);
     x->setMin(grid.front().threshold);
-    auto* y = new QValueAxis;
-    y->setTitleText(tr("Net benefit"));
-    y->setRange(m_bottom, m_top);
-    y->applyNiceNumbers(); // round tick values; the threshold line spans the rounded range
+    auto* y = roundAxis(tr("Net benefit"), -0.25 * top, top);
     m_bottom = y->min();
     m_top = y->max();
-    y->setLabelFormat(QStringLiteral("%.2f"));
     c->addAxis(x, Qt::AlignBottom);
     c->addAxis(y, Qt::AlignLeft);
     auto add = [&](QAbstractSeries* series) { addOnAxes(c, series, x, y); };
     for (std::size_t m = 0; m < models.size(); ++m) {
         const auto& curve = models[m].decisionCurve;
+        ModelSeries s;
         if (curve.front().lower) {
             auto* lower = new QLineSeries;
             auto* upper = new QLineSeries;
@@ -63,18 +84,25 @@ void DecisionCurveView::setSnapshot(SnapshotPointer snapshot)
                 lower->append(p.threshold, std::clamp(p.lower.value_or(p.netBenefit), m_bottom, m_top));
                 upper->append(p.threshold, std::clamp(p.upper.value_or(p.netBenefit), m_bottom, m_top));
             }
-            auto* band = new QAreaSeries(upper, lower);
-            band->setName(tr("%1 (bootstrap band)").arg(QString::fromStdString(models[m].name)));
-            band->setColor(bandColour(int(m)));
-            band->setBorderColor(Qt::transparent);
-            add(band);
+            s.band = new QAreaSeries(upper, lower);
+            upper->setParent(s.band); // the area series does not own its boundary lines
+            lower->setParent(s.band);
+            s.band->setName(tr("%1 (bootstrap band)").arg(QString::fromStdString(models[m].name)));
+            s.band->setColor(bandColour(int(m)));
+            s.band->setBorderColor(Qt::transparent);
+            add(s.band);
         }
-        auto* line = new QLineSeries;
-        line->setName(QString::fromStdString(models[m].name));
+        s.curve = new QLineSeries;
+        s.curve->setName(QString::fromStdString(models[m].name));
         for (const auto& p : curve)
-            line->append(p.threshold, std::clamp(p.netBenefit, m_bottom, m_top));
-        line->setPen(QPen(modelColour(int(m)), 2));
-        add(line);
+            s.curve->append(p.threshold, std::clamp(p.netBenefit, m_bottom, m_top));
+        s.curve->setPen(QPen(modelColour(int(m)), 2));
+        add(s.curve);
+        connect(s.curve, &QLineSeries::hovered, this, [this, m](const QPointF& point, bool state) {
+            if (state && m_snapshot)
+                showValueTip(curveTip(m_snapshot->validation.models[m], point.x()));
+        });
+        m_series.push_back(s);
     }
     auto* all = new QLineSeries;
     all->setName(tr("Treat all"));
@@ -90,18 +118,31 @@ void DecisionCurveView::setSnapshot(SnapshotPointer snapshot)
     none->setPen(QPen(QColor(90, 90, 90), 1.5, Qt::DotLine));
     add(none);
     m_thresholdLine = new QLineSeries;
-    m_thresholdLine->setName(tr("Threshold"));
-    m_thresholdLine->setPen(QPen(QColor(200, 40, 40), 1, Qt::DashDotLine));
+    m_thresholdLine->setPen(thresholdPen());
     add(m_thresholdLine);
+    setThreshold(m_threshold);
 }
 
 void DecisionCurveView::setThreshold(double threshold)
 {
+    m_threshold = threshold;
     if (!m_thresholdLine)
         return;
-    m_thresholdLine->clear();
-    m_thresholdLine->append(threshold, m_bottom);
-    m_thresholdLine->append(threshold, m_top);
+    m_thresholdLine->replace(QList<QPointF>{QPointF(threshold, m_bottom), QPointF(threshold, m_top)});
+    m_thresholdLine->setName(thresholdName(threshold));
+}
+
+void DecisionCurveView::setModelVisible(int model, bool visible)
+{
+    if (model < 0 || model >= static_cast<int>(m_series.size()))
+        return;
+    setSeriesVisible(m_series[std::size_t(model)].curve, visible);
+    setSeriesVisible(m_series[std::size_t(model)].band, visible);
+}
+
+double DecisionCurveView::thresholdLineX() const
+{
+    return m_thresholdLine && m_thresholdLine->count() > 0 ? m_thresholdLine->at(0).x() : -1.0;
 }
 
 } // namespace plumbline

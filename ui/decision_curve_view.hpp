@@ -3,6 +3,9 @@
 #include "analysis_snapshot.hpp"
 #include "exportable_chart_view.hpp"
 
+#include <vector>
+
+class QAreaSeries;
 class QLineSeries;
 
 namespace plumbline {
@@ -18,10 +21,19 @@ public:
 
     void setSnapshot(SnapshotPointer snapshot);
     void setThreshold(double threshold);
+    void setModelVisible(int model, bool visible);
+    double thresholdLineX() const;
 
 private:
+    struct ModelSeries {
+        QLineSeries* curve = nullptr;
+        QAreaSeries* band = nullptr;
+    };
+    SnapshotPointer m_snapshot;
+    std::vector<ModelSeries> m_series;
     QLineSeries* m_thresholdLine = nullptr;
     double m_bottom = -0.05, m_top = 0.1;
+    double m_threshold = 0.2;
 };
 
 } // namespace plumbline

@@ -2,6 +2,7 @@
 
 #include "chart_style.hpp"
 #include "model_palette.hpp"
+#include "value_text.hpp"
 
 #include <QCategoryAxis>
 #include <QChart>
@@ -23,7 +24,7 @@ ForestChartView::ForestChartView(const QString& title, const QString& axisTitle,
     styleChart(chart, title);
     chart->legend()->setVisible(false);
     setChart(chart);
-    setMinimumSize(280, 220);
+    setMinimumSize(240, 180);
     setAccessibleName(title);
 }
 
@@ -31,7 +32,7 @@ void ForestChartView::setRows(const std::vector<ForestRow>& rows, const Estimate
                               int modelIndex)
 {
     QChart* c = chart();
-    clearChart(c);
+    resetChart();
     if (rows.empty())
         return;
     // Rows from the top: "All patients" first, then the levels in the order given.
@@ -46,11 +47,7 @@ void ForestChartView::setRows(const std::vector<ForestRow>& rows, const Estimate
     if (!std::isfinite(low) || !std::isfinite(high))
         return;
     const double pad = std::max(0.02, 0.08 * (high - low));
-    auto* x = new QValueAxis;
-    x->setRange(low - pad, high + pad);
-    x->setTitleText(m_axisTitle);
-    x->setLabelFormat(QStringLiteral("%.2f"));
-    x->setLabelsFont(QFont(QStringLiteral("DejaVu Sans"), 8));
+    auto* x = roundAxis(m_axisTitle, low - pad, high + pad, 4);
     auto* y = new QCategoryAxis;
     y->setLabelsPosition(QCategoryAxis::AxisLabelsPositionOnValue);
     y->setLabelsFont(QFont(QStringLiteral("DejaVu Sans"), 8));
@@ -102,6 +99,18 @@ void ForestChartView::setRows(const std::vector<ForestRow>& rows, const Estimate
     }
     add(points);
     add(hollow);
+    // A hovered point names its row and values.
+    for (QScatterSeries* series : {points, hollow})
+        connect(series, &QScatterSeries::hovered, this, [all, count](const QPointF& point, bool state) {
+            const auto k = static_cast<std::ptrdiff_t>(std::lround(count - 1.0 - point.y()));
+            if (!state || k < 0 || k >= static_cast<std::ptrdiff_t>(all.size()))
+                return;
+            const ForestRow& r = all[static_cast<std::size_t>(k)];
+            QString tip = QStringLiteral("%1: %2").arg(QString::fromStdString(r.label), QString::fromStdString(estimateText(r.estimate, 3)));
+            if (!r.mark.empty())
+                tip += QStringLiteral("\n") + QString::fromStdString(r.mark);
+            showValueTip(tip);
+        });
 }
 
 } // namespace plumbline

@@ -4,20 +4,24 @@
 #include "copyable_table_view.hpp"
 #include "delimited_table.hpp"
 #include "intake_audit_model.hpp"
+#include "save_location.hpp"
 
 #include <QCheckBox>
 #include <QComboBox>
 #include <QDialogButtonBox>
-#include <QFileDialog>
 #include <QFormLayout>
 #include <QGroupBox>
+#include <QGuiApplication>
 #include <QHBoxLayout>
 #include <QHeaderView>
+#include <QKeyEvent>
 #include <QLabel>
 #include <QLineEdit>
 #include <QListWidget>
 #include <QLocale>
 #include <QPushButton>
+#include <QScreen>
+#include <QScrollArea>
 #include <QSplitter>
 #include <QTableWidget>
 #include <QVBoxLayout>
@@ -28,6 +32,7 @@ namespace plumbline {
 namespace {
 
 const QString none = QObject::tr("(none)");
+const QString delimitedFiles = QObject::tr("Delimited text (*.csv *.tsv *.txt);;All files (*)");
 
 QStringList checkedItems(const QListWidget* list)
 {
@@ -45,6 +50,22 @@ std::optional<std::string> chosen(const QComboBox* box)
     return box->currentText().toStdString();
 }
 
+// A push button that Return never presses unless it is the dialog's default.
+QPushButton* plainButton(const QString& text)
+{
+    auto* button = new QPushButton(text);
+    button->setAutoDefault(false);
+    return button;
+}
+
+QComboBox* columnBox()
+{
+    auto* box = new QComboBox;
+    box->setSizeAdjustPolicy(QComboBox::AdjustToContents);
+    box->setMinimumContentsLength(14);
+    return box;
+}
+
 } // namespace
 
 ImportDialog::ImportDialog(QWidget* parent)
@@ -52,24 +73,27 @@ ImportDialog::ImportDialog(QWidget* parent)
     , m_file(new QLineEdit)
     , m_twoFiles(new QCheckBox(tr("Outcomes are in a &second file, joined on an id")))
     , m_outcomesFile(new QLineEdit)
-    , m_outcomesId(new QComboBox)
+    , m_outcomesId(columnBox())
     , m_delimiter(new QComboBox)
     , m_decimalComma(new QCheckBox(tr("Decimal &comma (0,25)")))
     , m_preview(new QTableWidget)
-    , m_outcome(new QComboBox)
+    , m_outcome(columnBox())
     , m_event(new QLineEdit)
     , m_scores(new QListWidget)
     , m_scale(new QComboBox)
-    , m_id(new QComboBox)
+    , m_id(columnBox())
     , m_groups(new QListWidget)
-    , m_period(new QComboBox)
+    , m_period(columnBox())
     , m_problem(new QLabel)
     , m_auditSummary(new QLabel)
     , m_audit(new IntakeAuditModel(this))
-    , m_check(new QPushButton(tr("C&heck the data")))
+    , m_check(plainButton(tr("C&heck the data")))
     , m_run(new QPushButton(tr("&Run validation")))
 {
     setWindowTitle(tr("Open a cohort"));
+    m_file->setObjectName(QStringLiteral("cohortPath"));
+    m_file->setPlaceholderText(tr("Type or paste a path and press Return, or Browse…"));
+    m_file->installEventFilter(this);
     m_delimiter->addItem(tr("Sniff"), QString());
     m_delimiter->addItem(tr("Comma"), QStringLiteral(","));
     m_delimiter->addItem(tr("Semicolon"), QStringLiteral(";"));
@@ -77,35 +101,43 @@ ImportDialog::ImportDialog(QWidget* parent)
     m_delimiter->addItem(tr("Pipe"), QStringLiteral("|"));
     for (const char* scale : {"probability", "percent", "logit", "points"})
         m_scale->addItem(QString::fromLatin1(scale));
-    m_event->setPlaceholderText(tr("needed only when the values are not 0/1, yes/no, y/n or true/false"));
+    m_event->setPlaceholderText(tr("only when not 0/1, yes/no, y/n or true/false"));
     m_problem->setWordWrap(true);
     m_problem->setTextInteractionFlags(Qt::TextSelectableByMouse);
     m_problem->setStyleSheet(QStringLiteral("color: #b00020"));
     m_auditSummary->setWordWrap(true);
+    m_auditSummary->setTextInteractionFlags(Qt::TextSelectableByMouse);
+    m_auditSummary->setAlignment(Qt::AlignTop | Qt::AlignLeft);
     m_run->setDefault(true);
     m_run->setEnabled(false);
+    m_run->setToolTip(tr("Checks the data if that was not done yet, then runs the validation (Return)"));
     buildLayout();
     connect(m_check, &QPushButton::clicked, this, [this] { startCheck(); });
-    connect(m_run, &QPushButton::clicked, this, [this] {
-        if (m_checked)
-            accept();
-    });
+    connect(m_run, &QPushButton::clicked, this, &ImportDialog::run);
     connect(&m_watcher, &QFutureWatcherBase::finished, this, [this] {
         m_check->setEnabled(true);
         showIntake(m_watcher.result());
+        if (m_runAfterCheck && m_checked)
+            accept();
+        m_runAfterCheck = false;
     });
     // Any change of the mapping makes the last check stale.
-    auto stale = [this] {
-        m_checked.reset();
-        m_run->setEnabled(false);
-    };
-    for (QComboBox* box : {m_outcome, m_scale, m_id, m_period, m_outcomesId, m_delimiter})
-        connect(box, &QComboBox::currentIndexChanged, this, stale);
-    connect(m_scores, &QListWidget::itemChanged, this, stale);
-    connect(m_groups, &QListWidget::itemChanged, this, stale);
-    connect(m_event, &QLineEdit::textChanged, this, stale);
-    connect(m_decimalComma, &QCheckBox::toggled, this, stale);
-    connect(m_twoFiles, &QCheckBox::toggled, this, [this, stale](bool on) {
+    for (QComboBox* box : {m_scale, m_period, m_outcomesId, m_delimiter})
+        connect(box, &QComboBox::currentIndexChanged, this, &ImportDialog::stale);
+    // The outcome and the id are never offered as scores.
+    for (QComboBox* box : {m_outcome, m_id})
+        connect(box, &QComboBox::currentIndexChanged, this, [this] {
+            std::vector<std::string> wanted;
+            for (const QString& name : checkedItems(m_scores))
+                wanted.push_back(name.toStdString());
+            refreshScoreChoices(wanted);
+            stale();
+        });
+    connect(m_scores, &QListWidget::itemChanged, this, &ImportDialog::stale);
+    connect(m_groups, &QListWidget::itemChanged, this, &ImportDialog::stale);
+    connect(m_event, &QLineEdit::textChanged, this, &ImportDialog::stale);
+    connect(m_decimalComma, &QCheckBox::toggled, this, &ImportDialog::stale);
+    connect(m_twoFiles, &QCheckBox::toggled, this, [this](bool on) {
         m_outcomesFile->setEnabled(on);
         m_outcomesId->setEnabled(on);
         stale();
@@ -120,22 +152,22 @@ ImportDialog::ImportDialog(QWidget* parent)
 
 void ImportDialog::buildLayout()
 {
-    auto* browse = new QPushButton(tr("&Browse…"));
-    auto* browseOutcomes = new QPushButton(tr("Bro&wse…"));
+    auto* browse = plainButton(tr("&Browse…"));
+    auto* browseOutcomes = plainButton(tr("Bro&wse…"));
     connect(browse, &QPushButton::clicked, this, [this] {
-        const QString path = QFileDialog::getOpenFileName(this, tr("Cohort file"), QString(),
-                                                          tr("Delimited text (*.csv *.tsv *.txt);;All files (*)"));
+        const QString path = askOpenLocation(this, tr("Cohort file"), delimitedFiles);
         if (!path.isEmpty())
             loadFile(path);
     });
     connect(browseOutcomes, &QPushButton::clicked, this, [this] {
-        const QString path = QFileDialog::getOpenFileName(this, tr("Outcomes file"), QString(),
-                                                          tr("Delimited text (*.csv *.tsv *.txt);;All files (*)"));
+        const QString path = askOpenLocation(this, tr("Outcomes file"), delimitedFiles);
         if (!path.isEmpty())
             loadOutcomesFile(path);
     });
+    auto* fileLabel = new QLabel(tr("Cohort &file:"));
+    fileLabel->setBuddy(m_file);
     auto* fileRow = new QHBoxLayout;
-    fileRow->addWidget(new QLabel(tr("Cohort file:")));
+    fileRow->addWidget(fileLabel);
     fileRow->addWidget(m_file, 1);
     fileRow->addWidget(browse);
     fileRow->addWidget(new QLabel(tr("Delimiter:")));
@@ -150,6 +182,10 @@ void ImportDialog::buildLayout()
 
     m_scores->setAccessibleName(tr("Score columns"));
     m_groups->setAccessibleName(tr("Subgroup columns"));
+    for (QListWidget* list : {m_scores, m_groups}) {
+        list->setMinimumHeight(52);
+        list->setSizePolicy(QSizePolicy::Preferred, QSizePolicy::Preferred);
+    }
     auto* mapping = new QFormLayout;
     mapping->addRow(tr("&Outcome column:"), m_outcome);
     mapping->addRow(tr("&Event value:"), m_event);
@@ -164,32 +200,68 @@ void ImportDialog::buildLayout()
     auto* auditTable = new CopyableTableView;
     auditTable->setModel(m_audit);
     auditTable->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
+    auditTable->setMinimumHeight(60);
     auto* auditLayout = new QVBoxLayout;
-    auditLayout->addWidget(m_check);
-    auditLayout->addWidget(m_auditSummary);
+    auditLayout->addWidget(m_check, 0, Qt::AlignLeft);
+    // The summary and its warnings scroll, so a long audit never squeezes the preview.
+    auto* summaryArea = new QScrollArea;
+    summaryArea->setWidget(m_auditSummary);
+    summaryArea->setWidgetResizable(true);
+    summaryArea->setFrameShape(QFrame::NoFrame);
+    summaryArea->setMinimumHeight(36);
+    summaryArea->setMaximumHeight(100);
+    auditLayout->addWidget(summaryArea);
     auditLayout->addWidget(auditTable, 1);
     auditLayout->addWidget(m_problem);
     auto* auditBox = new QGroupBox(tr("Every row accounted for"));
     auditBox->setLayout(auditLayout);
 
-    auto* lower = new QHBoxLayout;
-    lower->addWidget(mappingBox, 1);
-    lower->addWidget(auditBox, 1);
-    auto* buttons = new QDialogButtonBox;
-    buttons->addButton(m_run, QDialogButtonBox::AcceptRole);
-    buttons->addButton(QDialogButtonBox::Cancel);
-    connect(buttons, &QDialogButtonBox::rejected, this, &QDialog::reject);
-
+    auto* lower = new QSplitter(Qt::Horizontal);
+    lower->addWidget(mappingBox);
+    lower->addWidget(auditBox);
+    lower->setChildrenCollapsible(false);
     m_preview->setEditTriggers(QAbstractItemView::NoEditTriggers);
     m_preview->setAccessibleName(tr("First rows as read"));
+    m_preview->setMinimumHeight(70);
+    auto* previewBox = new QGroupBox(tr("First rows, as Plumbline reads them"));
+    auto* previewLayout = new QVBoxLayout(previewBox);
+    previewLayout->addWidget(m_preview);
+    // The preview keeps its share of the height whatever the audit shows; the user can drag.
+    auto* split = new QSplitter(Qt::Vertical);
+    split->addWidget(previewBox);
+    split->addWidget(lower);
+    split->setStretchFactor(0, 2);
+    split->setStretchFactor(1, 3);
+    split->setSizes({260, 390});
+    split->setChildrenCollapsible(false);
+
+    auto* buttons = new QDialogButtonBox;
+    buttons->addButton(m_run, QDialogButtonBox::AcceptRole);
+    QPushButton* cancel = buttons->addButton(QDialogButtonBox::Cancel);
+    cancel->setAutoDefault(false);
+    connect(buttons, &QDialogButtonBox::rejected, this, &QDialog::reject);
+
     auto* layout = new QVBoxLayout(this);
     layout->addLayout(fileRow);
     layout->addLayout(outcomesRow);
-    layout->addWidget(new QLabel(tr("First rows, as Plumbline reads them:")));
-    layout->addWidget(m_preview, 1);
-    layout->addLayout(lower, 2);
+    layout->addWidget(split, 1);
     layout->addWidget(buttons);
-    resize(1100, 760);
+    // Fits the screen it opens on (a 1280×720 laptop included).
+    const QRect screen = QGuiApplication::primaryScreen() ? QGuiApplication::primaryScreen()->availableGeometry() : QRect(0, 0, 1280, 720);
+    resize(std::min(1100, screen.width() - 40), std::min(760, screen.height() - 60));
+}
+
+bool ImportDialog::eventFilter(QObject* watched, QEvent* event)
+{
+    // Return in the path box reads the typed file; once it is read, Return runs (the default).
+    if (watched == m_file && event->type() == QEvent::KeyPress) {
+        const int key = static_cast<QKeyEvent*>(event)->key();
+        if ((key == Qt::Key_Return || key == Qt::Key_Enter) && m_file->text().trimmed() != m_loadedPath) {
+            loadFile(m_file->text().trimmed());
+            return true;
+        }
+    }
+    return QDialog::eventFilter(watched, event);
 }
 
 std::optional<char> ImportDialog::delimiterChoice() const
@@ -202,12 +274,35 @@ void ImportDialog::showProblem(const QString& text)
 {
     m_problem->setText(text);
     m_checked.reset();
-    m_run->setEnabled(false);
+    m_run->setEnabled(mappingComplete());
 }
 
 QString ImportDialog::problemText() const
 {
     return m_problem->text();
+}
+
+bool ImportDialog::mappingComplete() const
+{
+    return !m_loadedPath.isEmpty() && chosen(m_outcome).has_value() && !checkedItems(m_scores).isEmpty();
+}
+
+void ImportDialog::stale()
+{
+    m_checked.reset();
+    m_run->setEnabled(mappingComplete());
+}
+
+void ImportDialog::run()
+{
+    if (m_checked) {
+        accept();
+        return;
+    }
+    if (!mappingComplete() || m_watcher.isRunning())
+        return;
+    m_runAfterCheck = true;
+    startCheck();
 }
 
 std::optional<DelimitedTable> ImportDialog::openTable(const QString& path)
@@ -225,7 +320,10 @@ std::optional<DelimitedTable> ImportDialog::openTable(const QString& path)
 bool ImportDialog::loadFile(const QString& path)
 {
     m_file->setText(path);
+    m_loadedPath.clear();
     m_problem->clear();
+    m_auditSummary->clear();
+    m_audit->setAudit({});
     const auto table = openTable(path);
     if (!table)
         return false;
@@ -234,8 +332,15 @@ bool ImportDialog::loadFile(const QString& path)
         showProblem(QString::fromStdString(profile.error().message()));
         return false;
     }
+    m_numericColumns.clear();
+    for (const auto& column : profile->columns)
+        if (couldHoldScores(column))
+            m_numericColumns.push_back(column.name);
+    m_loadedPath = path;
+    rememberFolderOf(path);
     showPreview(previewTable(*table, 20));
     fillColumnChoices(table->header(), guessColumnRoles(*profile));
+    stale();
     return true;
 }
 
@@ -246,6 +351,7 @@ bool ImportDialog::loadOutcomesFile(const QString& path)
     const auto table = openTable(path);
     if (!table)
         return false;
+    const QSignalBlocker blockOutcome(m_outcome);
     m_outcomesId->clear();
     m_outcome->clear();
     m_outcome->addItem(none);
@@ -260,6 +366,7 @@ bool ImportDialog::loadOutcomesFile(const QString& path)
         if (roles.id)
             m_outcomesId->setCurrentText(QString::fromStdString(*roles.id));
     }
+    stale();
     return true;
 }
 
@@ -284,35 +391,55 @@ void ImportDialog::showPreview(const TablePreview& preview)
 
 void ImportDialog::fillColumnChoices(const std::vector<std::string>& header, const ColumnRoles& roles)
 {
-    const QSignalBlocker blockOutcome(m_outcome);
-    m_outcome->clear();
-    m_id->clear();
-    m_period->clear();
-    m_scores->clear();
-    m_groups->clear();
-    m_outcome->addItem(none);
-    m_id->addItem(none);
-    m_period->addItem(none);
-    auto has = [](const std::vector<std::string>& list, const std::string& name) {
-        return std::find(list.begin(), list.end(), name) != list.end();
-    };
-    for (const auto& name : header) {
-        const QString column = QString::fromStdString(name);
-        m_outcome->addItem(column);
-        m_id->addItem(column);
-        m_period->addItem(column);
-        auto* score = new QListWidgetItem(column, m_scores);
-        score->setCheckState(has(roles.scores, name) ? Qt::Checked : Qt::Unchecked);
-        auto* group = new QListWidgetItem(column, m_groups);
-        group->setCheckState(has(roles.groups, name) ? Qt::Checked : Qt::Unchecked);
+    {
+        const QSignalBlocker blockOutcome(m_outcome);
+        const QSignalBlocker blockId(m_id);
+        const QSignalBlocker blockGroups(m_groups);
+        m_outcome->clear();
+        m_id->clear();
+        m_period->clear();
+        m_groups->clear();
+        m_outcome->addItem(none);
+        m_id->addItem(none);
+        m_period->addItem(none);
+        for (const auto& name : header) {
+            const QString column = QString::fromStdString(name);
+            m_outcome->addItem(column);
+            m_id->addItem(column);
+            m_period->addItem(column);
+            auto* group = new QListWidgetItem(column, m_groups);
+            group->setCheckState(std::find(roles.groups.begin(), roles.groups.end(), name) != roles.groups.end() ? Qt::Checked : Qt::Unchecked);
+        }
+        if (roles.outcome)
+            m_outcome->setCurrentText(QString::fromStdString(*roles.outcome));
+        if (roles.id)
+            m_id->setCurrentText(QString::fromStdString(*roles.id));
     }
-    if (roles.outcome)
-        m_outcome->setCurrentText(QString::fromStdString(*roles.outcome));
-    if (roles.id)
-        m_id->setCurrentText(QString::fromStdString(*roles.id));
     if (roles.period)
         m_period->setCurrentText(QString::fromStdString(*roles.period));
     m_scale->setCurrentText(QString::fromLatin1(scaleName(roles.scale).data()));
+    refreshScoreChoices(roles.scores);
+}
+
+void ImportDialog::refreshScoreChoices(const std::vector<std::string>& wanted)
+{
+    const QSignalBlocker block(m_scores);
+    m_scores->clear();
+    const auto outcome = chosen(m_outcome), id = chosen(m_id);
+    for (const auto& name : m_numericColumns) {
+        if (name == outcome || name == id)
+            continue;
+        auto* item = new QListWidgetItem(QString::fromStdString(name), m_scores);
+        item->setCheckState(std::find(wanted.begin(), wanted.end(), name) != wanted.end() ? Qt::Checked : Qt::Unchecked);
+    }
+}
+
+QStringList ImportDialog::scoreChoices() const
+{
+    QStringList out;
+    for (int i = 0; i < m_scores->count(); ++i)
+        out << m_scores->item(i)->text();
+    return out;
 }
 
 IntakeSettings ImportDialog::intakeSettings() const
@@ -342,19 +469,18 @@ IntakeSettings ImportDialog::intakeSettings() const
 
 void ImportDialog::setMapping(const IntakeSettings& settings)
 {
-    auto check = [](QListWidget* list, const std::vector<std::string>& names) {
-        for (int i = 0; i < list->count(); ++i) {
-            const bool wanted = std::find(names.begin(), names.end(), list->item(i)->text().toStdString()) != names.end();
-            list->item(i)->setCheckState(wanted ? Qt::Checked : Qt::Unchecked);
-        }
-    };
-    m_outcome->setCurrentText(QString::fromStdString(settings.outcomeColumn));
-    check(m_scores, settings.scoreColumns);
-    check(m_groups, settings.groupColumns);
+    for (int i = 0; i < m_groups->count(); ++i) {
+        const std::string name = m_groups->item(i)->text().toStdString();
+        const bool wanted = std::find(settings.groupColumns.begin(), settings.groupColumns.end(), name) != settings.groupColumns.end();
+        m_groups->item(i)->setCheckState(wanted ? Qt::Checked : Qt::Unchecked);
+    }
+    m_outcome->setCurrentText(settings.outcomeColumn.empty() ? none : QString::fromStdString(settings.outcomeColumn));
     m_id->setCurrentText(settings.idColumn ? QString::fromStdString(*settings.idColumn) : none);
+    refreshScoreChoices(settings.scoreColumns);
     m_period->setCurrentText(settings.periodColumn ? QString::fromStdString(*settings.periodColumn) : none);
     m_scale->setCurrentText(QString::fromLatin1(scaleName(settings.scale).data()));
     m_event->setText(settings.eventValue ? QString::fromStdString(*settings.eventValue) : QString());
+    stale();
 }
 
 bool ImportDialog::checkNow()

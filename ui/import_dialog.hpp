@@ -8,6 +8,8 @@
 #include <QFutureWatcher>
 
 #include <optional>
+#include <string>
+#include <vector>
 
 class QCheckBox;
 class QComboBox;
@@ -24,7 +26,8 @@ class IntakeAuditModel;
 // Opens a cohort: previews the first rows as parsed, lets the user map the columns (pre-filled
 // with guesses from names and content), and shows the intake audit — rows used, exclusions by
 // reason, join counts — before anything is computed. A file that cannot be used gets the same
-// message as the command line.
+// message as the command line. Return in the path box reads the typed file; Return elsewhere
+// (or Run) checks the data if needed and runs once the mapping is complete.
 class ImportDialog : public QDialog {
     Q_OBJECT
 public:
@@ -41,16 +44,26 @@ public:
     bool checkNow();
     QString problemText() const;
     const std::optional<IntakeResult>& checkedIntake() const { return m_checked; }
+    // The columns offered as scores (numbers only, never the outcome or the id).
+    QStringList scoreChoices() const;
+    QPushButton* runButton() const { return m_run; }
+
+protected:
+    bool eventFilter(QObject* watched, QEvent* event) override;
 
 private:
     void buildLayout();
     void fillColumnChoices(const std::vector<std::string>& header, const struct ColumnRoles& roles);
+    void refreshScoreChoices(const std::vector<std::string>& wanted);
     void showPreview(const struct TablePreview& preview);
     void showProblem(const QString& text);
     // The file read and split into fields; on failure the problem is shown and nullopt returned.
     std::optional<DelimitedTable> openTable(const QString& path);
     void showIntake(const std::expected<IntakeResult, InputError>& result);
     void startCheck();
+    void run();
+    void stale();
+    bool mappingComplete() const;
     std::optional<char> delimiterChoice() const;
 
     QLineEdit* m_file;
@@ -74,6 +87,9 @@ private:
     QPushButton* m_run;
     QFutureWatcher<std::expected<IntakeResult, InputError>> m_watcher;
     std::optional<IntakeResult> m_checked;
+    QString m_loadedPath;
+    std::vector<std::string> m_numericColumns;
+    bool m_runAfterCheck = false;
 };
 
 } // namespace plumbline

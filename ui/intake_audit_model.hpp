@@ -11,7 +11,7 @@ namespace plumbline {
 class IntakeAuditModel : public QAbstractTableModel {
     Q_OBJECT
 public:
-    enum Column { ReasonColumn, ScoreColumn, RowsColumn, LinesColumn, ColumnCount };
+    enum Column { ReasonColumn, ScoreColumn, RowsColumn, FileColumn, LinesColumn, ColumnCount };
 
     explicit IntakeAuditModel(QObject* parent = nullptr);
 
@@ -25,6 +25,7 @@ public:
 
 private:
     IntakeAudit m_audit;
+    std::vector<ExclusionTally> m_rows; // the cohort file's exclusions, then the outcomes file's
 };
 
 } // namespace plumbline

@@ -10,7 +10,6 @@ class QLabel;
 class QMenu;
 class QProgressBar;
 class QPushButton;
-class QSortFilterProxyModel;
 class QTabWidget;
 
 namespace plumbline {
@@ -18,22 +17,28 @@ namespace plumbline {
 class CalibrationChartView;
 class CohortPanel;
 class ComparisonPanel;
-class DecisionCurveView;
-class PeriodPanel;
-class SubgroupPanel;
-class UpdatingPanel;
 class CopyableTableView;
+class DecisionCurveView;
+class ElidedLabel;
+class ExportableChartView;
 class MetricTableModel;
+class OverviewPanel;
+class PeriodPanel;
 class RiskDistributionView;
 class RiskGroupTableModel;
+class RiskGroupsPanel;
 class RocChartView;
 class SettingsPanel;
+class SubgroupPanel;
 class ThresholdPanel;
+class ThresholdSummaryModel;
+class UpdatingPanel;
 class ValidationTask;
 
-// The workbench: discrimination and calibration side by side, every chart linked to one decision
-// threshold, the metric table, risk groups, the cohort audit and the settings. It composes the
-// panels and wires signals; it computes nothing.
+// The workbench: one decision threshold above tabs that show discrimination and calibration
+// side by side (Overview), the metric table, risk groups, comparisons, net benefit, subgroups,
+// performance over time, updating, the cohort audit and the settings. It composes the panels
+// and wires signals; it computes nothing.
 class MainWindow : public QMainWindow {
     Q_OBJECT
 public:
@@ -44,28 +49,43 @@ public:
     void openWithDialog(const QString& path = {});
     // Runs an analysis directly (command line, snapshot mode, re-run, tests).
     void runRequest(const AnalysisRequest& request);
+    // The analysis the Settings tab and the threshold describe now (Re-run, Save analysis).
+    std::optional<AnalysisRequest> currentRequest() const;
     // Saves the current analysis; opens a saved one and runs it (input changes are warned about).
     bool saveAnalysis(const QString& path, QString* error = nullptr);
     bool openAnalysis(const QString& path, QStringList* warnings = nullptr, QString* error = nullptr);
     // Exports the report of the shown results: PDF or HTML (by suffix), XLSX, or CSV tables.
+    // The report's charts mark the current threshold.
     bool exportReport(const QString& path, QString* error = nullptr);
     bool exportWorkbook(const QString& path, QString* error = nullptr);
     bool exportTables(const QString& folder, QString* error = nullptr);
+    // Shows or hides a model in every chart.
+    void setModelVisible(int model, bool visible);
+    // Every divider back to its first place, the Overview shown, the window fitted to the screen.
+    void resetLayout();
+    // The chart Edit → Copy chart copies: the one clicked last, else the first shown.
+    ExportableChartView* currentChart() const;
 
     SnapshotPointer snapshot() const { return m_snapshot; }
     ValidationTask* task() const { return m_task; }
-    RocChartView* rocView() const { return m_roc; }
-    CalibrationChartView* calibrationView() const { return m_calibration; }
-    RiskDistributionView* distributionView() const { return m_distribution; }
+    QTabWidget* tabs() const { return m_tabs; }
+    OverviewPanel* overviewPanel() const { return m_overview; }
+    RocChartView* rocView() const;
+    CalibrationChartView* calibrationView() const;
+    RiskDistributionView* distributionView() const;
+    ThresholdSummaryModel* summaryModel() const;
     ThresholdPanel* thresholdPanel() const { return m_threshold; }
     MetricTableModel* metricModel() const { return m_metrics; }
-    CopyableTableView* riskGroupView() const { return m_riskGroupView; }
-    RiskGroupTableModel* riskGroupModel() const { return m_riskGroups; }
+    RiskGroupsPanel* riskGroupsPanel() const { return m_riskGroups; }
+    CopyableTableView* riskGroupView() const;
+    RiskGroupTableModel* riskGroupModel() const;
     ComparisonPanel* comparisonPanel() const { return m_comparison; }
     DecisionCurveView* decisionCurveView() const { return m_decision; }
     SubgroupPanel* subgroupPanel() const { return m_subgroups; }
     PeriodPanel* periodPanel() const { return m_periods; }
     UpdatingPanel* updatingPanel() const { return m_updating; }
+    SettingsPanel* settingsPanel() const { return m_settings; }
+    QCheckBox* modelToggle(int model) const;
 
 protected:
     void closeEvent(QCloseEvent* event) override;
@@ -74,26 +94,30 @@ protected:
 
 private:
     void buildMenus();
+    void buildFileMenu();
     QWidget* buildCentralArea();
     void buildStatusBar();
+    void fitToScreen(bool always);
     void showSnapshot(SnapshotPointer snapshot);
     void setThreshold(double threshold);
     void rebuildModelToggles();
     void addRecentFile(const QString& path);
     void refreshRecentMenu();
     void showAbout();
-    void selectRiskGroup(int model, int group);
+    void showPlanner();
+    void askAndExportReport();
+    void askAndExportTables();
+    void askAndSaveAnalysis();
+    void askAndOpenAnalysis();
+    void announceWritten(const QString& what, const QString& path);
+    QString cohortStem() const;
 
     ValidationTask* m_task;
     SnapshotPointer m_snapshot;
-    RocChartView* m_roc;
-    CalibrationChartView* m_calibration;
-    RiskDistributionView* m_distribution;
+    OverviewPanel* m_overview;
     ThresholdPanel* m_threshold;
     MetricTableModel* m_metrics;
-    RiskGroupTableModel* m_riskGroups;
-    QSortFilterProxyModel* m_riskGroupProxy;
-    CopyableTableView* m_riskGroupView;
+    RiskGroupsPanel* m_riskGroups;
     CohortPanel* m_cohort;
     ComparisonPanel* m_comparison;
     UpdatingPanel* m_updating;
@@ -103,12 +127,11 @@ private:
     SettingsPanel* m_settings;
     QTabWidget* m_tabs;
     QHBoxLayout* m_toggles;
-    QLabel* m_title;
-    QLabel* m_status;
+    ElidedLabel* m_title;
+    ElidedLabel* m_status;
     QProgressBar* m_progress;
     QPushButton* m_cancel;
     QMenu* m_recent;
-    bool m_selectingGroup = false;
 };
 
 // The cautions every window and report carries, as one paragraph.

@@ -4,19 +4,14 @@
 #include "metric_reading.hpp"
 #include "model_palette.hpp"
 #include "panel_keys.hpp"
+#include "value_text.hpp"
 
 namespace plumbline {
 
 QString estimateText(const std::string& key, const Estimate& e)
 {
-    if (!e.value)
-        return QObject::tr("not computed");
     const bool small = key == "ici" || key == "e50" || key == "e90" || key == "emax" || key == "brier";
-    const int digits = small ? 4 : 3;
-    QString text = QString::number(*e.value, 'f', digits);
-    if (e.lower && e.upper)
-        text += QStringLiteral(" (%1 to %2)").arg(*e.lower, 0, 'f', digits).arg(*e.upper, 0, 'f', digits);
-    return text;
+    return QString::fromStdString(plumbline::estimateText(e, small ? 4 : 3, QObject::tr("not computed").toStdString()));
 }
 
 MetricTableModel::MetricTableModel(QObject* parent)
@@ -69,7 +64,7 @@ QVariant MetricTableModel::data(const QModelIndex& index, int role) const
         QString tip = QStringLiteral("<p>%1</p><p><i>%2</i></p>").arg(QString::fromUtf8(d.definition.data(), int(d.definition.size())),
                                                                   QString::fromUtf8(d.source.data(), int(d.source.size())));
         if (entry.estimate.lower)
-            tip += tr("<p>Interval: %1</p>").arg(QString::fromStdString(ciMethodName(entry.estimate.ciMethod)));
+            tip += tr("<p>Interval: %1</p>").arg(QString::fromStdString(ciMethodLabel(entry.estimate.ciMethod)));
         return tip;
     }
     return {};

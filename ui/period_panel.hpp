@@ -6,14 +6,15 @@
 
 class QComboBox;
 class QLabel;
+class QSplitter;
 
 namespace plumbline {
 
-class ForestChartView;
+class PeriodChartView;
 
-// Performance over time for one model: C and O/E per month or quarter with intervals, in time
-// order from the top, periods marked when their interval misses the first year's, the drift
-// warnings and the usual causes of drift.
+// Performance over time for one model: C, O/E and calibration-in-the-large per month or
+// quarter with intervals, left to right against the first year's band, periods marked when
+// their interval misses the first year's, the drift warnings and the usual causes of drift.
 class PeriodPanel : public QWidget {
     Q_OBJECT
 public:
@@ -21,14 +22,18 @@ public:
 
     void setSnapshot(SnapshotPointer snapshot);
     QString noteText() const;
+    PeriodChartView* oeChart() const { return m_oe; }
+    void resetLayout();
 
 private:
     void showModel(int index);
 
     SnapshotPointer m_snapshot;
     QComboBox* m_model;
-    ForestChartView* m_c;
-    ForestChartView* m_oe;
+    PeriodChartView* m_c;
+    PeriodChartView* m_oe;
+    PeriodChartView* m_citl;
+    QSplitter* m_charts;
     QLabel* m_note;
 };
 

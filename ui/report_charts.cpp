@@ -22,6 +22,11 @@ ReportCharts::ReportCharts(const SnapshotPointer& snapshot, std::optional<double
 
 ReportCharts::~ReportCharts() = default;
 
+double ReportCharts::markedThreshold() const
+{
+    return m_calibration->thresholdLineX();
+}
+
 void ReportCharts::draw(ReportChart chart, QPainter* painter, const QRectF& target)
 {
     (chart == ReportChart::Roc ? static_cast<ExportableChartView*>(m_roc.get()) : m_calibration.get())
@@ -43,7 +48,7 @@ bool ReportCharts::exportAll(const QString& folder, QString* error)
     const QSize size(900, 700);
     for (const auto& [view, name] : {std::pair<ExportableChartView*, QString>{m_roc.get(), QStringLiteral("roc")},
                                      std::pair<ExportableChartView*, QString>{m_calibration.get(), QStringLiteral("calibration")}})
-        for (const QString suffix : {QStringLiteral(".png"), QStringLiteral(".svg")})
+        for (const QString& suffix : {QStringLiteral(".png"), QStringLiteral(".svg")})
             if (!view->exportTo(QDir(folder).filePath(name + suffix), size, error))
                 return false;
     return true;

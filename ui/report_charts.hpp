@@ -27,6 +27,8 @@ public:
     explicit ReportCharts(const SnapshotPointer& snapshot, std::optional<double> threshold = std::nullopt);
     ~ReportCharts();
 
+    // The threshold the charts mark (read back from the calibration plot's line).
+    double markedThreshold() const;
     static QSize logicalSize() { return {540, 420}; } // small, so its text reads well when scaled to half a page
     void draw(ReportChart chart, QPainter* painter, const QRectF& target);
     QByteArray svg(ReportChart chart);

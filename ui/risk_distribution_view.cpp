@@ -2,6 +2,7 @@
 
 #include "chart_style.hpp"
 #include "model_palette.hpp"
+#include "value_text.hpp"
 
 #include <QChart>
 #include <QLegendMarker>
@@ -17,72 +18,81 @@ RiskDistributionView::RiskDistributionView(QWidget* parent)
     : ExportableChartView(parent)
 {
     auto* chart = new QChart;
-    styleChart(chart, tr("Distribution of predicted risk"));
-    setChart(chart);
-    setMinimumHeight(150);
+    styleChart(chart, QString()); // the legend names the model; the row is short
     chart->legend()->setAlignment(Qt::AlignRight);
+    setChart(chart);
+    setMinimumHeight(110);
+    setObjectName(QStringLiteral("risk-distribution"));
     setAccessibleName(tr("Distribution of predicted risk"));
 }
 
 void RiskDistributionView::setSnapshot(SnapshotPointer snapshot, int model, double axisMaximum)
 {
     m_snapshot = std::move(snapshot);
+    m_axisMaximum = axisMaximum;
+    m_model = model;
+    draw();
+}
+
+void RiskDistributionView::setModel(int model)
+{
+    m_model = model;
+    draw();
+}
+
+void RiskDistributionView::draw()
+{
     QChart* c = chart();
-    clearChart(c);
+    resetChart();
     m_thresholdLine = nullptr;
-    if (!m_snapshot || model < 0 || model >= static_cast<int>(m_snapshot->validation.models.size()))
+    if (!m_snapshot || m_model < 0 || m_model >= static_cast<int>(m_snapshot->validation.models.size()))
         return;
-    const ModelValidation& m = m_snapshot->validation.models[static_cast<std::size_t>(model)];
+    const ModelValidation& m = m_snapshot->validation.models[static_cast<std::size_t>(m_model)];
     const RiskHistogram& h = m.riskDistribution;
     std::size_t events = 0, nonEvents = 0;
     for (std::size_t b = 0; b < h.events.size(); ++b) {
         events += h.events[b];
         nonEvents += h.nonEvents[b];
     }
-    chart()->setTitle(tr("Distribution of predicted risk: %1").arg(QString::fromStdString(m.name)));
-    auto* x = probabilityAxis(tr("Predicted risk"), axisMaximum);
-    auto* y = new QValueAxis;
-    y->setTitleText(tr("Share"));
-    y->setLabelFormat(QStringLiteral("%.2f"));
-    y->setTickCount(3);
-    y->setTitleFont(x->titleFont());
-    y->setLabelsFont(x->labelsFont());
+    // Step outlines of the two histograms (shares within each class, so both classes compare).
+    m_top = 0.01;
+    for (std::size_t b = 0; b < h.events.size(); ++b) {
+        m_top = std::max(m_top, events > 0 ? double(h.events[b]) / double(events) : 0.0);
+        m_top = std::max(m_top, nonEvents > 0 ? double(h.nonEvents[b]) / double(nonEvents) : 0.0);
+    }
+    auto* x = probabilityAxis(tr("Predicted risk"), m_axisMaximum);
+    auto* y = roundAxis(tr("Share"), 0.0, m_top, 2);
+    const QString name = QString::fromStdString(m.name);
+    m_top = y->max();
     c->addAxis(x, Qt::AlignBottom);
     c->addAxis(y, Qt::AlignLeft);
-    // Step outlines of the two histograms (shares within each class, so both classes compare).
-    auto outline = [&](const std::vector<std::size_t>& counts, std::size_t total, const QString& name, const QPen& pen) {
+    auto outline = [&](const std::vector<std::size_t>& counts, std::size_t total, const QString& label, const QPen& pen) {
         auto* series = new QLineSeries;
-        series->setName(name);
+        series->setName(label);
         series->setPen(pen);
         for (std::size_t b = 0; b < counts.size(); ++b) {
             const double share = total > 0 ? double(counts[b]) / double(total) : 0.0;
             series->append(h.edges[b], share);
             series->append(h.edges[b + 1], share);
-            m_top = std::max(m_top, share);
         }
-        c->addSeries(series);
-        series->attachAxis(x);
-        series->attachAxis(y);
+        addOnAxes(c, series, x, y);
     };
-    m_top = 0.05;
-    outline(h.nonEvents, nonEvents, tr("without the event"), QPen(QColor(140, 140, 140), 1.5));
-    outline(h.events, events, tr("with the event"), QPen(modelColour(model), 2));
-    y->setRange(0.0, m_top * 1.1);
+    const QColor colour = modelColour(m_model);
+    outline(h.events, events, tr("%1: with the event").arg(name), QPen(colour, 2));
+    outline(h.nonEvents, nonEvents, tr("%1: without").arg(name), QPen(colour.lighter(140), 1.5, Qt::DotLine));
     m_thresholdLine = new QLineSeries;
-    m_thresholdLine->setPen(QPen(QColor(60, 60, 60), 1.2, Qt::DotLine));
-    c->addSeries(m_thresholdLine);
-    m_thresholdLine->attachAxis(x);
-    m_thresholdLine->attachAxis(y);
-    for (QLegendMarker* marker : c->legend()->markers(m_thresholdLine))
-        marker->setVisible(false);
+    m_thresholdLine->setPen(thresholdPen());
+    addOnAxes(c, m_thresholdLine, x, y);
+    keepOutOfLegend(m_thresholdLine);
     setThreshold(m_threshold);
+    fitPlotArea();
 }
 
 void RiskDistributionView::setThreshold(double threshold)
 {
     m_threshold = threshold;
     if (m_thresholdLine)
-        m_thresholdLine->replace(QList<QPointF>{QPointF(threshold, 0.0), QPointF(threshold, m_top * 1.1)});
+        m_thresholdLine->replace(QList<QPointF>{QPointF(threshold, 0.0), QPointF(threshold, m_top)});
 }
 
 double RiskDistributionView::thresholdLineX() const

@@ -2,6 +2,7 @@
 
 #include "chart_style.hpp"
 #include "model_palette.hpp"
+#include "value_text.hpp"
 
 #include <QAreaSeries>
 #include <QChart>
@@ -27,16 +28,29 @@ QString legendText(const ModelValidation& model)
     const Estimate& c = model.metrics[CStatistic].estimate;
     if (!c.value)
         return QString::fromStdString(model.name);
-    QString text = QStringLiteral("%1  C %2").arg(QString::fromStdString(model.name)).arg(*c.value, 0, 'f', 3);
+    QString text = QStringLiteral("%1  C %2").arg(QString::fromStdString(model.name), QString::fromStdString(fixedText(*c.value, 3)));
     if (c.lower && c.upper)
-        text += QStringLiteral(" (%1–%2)").arg(*c.lower, 0, 'f', 3).arg(*c.upper, 0, 'f', 3);
+        text += QStringLiteral(" (%1–%2)").arg(QString::fromStdString(fixedText(*c.lower, 3)), QString::fromStdString(fixedText(*c.upper, 3)));
     return text;
 }
 
-void hideFromLegend(QChart* chart, QAbstractSeries* series)
+// The ROC point nearest to a hovered position: its threshold, sensitivity and specificity.
+QString rocTip(const ModelValidation& model, QPointF at)
 {
-    for (QLegendMarker* marker : chart->legend()->markers(series))
-        marker->setVisible(false);
+    const RocPoint* best = nullptr;
+    double distance = INFINITY;
+    for (const auto& p : model.roc) {
+        const double d = std::hypot(1.0 - p.specificity - at.x(), p.sensitivity - at.y());
+        if (d < distance) {
+            distance = d;
+            best = &p;
+        }
+    }
+    if (!best)
+        return {};
+    return QObject::tr("%1\nflag if risk ≥ %2: sensitivity %3, specificity %4")
+        .arg(QString::fromStdString(model.name), QString::fromStdString(fixedText(best->threshold, 3)),
+             QString::fromStdString(fixedText(best->sensitivity, 3)), QString::fromStdString(fixedText(best->specificity, 3)));
 }
 
 } // namespace
@@ -46,8 +60,11 @@ RocChartView::RocChartView(QWidget* parent)
 {
     auto* chart = new QChart;
     styleChart(chart, tr("Discrimination: ROC curve"));
+    chart->legend()->setAlignment(Qt::AlignRight);
     setChart(chart);
     setMinimumSize(320, 240);
+    setSquarePlot(true);
+    setObjectName(QStringLiteral("roc-curve"));
     setAccessibleName(tr("ROC curve"));
 }
 
@@ -62,7 +79,7 @@ void RocChartView::setSnapshot(SnapshotPointer snapshot)
 {
     m_snapshot = std::move(snapshot);
     QChart* c = chart();
-    clearChart(c);
+    resetChart();
     m_series.clear();
     c->addAxis(probabilityAxis(tr("1 − specificity (false-positive rate)")), Qt::AlignBottom);
     c->addAxis(probabilityAxis(tr("Sensitivity")), Qt::AlignLeft);
@@ -71,41 +88,48 @@ void RocChartView::setSnapshot(SnapshotPointer snapshot)
     diagonal->append(1, 1);
     diagonal->setPen(QPen(QColor(150, 150, 150), 1, Qt::DashLine));
     addAxes(diagonal);
-    hideFromLegend(c, diagonal);
-    if (!m_snapshot)
-        return;
-    const auto& models = m_snapshot->validation.models;
-    for (std::size_t m = 0; m < models.size(); ++m) {
-        const int index = static_cast<int>(m);
-        ModelSeries s;
-        if (!models[m].rocBand.x.empty()) {
-            auto* upper = new QLineSeries;
-            auto* lower = new QLineSeries;
-            for (std::size_t j = 0; j < models[m].rocBand.x.size(); ++j) {
-                upper->append(models[m].rocBand.x[j], models[m].rocBand.upper[j]);
-                lower->append(models[m].rocBand.x[j], models[m].rocBand.lower[j]);
+    keepOutOfLegend(diagonal);
+    if (m_snapshot) {
+        const auto& models = m_snapshot->validation.models;
+        for (std::size_t m = 0; m < models.size(); ++m) {
+            const int index = static_cast<int>(m);
+            ModelSeries s;
+            if (!models[m].rocBand.x.empty()) {
+                auto* upper = new QLineSeries;
+                auto* lower = new QLineSeries;
+                for (std::size_t j = 0; j < models[m].rocBand.x.size(); ++j) {
+                    upper->append(models[m].rocBand.x[j], models[m].rocBand.upper[j]);
+                    lower->append(models[m].rocBand.x[j], models[m].rocBand.lower[j]);
+                }
+                s.band = new QAreaSeries(upper, lower);
+                upper->setParent(s.band); // the area series does not own its boundary lines
+                lower->setParent(s.band);
+                s.band->setColor(bandColour(index));
+                s.band->setBorderColor(Qt::transparent);
+                addAxes(s.band);
+                keepOutOfLegend(s.band);
             }
-            s.band = new QAreaSeries(upper, lower);
-            s.band->setColor(bandColour(index));
-            s.band->setBorderColor(Qt::transparent);
-            addAxes(s.band);
-            hideFromLegend(c, s.band);
+            s.curve = new QLineSeries;
+            for (const auto& point : models[m].roc)
+                s.curve->append(1.0 - point.specificity, point.sensitivity);
+            s.curve->setName(legendText(models[m]));
+            s.curve->setPen(QPen(modelColour(index), 2));
+            addAxes(s.curve);
+            connect(s.curve, &QLineSeries::hovered, this, [this, m](const QPointF& point, bool state) {
+                if (state && m_snapshot && m < m_snapshot->validation.models.size())
+                    showValueTip(rocTip(m_snapshot->validation.models[m], point));
+            });
+            s.marker = new QScatterSeries;
+            s.marker->setMarkerSize(11);
+            s.marker->setColor(modelColour(index));
+            s.marker->setBorderColor(Qt::white);
+            addAxes(s.marker);
+            keepOutOfLegend(s.marker);
+            m_series.push_back(s);
         }
-        s.curve = new QLineSeries;
-        for (const auto& point : models[m].roc)
-            s.curve->append(1.0 - point.specificity, point.sensitivity);
-        s.curve->setName(legendText(models[m]));
-        s.curve->setPen(QPen(modelColour(index), 2));
-        addAxes(s.curve);
-        s.marker = new QScatterSeries;
-        s.marker->setMarkerSize(11);
-        s.marker->setColor(modelColour(index));
-        s.marker->setBorderColor(Qt::white);
-        addAxes(s.marker);
-        hideFromLegend(c, s.marker);
-        m_series.push_back(s);
     }
     setThreshold(m_threshold);
+    fitPlotArea();
 }
 
 void RocChartView::setThreshold(double threshold)
@@ -128,10 +152,9 @@ void RocChartView::setModelVisible(int model, bool visible)
     if (model < 0 || model >= static_cast<int>(m_series.size()))
         return;
     const ModelSeries& s = m_series[static_cast<std::size_t>(model)];
-    s.curve->setVisible(visible);
-    s.marker->setVisible(visible);
-    if (s.band)
-        s.band->setVisible(visible);
+    setSeriesVisible(s.curve, visible);
+    setSeriesVisible(s.marker, visible);
+    setSeriesVisible(s.band, visible);
 }
 
 QPointF RocChartView::markerPosition(int model) const

@@ -3,10 +3,12 @@
 #include "forest_chart_view.hpp"
 #include "funnel_chart_view.hpp"
 #include "metric_reading.hpp"
+#include "value_text.hpp"
 
 #include <QComboBox>
 #include <QHBoxLayout>
 #include <QLabel>
+#include <QScrollArea>
 #include <QSplitter>
 #include <QVBoxLayout>
 
@@ -17,25 +19,43 @@ SubgroupPanel::SubgroupPanel(QWidget* parent)
     , m_picker(new QComboBox)
     , m_c(new ForestChartView(tr("C statistic by level"), tr("C statistic")))
     , m_oe(new ForestChartView(tr("Observed / expected by level"), tr("O/E")))
+    , m_slope(new ForestChartView(tr("Calibration slope by level"), tr("Calibration slope")))
     , m_funnel(new FunnelChartView)
+    , m_rows(new QSplitter(Qt::Vertical))
+    , m_top(new QSplitter(Qt::Horizontal))
+    , m_bottom(new QSplitter(Qt::Horizontal))
     , m_summary(new QLabel)
 {
     m_picker->setAccessibleName(tr("Subgroup column and model"));
+    m_picker->setSizeAdjustPolicy(QComboBox::AdjustToContents);
     m_summary->setWordWrap(true);
     m_summary->setTextInteractionFlags(Qt::TextSelectableByMouse);
+    m_summary->setAlignment(Qt::AlignTop | Qt::AlignLeft);
     auto* top = new QHBoxLayout;
     auto* pickerLabel = new QLabel(tr("Sub&group column and model:"));
     pickerLabel->setBuddy(m_picker);
     top->addWidget(pickerLabel);
-    top->addWidget(m_picker, 1);
-    auto* charts = new QSplitter(Qt::Horizontal);
-    charts->addWidget(m_c);
-    charts->addWidget(m_oe);
-    charts->addWidget(m_funnel);
+    top->addWidget(m_picker);
+    top->addStretch(1);
+    // Two rows of two: the forests of C and O/E, then the slope's forest and the funnel.
+    m_top->addWidget(m_c);
+    m_top->addWidget(m_oe);
+    m_bottom->addWidget(m_slope);
+    m_bottom->addWidget(m_funnel);
+    m_rows->addWidget(m_top);
+    m_rows->addWidget(m_bottom);
+    // The summary scrolls when the tab is short, so the charts keep their room.
+    auto* summaryArea = new QScrollArea;
+    summaryArea->setWidget(m_summary);
+    summaryArea->setWidgetResizable(true);
+    summaryArea->setFrameShape(QFrame::NoFrame);
+    summaryArea->setMinimumHeight(40);
+    summaryArea->setMaximumHeight(110);
     auto* layout = new QVBoxLayout(this);
+    layout->setContentsMargins(4, 4, 4, 4);
     layout->addLayout(top);
-    layout->addWidget(charts, 1);
-    layout->addWidget(m_summary);
+    layout->addWidget(m_rows, 1);
+    layout->addWidget(summaryArea);
     connect(m_picker, &QComboBox::currentIndexChanged, this, &SubgroupPanel::showChoice);
     setSnapshot(nullptr);
 }
@@ -55,6 +75,14 @@ void SubgroupPanel::setSnapshot(SnapshotPointer snapshot)
     showChoice(m_picker->currentIndex());
 }
 
+void SubgroupPanel::resetLayout()
+{
+    const int half = std::max(1, m_rows->height() / 2), across = std::max(1, m_top->width() / 2);
+    m_rows->setSizes({half, half});
+    m_top->setSizes({across, across});
+    m_bottom->setSizes({across, across});
+}
+
 QString SubgroupPanel::summaryText() const
 {
     return m_summary->text();
@@ -63,8 +91,8 @@ QString SubgroupPanel::summaryText() const
 void SubgroupPanel::showChoice(int index)
 {
     if (index < 0 || !m_snapshot || !m_snapshot->validation.subgroups) {
-        m_c->setRows({}, Estimate::undefined(), std::nullopt, 0);
-        m_oe->setRows({}, Estimate::undefined(), std::nullopt, 0);
+        for (ForestChartView* chart : {m_c, m_oe, m_slope})
+            chart->setRows({}, Estimate::undefined(), std::nullopt, 0);
         m_funnel->setFunnel({}, nullptr, 0);
         m_summary->setText(tr("No subgroup column was chosen. Choose one or more in File → Open (Subgroup columns), "
                               "or give --group on the command line."));
@@ -75,7 +103,7 @@ void SubgroupPanel::showChoice(int index)
     const int modelIndex = choice.at(1).toInt();
     const ModelValidation& model = m_snapshot->validation.models[std::size_t(modelIndex)];
     const SubgroupAnalysis& analysis = *m_snapshot->validation.subgroups;
-    std::vector<ForestRow> c, oe;
+    std::vector<ForestRow> c, oe, slope;
     QStringList small;
     for (const auto& r : analysis.results) {
         if (r.column != column || r.model != model.name)
@@ -83,11 +111,13 @@ void SubgroupPanel::showChoice(int index)
         const std::string mark = r.tooSmall ? "too small" : "";
         c.push_back({r.level, r.panel.metrics[CStatistic].estimate, r.tooSmall, mark});
         oe.push_back({r.level, r.panel.metrics[OeRatio].estimate, r.tooSmall, mark});
+        slope.push_back({r.level, r.panel.metrics[CalibrationSlope].estimate, r.tooSmall, mark});
         if (r.tooSmall)
             small << QString::fromStdString(r.level);
     }
     m_c->setRows(c, model.metrics[CStatistic].estimate, std::nullopt, modelIndex);
     m_oe->setRows(oe, model.metrics[OeRatio].estimate, 1.0, modelIndex);
+    m_slope->setRows(slope, model.metrics[CalibrationSlope].estimate, 1.0, modelIndex);
     std::vector<FunnelPoint> points;
     for (const auto& p : analysis.funnel)
         if (p.column == column && p.model == model.name)
@@ -100,11 +130,11 @@ void SubgroupPanel::showChoice(int index)
     QStringList lines;
     for (const auto& h : analysis.heterogeneity)
         if (h.column == column && h.model == model.name && h.df > 0)
-            lines << tr("Do levels differ in %1? Cochran's Q %2 on %3 df, p %4.")
+            lines << tr("Do levels differ in %1? Cochran's Q %2 on %3 df, %4.")
                          .arg(QString::fromStdString(metricLabel(h.metric)))
                          .arg(h.q, 0, 'f', 2)
                          .arg(h.df)
-                         .arg(h.pValue < 0.001 ? QStringLiteral("< 0.001") : QString::number(h.pValue, 'f', 3));
+                         .arg(QString::fromStdString(pValueText(h.pValue)));
     if (!small.isEmpty())
         lines << tr("Too small to estimate well (fewer than %1 patients, events or non-events; hollow, and left out of the "
                     "tests and the funnel): %2.")

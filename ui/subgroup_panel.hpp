@@ -6,13 +6,15 @@
 
 class QComboBox;
 class QLabel;
+class QSplitter;
 
 namespace plumbline {
 
 class ForestChartView;
 class FunnelChartView;
 
-// Performance within subgroups: pick a column and a model; forest charts of C and O/E per level
+// Performance within subgroups: pick a column and a model; forest charts of C, O/E and the
+// calibration slope per level
 // beside the overall value, the funnel of O/E against expected events, and the heterogeneity
 // tests. Levels too small to estimate well are drawn hollow and named, not hidden.
 class SubgroupPanel : public QWidget {
@@ -23,6 +25,9 @@ public:
     void setSnapshot(SnapshotPointer snapshot);
     QComboBox* picker() const { return m_picker; }
     QString summaryText() const;
+    ForestChartView* slopeChart() const { return m_slope; }
+    FunnelChartView* funnelChart() const { return m_funnel; }
+    void resetLayout();
 
 private:
     void showChoice(int index);
@@ -31,7 +36,11 @@ private:
     QComboBox* m_picker;
     ForestChartView* m_c;
     ForestChartView* m_oe;
+    ForestChartView* m_slope;
     FunnelChartView* m_funnel;
+    QSplitter* m_rows;
+    QSplitter* m_top;
+    QSplitter* m_bottom;
     QLabel* m_summary;
 };
 

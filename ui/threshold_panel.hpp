@@ -1,29 +1,24 @@
 #pragma once
 
-#include "analysis_snapshot.hpp"
-
 #include <QWidget>
 
 class QDoubleSpinBox;
 class QSlider;
-class QTableView;
 
 namespace plumbline {
 
-class ThresholdSummaryModel;
-
-// The one decision threshold that drives every chart: a slider and a spin box (steps of 0.005)
-// and the summary of each model at that threshold.
+// The one decision threshold that drives every chart and table: a slider and a box to type it
+// in (steps of 0.005, the grid of the snapshot's operating points). A typed value takes effect
+// on Return or when the box loses focus, never half-typed.
 class ThresholdPanel : public QWidget {
     Q_OBJECT
 public:
     explicit ThresholdPanel(QWidget* parent = nullptr);
 
-    void setSnapshot(SnapshotPointer snapshot);
-    double threshold() const;
+    double threshold() const { return m_threshold; }
     void setThreshold(double threshold);
-    ThresholdSummaryModel* summaryModel() const { return m_model; }
     QSlider* slider() const { return m_slider; }
+    QDoubleSpinBox* spinBox() const { return m_spin; }
 
 signals:
     void thresholdChanged(double threshold);
@@ -31,8 +26,7 @@ signals:
 private:
     QSlider* m_slider;
     QDoubleSpinBox* m_spin;
-    QTableView* m_table;
-    ThresholdSummaryModel* m_model;
+    double m_threshold = -1.0;
 };
 
 } // namespace plumbline

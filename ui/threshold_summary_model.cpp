@@ -2,6 +2,7 @@
 
 #include "model_palette.hpp"
 #include "roc_chart_view.hpp"
+#include "value_text.hpp"
 
 #include <QColor>
 #include <QLocale>
@@ -29,7 +30,14 @@ void ThresholdSummaryModel::setThreshold(double threshold)
 
 int ThresholdSummaryModel::rowCount(const QModelIndex& parent) const
 {
-    return parent.isValid() || !m_snapshot ? 0 : static_cast<int>(m_snapshot->validation.models.size());
+    return parent.isValid() || !m_snapshot || m_snapshot->validation.models.empty()
+        ? 0
+        : static_cast<int>(m_snapshot->validation.models.size()) + 1;
+}
+
+int ThresholdSummaryModel::treatAllRow() const
+{
+    return m_snapshot && !m_snapshot->validation.models.empty() ? static_cast<int>(m_snapshot->validation.models.size()) : -1;
 }
 
 int ThresholdSummaryModel::columnCount(const QModelIndex& parent) const
@@ -41,24 +49,29 @@ QVariant ThresholdSummaryModel::data(const QModelIndex& index, int role) const
 {
     if (!index.isValid() || !m_snapshot)
         return {};
-    const ModelValidation& model = m_snapshot->validation.models[static_cast<std::size_t>(index.row())];
-    if (role == Qt::DecorationRole && index.column() == ModelColumn)
+    const bool everyone = index.row() == treatAllRow();
+    const ModelValidation& model = m_snapshot->validation.models[everyone ? 0 : static_cast<std::size_t>(index.row())];
+    const QString name = everyone ? tr("Treat all (flag everyone)") : QString::fromStdString(model.name);
+    if (role == Qt::DecorationRole && index.column() == ModelColumn && !everyone)
         return modelColour(index.row());
     if (role == Qt::TextAlignmentRole && index.column() != ModelColumn)
         return QVariant::fromValue(Qt::Alignment(Qt::AlignRight | Qt::AlignVCenter));
+    if (role == Qt::ForegroundRole && everyone)
+        return QColor(90, 90, 90);
     if ((role != Qt::DisplayRole && role != Qt::UserRole) || model.operatingPoints.empty())
-        return index.column() == ModelColumn && role == Qt::DisplayRole ? QString::fromStdString(model.name) : QVariant();
-    const OperatingPoint& p = model.operatingPoints[std::min(operatingPointIndex(m_threshold), model.operatingPoints.size() - 1)];
+        return index.column() == ModelColumn && role == Qt::DisplayRole ? name : QVariant();
+    const OperatingPoint& modelPoint = model.operatingPoints[std::min(operatingPointIndex(m_threshold), model.operatingPoints.size() - 1)];
+    const OperatingPoint p = everyone ? treatAll(modelPoint) : modelPoint;
     const OperatingPointSummary s = summarise(p);
     const bool raw = role == Qt::UserRole; // tests read the numbers, people the formatted text
     auto count = [&](std::size_t n) -> QVariant { return raw ? QVariant(qulonglong(n)) : QLocale().toString(qulonglong(n)); };
     auto share = [&](const std::optional<double>& v) -> QVariant {
         if (!v)
             return raw ? QVariant() : QStringLiteral("–");
-        return raw ? QVariant(*v) : QString::number(*v, 'f', 3);
+        return raw ? QVariant(*v) : QString::fromStdString(fixedText(*v, 3));
     };
     switch (index.column()) {
-    case ModelColumn: return QString::fromStdString(model.name);
+    case ModelColumn: return name;
     case TpColumn: return count(p.tp);
     case FpColumn: return count(p.fp);
     case TnColumn: return count(p.tn);
@@ -68,8 +81,7 @@ QVariant ThresholdSummaryModel::data(const QModelIndex& index, int role) const
     case PpvColumn: return share(s.ppv);
     case NpvColumn: return share(s.npv);
     case FlagRateColumn: return share(s.flagRate);
-    case NetBenefitColumn: return raw ? QVariant(s.netBenefit) : QVariant(QString::number(s.netBenefit, 'f', 4));
-    case TreatAllColumn: return raw ? QVariant(s.netBenefitTreatAll) : QVariant(QString::number(s.netBenefitTreatAll, 'f', 4));
+    case NetBenefitColumn: return raw ? QVariant(s.netBenefit) : QVariant(QString::fromStdString(fixedText(s.netBenefit, 4)));
     default: return {};
     }
 }
@@ -86,7 +98,6 @@ QVariant ThresholdSummaryModel::headerData(int section, Qt::Orientation orientat
         case FnColumn: return tr("Not flagged, with the event (missed)");
         case FlagRateColumn: return tr("Share of all patients flagged: the workload");
         case NetBenefitColumn: return tr("TP/N − FP/N · t/(1−t) (Vickers & Elkin 2006)");
-        case TreatAllColumn: return tr("Net benefit of flagging everyone");
         default: return {};
         }
     }
@@ -94,7 +105,7 @@ QVariant ThresholdSummaryModel::headerData(int section, Qt::Orientation orientat
         return {};
     static const char* names[] = {QT_TR_NOOP("Model"), "TP", "FP", "TN", "FN", QT_TR_NOOP("Sensitivity"),
                                   QT_TR_NOOP("Specificity"), "PPV", "NPV", QT_TR_NOOP("Flagged"),
-                                  QT_TR_NOOP("Net benefit"), QT_TR_NOOP("Treat all")};
+                                  QT_TR_NOOP("Net benefit")};
     return section >= 0 && section < ColumnCount ? tr(names[section]) : QVariant();
 }
 

@@ -20,15 +20,19 @@ UpdateCalibrationView::UpdateCalibrationView(QWidget* parent)
 {
     auto* chart = new QChart;
     styleChart(chart, tr("Calibration before and after updating"));
+    chart->legend()->setAlignment(Qt::AlignRight);
     setChart(chart);
-    setMinimumSize(320, 260);
+    setMinimumSize(320, 240);
+    setSquarePlot(true);
+    setObjectName(QStringLiteral("updating-calibration"));
+    setAccessibleName(tr("Calibration before and after updating"));
 }
 
 void UpdateCalibrationView::setGroups(const std::vector<RiskGroup>& original, const std::vector<RiskGroup>& updated,
                                       int modelIndex)
 {
     QChart* c = chart();
-    clearChart(c);
+    resetChart();
     double top = 0.1;
     for (const auto* groups : {&original, &updated})
         for (const auto& g : *groups)
@@ -56,13 +60,14 @@ void UpdateCalibrationView::setGroups(const std::vector<RiskGroup>& original, co
             series->append(g.meanPredicted, g.observedRate);
         add(series);
     };
-    points(original, tr("original"), modelColour(modelIndex).lighter(150), QScatterSeries::MarkerShapeRectangle);
-    points(updated, tr("updated"), modelColour(modelIndex), QScatterSeries::MarkerShapeCircle);
+    // Different colours and shapes, so that the two sets read apart in print and for colour-blind readers.
+    points(original, tr("original risks"), QColor(150, 150, 150), QScatterSeries::MarkerShapeRectangle);
+    points(updated, tr("updated risks"), modelColour(modelIndex), QScatterSeries::MarkerShapeCircle);
     m_threshold = new QLineSeries;
-    m_threshold->setPen(QPen(QColor(60, 60, 60), 1.2, Qt::DotLine));
+    m_threshold->setPen(thresholdPen());
     add(m_threshold);
-    for (QLegendMarker* marker : c->legend()->markers(m_threshold))
-        marker->setVisible(false);
+    keepOutOfLegend(m_threshold);
+    fitPlotArea();
 }
 
 void UpdateCalibrationView::setThreshold(double threshold)

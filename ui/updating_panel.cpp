@@ -1,6 +1,8 @@
 #include "updating_panel.hpp"
 
+#include "metric_reading.hpp"
 #include "roc_chart_view.hpp"
+#include "value_text.hpp"
 #include "update_calibration_view.hpp"
 
 #include <QComboBox>
@@ -141,15 +143,15 @@ void UpdatingPanel::showUpdate()
                        .arg(QString::fromStdString(u.model), QString::fromLatin1(updateChoiceName(u.fit.choice).data()),
                             QString::fromStdString(u.fit.formula()));
     if (u.fit.tests)
-        text += tr("<br>Closed test: intercept and slope jointly p = %1; slope given intercept p = %2.")
-                    .arg(u.fit.tests->joint.pValue, 0, 'g', 3)
-                    .arg(u.fit.tests->slopeGivenIntercept.pValue, 0, 'g', 3);
+        text += tr("<br>Closed test: intercept and slope jointly %1; slope given intercept %2.")
+                    .arg(QString::fromStdString(pValueText(u.fit.tests->joint.pValue)),
+                         QString::fromStdString(pValueText(u.fit.tests->slopeGivenIntercept.pValue)));
     m_formula->setText(text);
     for (const auto& row : u.optimism) {
         const int r = m_optimism->rowCount();
         m_optimism->insertRow(r);
-        const QStringList cells{QString::fromStdString(row.key), QString::number(row.apparent, 'f', 4),
-                                QString::number(row.optimism, 'f', 4), QString::number(row.corrected, 'f', 4)};
+        const QStringList cells{QString::fromStdString(metricLabel(row.key)), QString::fromStdString(fixedText(row.apparent, 4)),
+                                QString::fromStdString(fixedText(row.optimism, 4)), QString::fromStdString(fixedText(row.corrected, 4))};
         for (int c = 0; c < cells.size(); ++c)
             m_optimism->setItem(r, c, new QTableWidgetItem(cells[c]));
     }
@@ -167,8 +169,8 @@ void UpdatingPanel::showUpdate()
                                    .arg(m_threshold, 0, 'f', 3)
                                    .arg(100.0 * b.flagRate, 0, 'f', 1)
                                    .arg(100.0 * a.flagRate, 0, 'f', 1)
-                                   .arg(b.netBenefit, 0, 'f', 4)
-                                   .arg(a.netBenefit, 0, 'f', 4));
+                                   .arg(QString::fromStdString(fixedText(b.netBenefit, 4)))
+                                   .arg(QString::fromStdString(fixedText(a.netBenefit, 4))));
     }
 }
 

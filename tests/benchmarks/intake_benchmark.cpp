@@ -4,11 +4,13 @@
 //   plumbline-bench intake FILE [REPEATS]   intake alone: wall seconds, peak memory / file size
 //   plumbline-bench panel FILE [REPEATS]    the whole metric panel (ICI included) after intake,
 //                                           for both score columns of a simulated cohort
+//   plumbline-bench planner                 the sample-size planner: milliseconds per answer
 //   plumbline-bench bootstrap FILE REPLICATES [curve]
 //                                           the bootstrap of the supplier score's panel on 2
 //                                           threads; with "curve" also ICI and both bands
 #include "intake.hpp"
 #include "bootstrap_engine.hpp"
+#include "sample_size.hpp"
 #include "validation.hpp"
 
 #include <sys/resource.h>
@@ -142,13 +144,40 @@ int benchmarkBootstrap(const std::string& path, std::size_t replicates, bool cur
 
 } // namespace
 
+// The sample-size planner as the window uses it: one answer per change a person types. Walks a
+// grid of prevalences and C statistics (with three net-benefit thresholds) and reports the mean
+// and the slowest answer.
+int benchmarkPlanner()
+{
+    std::vector<double> millis;
+    plumbline::SampleSizeTargets targets;
+    targets.thresholds = {0.1, 0.2, 0.3};
+    for (double prevalence : {0.01, 0.05, 0.1, 0.15, 0.2, 0.3, 0.5})
+        for (double c : {0.55, 0.6, 0.65, 0.7, 0.75, 0.8, 0.85, 0.9, 0.95}) {
+            const auto start = std::chrono::steady_clock::now();
+            const auto plan = plumbline::planSampleSize(prevalence, c, targets);
+            const std::string text = plan ? plumbline::describePlan(*plan, prevalence, c, targets) : std::string();
+            millis.push_back(std::chrono::duration<double, std::milli>(std::chrono::steady_clock::now() - start).count());
+            if (text.empty())
+                return 1;
+        }
+    double total = 0.0;
+    for (double m : millis)
+        total += m;
+    std::printf("planner: changes=%zu mean_ms=%.1f max_ms=%.1f\n", millis.size(), total / double(millis.size()),
+                *std::max_element(millis.begin(), millis.end()));
+    return 0;
+}
+
 int main(int argc, char** argv)
 {
     const std::string mode = argc > 1 ? argv[1] : "";
+    if (mode == "planner")
+        return benchmarkPlanner();
     if (mode == "bootstrap" && argc >= 4)
         return benchmarkBootstrap(argv[2], std::strtoul(argv[3], nullptr, 10), argc > 4 && std::string(argv[4]) == "curve");
     if (argc < 3 || (mode != "intake" && mode != "panel")) {
-        std::fprintf(stderr, "usage: plumbline-bench intake|panel FILE [REPEATS] | bootstrap FILE REPLICATES [curve]\n");
+        std::fprintf(stderr, "usage: plumbline-bench intake|panel FILE [REPEATS] | bootstrap FILE REPLICATES [curve] | planner\n");
         return 2;
     }
     const int repeats = argc > 3 ? std::max(1, std::atoi(argv[3])) : 5;

@@ -102,6 +102,11 @@ peer_s=$(sed -E 's/.*median_s=([0-9.]+).*/\1/' <<<"$peer")
 ours=$(sed -E 's/.*median_s=([0-9.]+).*/\1/' <<<"$plumbline")
 theirs=$(sed -E 's/.*median_s=([0-9.]+).*/\1/' <<<"$pandas")
 rss=$(sed -E 's/.*rss_over_file=([0-9.]+).*/\1/' <<<"$plumbline")
+echo "== sample-size planner, one answer per typed change (63 changes)"
+planner=$("$build/tests/benchmarks/plumbline-bench" planner | tee /dev/stderr)
+planner_mean=$(sed -E 's/.*mean_ms=([0-9.]+).*/\1/' <<<"$planner")
+planner_max=$(sed -E 's/.*max_ms=([0-9.]+).*/\1/' <<<"$planner")
+echo
 printf '%-34s %10s %12s\n' "step" "median s" "goal"
 printf '%-34s %10s %12s\n' "intake, 1,000,000 rows" "$ours" "<= 0.5 s"
 printf '%-34s %10s %12s\n' "peak memory / file size" "$rss" "<= 3"
@@ -115,3 +120,4 @@ printf '%-34s %10s %12s\n' "bootstrap B=1000, ICI + bands" "$bootcurve_s" "<= 15
 printf '%-34s %10s %12s\n' "  extra memory, bytes per row" "$bootmem" "few"
 printf '%-34s %10s %12s\n' "Python peer, 5 metrics, B=1000" "$bootpeer_s" "-"
 awk -v a="$boot_s" -v b="$bootpeer_s" 'BEGIN { printf "%-34s %10.0fx\n", "peer time / plumbline bootstrap", b / a }'
+printf '%-34s %10s %12s\n' "planner, mean / slowest answer, ms" "$planner_mean / $planner_max" "<= 50 ms"

@@ -26,7 +26,23 @@ private slots:
         QCOMPARE(model.index(0, IntakeAuditModel::LinesColumn).data().toString(), QStringLiteral("4, 9, 10, 22, 31, …"));
         QCOMPARE(model.index(1, IntakeAuditModel::LinesColumn).data().toString(), QStringLiteral("7, …"));
         QCOMPARE(model.headerData(IntakeAuditModel::RowsColumn, Qt::Horizontal).toString(), QStringLiteral("Rows"));
+        QCOMPARE(model.index(0, IntakeAuditModel::FileColumn).data().toString(), QStringLiteral("c.csv"));
         QVERIFY(!model.index(5, 0).data().isValid());
+    }
+
+    void aJoinNamesTheFileOfEveryLineNumber()
+    {
+        IntakeAudit audit;
+        audit.exclusions.push_back({ExclusionReason::MissingOutcome, "/data/scores.csv", "supplier_score", 2, {5, 8}});
+        JoinSummary join;
+        join.outcomeFileExclusions.push_back({ExclusionReason::DuplicateId, "/data/outcomes.csv", "encounter_id", 1, {12}});
+        audit.join = join;
+        IntakeAuditModel model;
+        model.setAudit(audit);
+        QCOMPARE(model.rowCount(), 2);
+        QCOMPARE(model.index(0, IntakeAuditModel::FileColumn).data().toString(), QStringLiteral("scores.csv"));
+        QCOMPARE(model.index(1, IntakeAuditModel::FileColumn).data().toString(), QStringLiteral("outcomes.csv"));
+        QCOMPARE(model.index(1, IntakeAuditModel::LinesColumn).data().toString(), QStringLiteral("12"));
     }
 };
 

@@ -21,6 +21,8 @@
 #include "threshold_panel.hpp"
 #include "threshold_summary_model.hpp"
 #include "validation_task.hpp"
+#include "fresh_settings_main.hpp"
+#include "window_test_support.hpp"
 
 #include <QDir>
 #include <QElapsedTimer>
@@ -41,21 +43,9 @@
 #include <QTimer>
 
 using namespace plumbline;
+using namespace plumbline::testing;
 
 namespace {
-
-const QString sampleFile = QStringLiteral(PLUMBLINE_SAMPLE_DATA "/readmissions.csv");
-
-AnalysisRequest sampleRequest(std::size_t replicates)
-{
-    AnalysisRequest request;
-    request.intake.cohortFile = sampleFile.toStdString();
-    request.intake.outcomeColumn = "readmitted_30d";
-    request.intake.scoreColumns = {"supplier_score", "local_score"};
-    request.bootstrap.replicates = replicates;
-    request.bootstrap.seed = 99;
-    return request;
-}
 
 // The core's own answer for a request, computed here without the window.
 ValidationResult coreResult(const AnalysisRequest& request)
@@ -65,13 +55,6 @@ ValidationResult coreResult(const AnalysisRequest& request)
     if (request.bootstrap.replicates > 0)
         applyBootstrap(result, *runBootstrap(intake->cohort, result, request.bootstrap, {}, {}));
     return result;
-}
-
-bool runAndWait(MainWindow& window, const AnalysisRequest& request, int timeoutMs = 120000)
-{
-    QSignalSpy finished(window.task(), &ValidationTask::finished);
-    window.runRequest(request);
-    return finished.wait(timeoutMs);
 }
 
 } // namespace
@@ -122,7 +105,7 @@ private slots:
                 const auto& risks = intake->cohort.models[std::size_t(m)].values;
                 const std::vector<double> thresholds{t};
                 const ThresholdMetrics core = thresholdMetrics(intake->cohort.outcome, risks, thresholds, 0.95, CiMethod::Wilson)[0];
-                ThresholdSummaryModel* model = window.thresholdPanel()->summaryModel();
+                ThresholdSummaryModel* model = window.summaryModel();
                 QCOMPARE(model->index(m, ThresholdSummaryModel::TpColumn).data(Qt::UserRole).toULongLong(), qulonglong(core.tp));
                 QCOMPARE(model->index(m, ThresholdSummaryModel::FpColumn).data(Qt::UserRole).toULongLong(), qulonglong(core.fp));
                 QCOMPARE(model->index(m, ThresholdSummaryModel::TnColumn).data(Qt::UserRole).toULongLong(), qulonglong(core.tn));
@@ -378,5 +361,5 @@ private slots:
     }
 };
 
-QTEST_MAIN(MainWindowTests)
+PLUMBLINE_FRESH_SETTINGS_MAIN(MainWindowTests)
 #include "main_window_tests.moc"
