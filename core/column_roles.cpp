@@ -82,6 +82,11 @@ bool couldHoldScores(const ColumnProfile& c)
     return c.type == "number" || c.type == "integer" || (c.type == "text" && !c.minimum.empty());
 }
 
+bool couldBeSubgroup(const ColumnProfile& c)
+{
+    return (c.type == "text" || c.type == "binary" || c.type == "integer") && !c.distinctCapped && c.distinct >= 2 && c.distinct <= 100;
+}
+
 TablePreview previewTable(const DelimitedTable& table, std::size_t maxRows)
 {
     TablePreview preview;

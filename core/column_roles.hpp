@@ -24,6 +24,9 @@ ColumnRoles guessColumnRoles(const TableProfile& profile);
 
 // Numbers, or numbers with stray text the intake will count: a column that can hold scores.
 bool couldHoldScores(const ColumnProfile& column);
+// Text, yes/no or whole numbers with 2 to 100 values: a column that can split patients into
+// subgroups (a site, an age band, a payer). Continuous numbers and dates cannot.
+bool couldBeSubgroup(const ColumnProfile& column);
 
 // The first rows of a table as parsed (after quoting rules), with their line numbers.
 struct TablePreview {

@@ -125,15 +125,22 @@ ImportDialog::ImportDialog(QWidget* parent)
     for (QComboBox* box : {m_scale, m_period, m_outcomesId, m_delimiter})
         connect(box, &QComboBox::currentIndexChanged, this, &ImportDialog::stale);
     // The outcome and the id are never offered as scores.
+    auto names = [](const QStringList& list) {
+        std::vector<std::string> out;
+        for (const QString& name : list)
+            out.push_back(name.toStdString());
+        return out;
+    };
     for (QComboBox* box : {m_outcome, m_id})
-        connect(box, &QComboBox::currentIndexChanged, this, [this] {
-            std::vector<std::string> wanted;
-            for (const QString& name : checkedItems(m_scores))
-                wanted.push_back(name.toStdString());
-            refreshScoreChoices(wanted);
+        connect(box, &QComboBox::currentIndexChanged, this, [this, names] {
+            refreshScoreChoices(names(checkedItems(m_scores)));
+            refreshGroupChoices(names(checkedItems(m_groups)));
             stale();
         });
-    connect(m_scores, &QListWidget::itemChanged, this, &ImportDialog::stale);
+    connect(m_scores, &QListWidget::itemChanged, this, [this, names] {
+        refreshGroupChoices(names(checkedItems(m_groups)));
+        stale();
+    });
     connect(m_groups, &QListWidget::itemChanged, this, &ImportDialog::stale);
     connect(m_event, &QLineEdit::textChanged, this, &ImportDialog::stale);
     connect(m_decimalComma, &QCheckBox::toggled, this, &ImportDialog::stale);
@@ -333,9 +340,13 @@ bool ImportDialog::loadFile(const QString& path)
         return false;
     }
     m_numericColumns.clear();
-    for (const auto& column : profile->columns)
+    m_categoryColumns.clear();
+    for (const auto& column : profile->columns) {
         if (couldHoldScores(column))
             m_numericColumns.push_back(column.name);
+        if (couldBeSubgroup(column))
+            m_categoryColumns.push_back(column.name);
+    }
     m_loadedPath = path;
     rememberFolderOf(path);
     showPreview(previewTable(*table, 20));
@@ -394,11 +405,9 @@ void ImportDialog::fillColumnChoices(const std::vector<std::string>& header, con
     {
         const QSignalBlocker blockOutcome(m_outcome);
         const QSignalBlocker blockId(m_id);
-        const QSignalBlocker blockGroups(m_groups);
         m_outcome->clear();
         m_id->clear();
         m_period->clear();
-        m_groups->clear();
         m_outcome->addItem(none);
         m_id->addItem(none);
         m_period->addItem(none);
@@ -407,8 +416,6 @@ void ImportDialog::fillColumnChoices(const std::vector<std::string>& header, con
             m_outcome->addItem(column);
             m_id->addItem(column);
             m_period->addItem(column);
-            auto* group = new QListWidgetItem(column, m_groups);
-            group->setCheckState(std::find(roles.groups.begin(), roles.groups.end(), name) != roles.groups.end() ? Qt::Checked : Qt::Unchecked);
         }
         if (roles.outcome)
             m_outcome->setCurrentText(QString::fromStdString(*roles.outcome));
@@ -419,6 +426,7 @@ void ImportDialog::fillColumnChoices(const std::vector<std::string>& header, con
         m_period->setCurrentText(QString::fromStdString(*roles.period));
     m_scale->setCurrentText(QString::fromLatin1(scaleName(roles.scale).data()));
     refreshScoreChoices(roles.scores);
+    refreshGroupChoices(roles.groups);
 }
 
 void ImportDialog::refreshScoreChoices(const std::vector<std::string>& wanted)
@@ -432,6 +440,32 @@ void ImportDialog::refreshScoreChoices(const std::vector<std::string>& wanted)
         auto* item = new QListWidgetItem(QString::fromStdString(name), m_scores);
         item->setCheckState(std::find(wanted.begin(), wanted.end(), name) != wanted.end() ? Qt::Checked : Qt::Unchecked);
     }
+}
+
+void ImportDialog::refreshGroupChoices(const std::vector<std::string>& wanted)
+{
+    const QSignalBlocker block(m_groups);
+    m_groups->clear();
+    const auto outcome = chosen(m_outcome), id = chosen(m_id);
+    const QStringList scores = checkedItems(m_scores);
+    std::vector<std::string> offered = m_categoryColumns;
+    for (const auto& name : wanted) // a saved choice stays offered even when it looks continuous
+        if (std::find(offered.begin(), offered.end(), name) == offered.end())
+            offered.push_back(name);
+    for (const auto& name : offered) {
+        if (name == outcome || name == id || scores.contains(QString::fromStdString(name)))
+            continue;
+        auto* item = new QListWidgetItem(QString::fromStdString(name), m_groups);
+        item->setCheckState(std::find(wanted.begin(), wanted.end(), name) != wanted.end() ? Qt::Checked : Qt::Unchecked);
+    }
+}
+
+QStringList ImportDialog::groupChoices() const
+{
+    QStringList out;
+    for (int i = 0; i < m_groups->count(); ++i)
+        out << m_groups->item(i)->text();
+    return out;
 }
 
 QStringList ImportDialog::scoreChoices() const
@@ -469,14 +503,10 @@ IntakeSettings ImportDialog::intakeSettings() const
 
 void ImportDialog::setMapping(const IntakeSettings& settings)
 {
-    for (int i = 0; i < m_groups->count(); ++i) {
-        const std::string name = m_groups->item(i)->text().toStdString();
-        const bool wanted = std::find(settings.groupColumns.begin(), settings.groupColumns.end(), name) != settings.groupColumns.end();
-        m_groups->item(i)->setCheckState(wanted ? Qt::Checked : Qt::Unchecked);
-    }
     m_outcome->setCurrentText(settings.outcomeColumn.empty() ? none : QString::fromStdString(settings.outcomeColumn));
     m_id->setCurrentText(settings.idColumn ? QString::fromStdString(*settings.idColumn) : none);
     refreshScoreChoices(settings.scoreColumns);
+    refreshGroupChoices(settings.groupColumns);
     m_period->setCurrentText(settings.periodColumn ? QString::fromStdString(*settings.periodColumn) : none);
     m_scale->setCurrentText(QString::fromLatin1(scaleName(settings.scale).data()));
     m_event->setText(settings.eventValue ? QString::fromStdString(*settings.eventValue) : QString());

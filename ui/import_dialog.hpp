@@ -46,6 +46,8 @@ public:
     const std::optional<IntakeResult>& checkedIntake() const { return m_checked; }
     // The columns offered as scores (numbers only, never the outcome or the id).
     QStringList scoreChoices() const;
+    // The columns offered as subgroups (categories, never a chosen outcome, score or id).
+    QStringList groupChoices() const;
     QPushButton* runButton() const { return m_run; }
 
 protected:
@@ -55,6 +57,7 @@ private:
     void buildLayout();
     void fillColumnChoices(const std::vector<std::string>& header, const struct ColumnRoles& roles);
     void refreshScoreChoices(const std::vector<std::string>& wanted);
+    void refreshGroupChoices(const std::vector<std::string>& wanted);
     void showPreview(const struct TablePreview& preview);
     void showProblem(const QString& text);
     // The file read and split into fields; on failure the problem is shown and nullopt returned.
@@ -89,6 +92,7 @@ private:
     std::optional<IntakeResult> m_checked;
     QString m_loadedPath;
     std::vector<std::string> m_numericColumns;
+    std::vector<std::string> m_categoryColumns;
     bool m_runAfterCheck = false;
 };
 

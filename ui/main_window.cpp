@@ -40,6 +40,7 @@
 #include <QPushButton>
 #include <QScreen>
 #include <QSettings>
+#include <QStackedWidget>
 #include <QStatusBar>
 #include <QTabWidget>
 #include <QVBoxLayout>
@@ -57,6 +58,7 @@ QString cautionText()
 MainWindow::MainWindow(QWidget* parent)
     : QMainWindow(parent)
     , m_task(new ValidationTask(this))
+    , m_overviewPages(new QStackedWidget)
     , m_overview(new OverviewPanel)
     , m_threshold(new ThresholdPanel)
     , m_metrics(new MetricTableModel(this))
@@ -205,7 +207,7 @@ QWidget* MainWindow::buildCentralArea()
     metricView->setModel(m_metrics);
     metricView->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
     metricView->setAccessibleName(tr("Metrics"));
-    m_tabs->addTab(m_overview, tr("O&verview"));
+    m_tabs->addTab(buildOverviewPage(), tr("O&verview"));
     m_tabs->addTab(metricView, tr("&Metrics"));
     m_tabs->addTab(m_riskGroups, tr("Risk &groups"));
     m_tabs->addTab(m_comparison, tr("Co&mparison"));
@@ -234,6 +236,33 @@ QWidget* MainWindow::buildCentralArea()
     return central;
 }
 
+// Before the first run the Overview says how to begin, instead of showing empty charts.
+QWidget* MainWindow::buildOverviewPage()
+{
+    auto* welcome = new QLabel(tr("<h2>Validate a risk model on your own patients</h2>"
+                                  "<p>Open a file of scored patients: one row per patient, the outcome (0/1 or yes/no), one "
+                                  "column of predicted risk per model, and optionally an id, sites or other subgroups and a "
+                                  "date.</p><p>Plumbline shows the rows it reads, guesses what each column is, accounts for "
+                                  "every row, then computes discrimination, calibration, overall accuracy and usefulness at "
+                                  "the thresholds your care team will act on, with honest intervals.</p>"
+                                  "<p>File → Open cohort (Ctrl+O), or drop a file on this window. Help → Guide to the window "
+                                  "(F1) explains every part.</p>"));
+    welcome->setWordWrap(true);
+    welcome->setAlignment(Qt::AlignTop | Qt::AlignLeft);
+    welcome->setMaximumWidth(760);
+    auto* open = new QPushButton(tr("Open a cohort…"));
+    connect(open, &QPushButton::clicked, this, [this] { openWithDialog(); });
+    auto* page = new QWidget;
+    auto* layout = new QVBoxLayout(page);
+    layout->setContentsMargins(24, 24, 24, 24);
+    layout->addWidget(welcome);
+    layout->addWidget(open, 0, Qt::AlignLeft);
+    layout->addStretch(1);
+    m_overviewPages->addWidget(page);
+    m_overviewPages->addWidget(m_overview);
+    return m_overviewPages;
+}
+
 void MainWindow::buildStatusBar()
 {
     m_progress->setRange(0, 100);
@@ -252,7 +281,7 @@ void MainWindow::resetLayout()
     m_riskGroups->resetLayout();
     m_subgroups->resetLayout();
     m_periods->resetLayout();
-    m_tabs->setCurrentWidget(m_overview);
+    m_tabs->setCurrentIndex(0);
 }
 
 std::optional<AnalysisRequest> MainWindow::currentRequest() const
@@ -295,6 +324,7 @@ void MainWindow::showSnapshot(SnapshotPointer snapshot)
                              .arg(request.panel.confidence * 100.0)
                              .arg(intervals));
     m_overview->setSnapshot(m_snapshot);
+    m_overviewPages->setCurrentWidget(m_overview);
     m_metrics->setSnapshot(m_snapshot);
     m_riskGroups->setSnapshot(m_snapshot);
     m_cohort->setSnapshot(m_snapshot);

@@ -10,6 +10,7 @@ class QLabel;
 class QMenu;
 class QProgressBar;
 class QPushButton;
+class QStackedWidget;
 class QTabWidget;
 
 namespace plumbline {
@@ -96,6 +97,7 @@ private:
     void buildMenus();
     void buildFileMenu();
     QWidget* buildCentralArea();
+    QWidget* buildOverviewPage();
     void buildStatusBar();
     void fitToScreen(bool always);
     void showSnapshot(SnapshotPointer snapshot);
@@ -114,6 +116,7 @@ private:
 
     ValidationTask* m_task;
     SnapshotPointer m_snapshot;
+    QStackedWidget* m_overviewPages;
     OverviewPanel* m_overview;
     ThresholdPanel* m_threshold;
     MetricTableModel* m_metrics;

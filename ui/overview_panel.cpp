@@ -6,6 +6,7 @@
 #include "threshold_summary_model.hpp"
 
 #include <QComboBox>
+#include <QFontMetrics>
 #include <QHBoxLayout>
 #include <QHeaderView>
 #include <QLabel>
@@ -70,12 +71,13 @@ QWidget* OverviewPanel::buildSummaryColumn()
     m_summaryTable->setSelectionMode(QAbstractItemView::NoSelection);
     m_summaryTable->setVerticalScrollBarPolicy(Qt::ScrollBarAlwaysOff);
     m_summaryTable->setAccessibleName(tr("Each model at the decision threshold"));
+    m_summaryTable->installEventFilter(this); // its own width decides which columns it shows
     QFont compact = m_summaryTable->font(); // twelve columns under half the window
     compact.setPointSizeF(compact.pointSizeF() * 0.9);
     m_summaryTable->setFont(compact);
     m_distributionModel->setAccessibleName(tr("Model whose risk distribution is shown"));
     m_distributionModel->setSizeAdjustPolicy(QComboBox::AdjustToContents);
-    auto* caption = new QLabel(tr("At the decision threshold (hover a column heading for its meaning):"));
+    auto* caption = new QLabel(tr("At the decision threshold (hover a heading for its meaning, a row for its counts):"));
     auto* pickerLabel = new QLabel(tr("Risk distribution &beside:"));
     pickerLabel->setBuddy(m_distributionModel);
     auto* picker = new QHBoxLayout;
@@ -104,6 +106,19 @@ void OverviewPanel::resetLayout()
 
 void OverviewPanel::fitSummaryHeight()
 {
+    // In a narrow window TN and FN give way first (every cell's tooltip still has the whole 2×2
+    // table), so that sensitivity, PPV, the share flagged and net benefit stay in view.
+    const QFontMetrics metrics(m_summaryTable->font());
+    int needed = 2 * m_summaryTable->frameWidth() + 24; // the colour swatch of the model column
+    for (int c = 0; c < m_summary->columnCount(); ++c) {
+        int widest = metrics.horizontalAdvance(m_summary->headerData(c, Qt::Horizontal).toString());
+        for (int r = 0; r < m_summary->rowCount(); ++r)
+            widest = std::max(widest, metrics.horizontalAdvance(m_summary->index(r, c).data().toString()));
+        needed += widest + 14; // cell padding and grid line
+    }
+    const bool narrow = needed > m_summaryTable->width();
+    m_summaryTable->setColumnHidden(ThresholdSummaryModel::TnColumn, narrow);
+    m_summaryTable->setColumnHidden(ThresholdSummaryModel::FnColumn, narrow);
     // Tall enough for every model's row (and the scroll bar, when the columns need one), no more.
     m_summaryTable->resizeRowsToContents();
     int height = m_summaryTable->horizontalHeader()->height() + 2 * m_summaryTable->frameWidth() + 2;
@@ -112,6 +127,13 @@ void OverviewPanel::fitSummaryHeight()
     if (m_summaryTable->horizontalHeader()->length() > m_summaryTable->width() - 2 * m_summaryTable->frameWidth())
         height += m_summaryTable->horizontalScrollBar()->sizeHint().height();
     m_summaryTable->setFixedHeight(height);
+}
+
+bool OverviewPanel::eventFilter(QObject* watched, QEvent* event)
+{
+    if (watched == m_summaryTable && event->type() == QEvent::Resize)
+        fitSummaryHeight();
+    return QWidget::eventFilter(watched, event);
 }
 
 void OverviewPanel::resizeEvent(QResizeEvent* event)

@@ -51,17 +51,24 @@ QVariant ThresholdSummaryModel::data(const QModelIndex& index, int role) const
         return {};
     const bool everyone = index.row() == treatAllRow();
     const ModelValidation& model = m_snapshot->validation.models[everyone ? 0 : static_cast<std::size_t>(index.row())];
-    const QString name = everyone ? tr("Treat all (flag everyone)") : QString::fromStdString(model.name);
+    const QString name = everyone ? tr("Treat all") : QString::fromStdString(model.name);
     if (role == Qt::DecorationRole && index.column() == ModelColumn && !everyone)
         return modelColour(index.row());
     if (role == Qt::TextAlignmentRole && index.column() != ModelColumn)
         return QVariant::fromValue(Qt::Alignment(Qt::AlignRight | Qt::AlignVCenter));
     if (role == Qt::ForegroundRole && everyone)
         return QColor(90, 90, 90);
-    if ((role != Qt::DisplayRole && role != Qt::UserRole) || model.operatingPoints.empty())
+    if ((role != Qt::DisplayRole && role != Qt::UserRole && role != Qt::ToolTipRole) || model.operatingPoints.empty())
         return index.column() == ModelColumn && role == Qt::DisplayRole ? name : QVariant();
     const OperatingPoint& modelPoint = model.operatingPoints[std::min(operatingPointIndex(m_threshold), model.operatingPoints.size() - 1)];
     const OperatingPoint p = everyone ? treatAll(modelPoint) : modelPoint;
+    if (role == Qt::ToolTipRole) // the whole 2×2 table, also when a narrow window hides TN and FN
+        return tr("%1 at threshold %2: flagged with the event (TP) %3, flagged without (FP) %4, not flagged without (TN) %5, "
+                  "missed (FN) %6")
+            .arg(everyone ? tr("Flagging everyone") : name)
+            .arg(m_threshold, 0, 'f', 3)
+            .arg(QLocale().toString(qulonglong(p.tp)), QLocale().toString(qulonglong(p.fp)), QLocale().toString(qulonglong(p.tn)),
+                 QLocale().toString(qulonglong(p.fn)));
     const OperatingPointSummary s = summarise(p);
     const bool raw = role == Qt::UserRole; // tests read the numbers, people the formatted text
     auto count = [&](std::size_t n) -> QVariant { return raw ? QVariant(qulonglong(n)) : QLocale().toString(qulonglong(n)); };

@@ -289,6 +289,9 @@ private slots:
         QVERIFY(!dialog.scoreChoices().contains(QStringLiteral("encounter_id")));
         QVERIFY(!dialog.scoreChoices().contains(QStringLiteral("readmitted_30d")));
         QVERIFY(!dialog.scoreChoices().contains(QStringLiteral("hospital")));
+        // Subgroups are categories: never the outcome, a score, the id or a date.
+        QCOMPARE(dialog.groupChoices(), (QStringList{QStringLiteral("hospital"), QStringLiteral("age_band"), QStringLiteral("sex"),
+                                                     QStringLiteral("payer")}));
         for (QPushButton* button : dialog.findChildren<QPushButton*>())
             QVERIFY2(button == dialog.runButton() || !button->autoDefault(), qPrintable(button->text()));
     }
