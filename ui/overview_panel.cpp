@@ -46,13 +46,16 @@ OverviewPanel::OverviewPanel(QWidget* parent)
     // The columns move together, so the distribution stays under the calibration plot, and its
     // plot area follows the calibration plot's: the two x axes line up.
     connect(m_top, &QSplitter::splitterMoved, this, [this] {
+        m_userMoved = true;
         m_bottom->setSizes(m_top->sizes());
         fitSummaryHeight();
     });
     connect(m_bottom, &QSplitter::splitterMoved, this, [this] {
+        m_userMoved = true;
         m_top->setSizes(m_bottom->sizes());
         fitSummaryHeight();
     });
+    connect(m_rows, &QSplitter::splitterMoved, this, [this] { m_userMoved = true; });
     connect(m_calibration, &ExportableChartView::plotAreaFitted, this, [this](const QRectF& area) {
         const QPoint left = m_distribution->mapFromGlobal(m_calibration->mapToGlobal(area.topLeft().toPoint()));
         const QPoint right = m_distribution->mapFromGlobal(m_calibration->mapToGlobal(area.topRight().toPoint()));
@@ -96,11 +99,12 @@ QWidget* OverviewPanel::buildSummaryColumn()
 
 void OverviewPanel::resetLayout()
 {
+    m_userMoved = false;
     const int half = std::max(1, width() / 2);
     m_top->setSizes({half, half});
     m_bottom->setSizes({half, half});
     const int height = std::max(400, this->height());
-    const int lower = std::clamp(height * 3 / 10, 140, 280);
+    const int lower = std::clamp(height / 4, 140, 280);
     m_rows->setSizes({height - lower, lower});
 }
 
@@ -139,10 +143,9 @@ bool OverviewPanel::eventFilter(QObject* watched, QEvent* event)
 void OverviewPanel::resizeEvent(QResizeEvent* event)
 {
     QWidget::resizeEvent(event);
-    if (!m_laidOut && width() > 100) { // the first real size: the default proportions
-        m_laidOut = true;
+    // The default proportions follow the window until the user moves a divider.
+    if (!m_userMoved)
         resetLayout();
-    }
     fitSummaryHeight();
 }
 

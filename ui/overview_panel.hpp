@@ -54,7 +54,7 @@ private:
     QSplitter* m_top;
     QSplitter* m_bottom;
     std::vector<bool> m_visible;
-    bool m_laidOut = false;
+    bool m_userMoved = false;
 };
 
 } // namespace plumbline

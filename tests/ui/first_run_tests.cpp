@@ -100,8 +100,10 @@ QJsonObject cliResult(const IntakeSettings& mapping, const QString& json)
     return QJsonDocument::fromJson(file.readAll()).object();
 }
 
+// What each chart's legend shows once the window has drawn it.
 QList<QStringList> legendsOf(MainWindow& window)
 {
+    QApplication::processEvents();
     QList<QStringList> out;
     for (ExportableChartView* chart : std::initializer_list<ExportableChartView*>{
              window.rocView(), window.calibrationView(), window.distributionView(), window.decisionCurveView(),
