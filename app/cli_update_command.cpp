@@ -1,15 +1,16 @@
 #include "cli_update_command.hpp"
 
-#include "csv_quoting.hpp"
-
 #include "atomic_file.hpp"
 #include "cli_exit.hpp"
 #include "cli_intake_options.hpp"
 #include "cli_text.hpp"
+#include "csv_quoting.hpp"
 #include "intake.hpp"
+#include "metric_reading.hpp"
 #include "model_updating.hpp"
 #include "result_json.hpp"
 #include "update_json.hpp"
+#include "value_text.hpp"
 
 #include <charconv>
 #include <iomanip>
@@ -40,15 +41,15 @@ void printUpdate(const ModelUpdate& u)
 {
     std::cout << "\nUpdating " << u.model << " (" << updateMethodName(u.method) << "): " << updateChoiceName(u.fit.choice) << '\n';
     if (u.fit.tests)
-        std::cout << "  closed test: intercept and slope jointly p = " << u.fit.tests->joint.pValue
-                  << "; slope given intercept p = " << u.fit.tests->slopeGivenIntercept.pValue << '\n';
+        std::cout << "  closed test: intercept and slope jointly " << pValueText(u.fit.tests->joint.pValue)
+                  << "; slope given intercept " << pValueText(u.fit.tests->slopeGivenIntercept.pValue) << '\n';
     std::cout << "  " << u.fit.formula() << "\n\n";
     std::cout << "  " << std::left << std::setw(24) << "metric" << std::right << std::setw(10) << "apparent" << std::setw(10)
               << "optimism" << std::setw(11) << "corrected\n";
     for (const auto& row : u.optimism)
-        std::cout << "  " << std::left << std::setw(24) << row.key << std::right << std::fixed << std::setprecision(4)
-                  << std::setw(10) << row.apparent << std::setw(10) << row.optimism << std::setw(10) << row.corrected << '\n';
-    std::cout.unsetf(std::ios::fixed);
+        std::cout << "  " << std::left << std::setw(24) << metricLabel(row.key) << std::right << std::setw(10)
+                  << fixedText(row.apparent, 4) << std::setw(10) << fixedText(row.optimism, 4) << std::setw(10)
+                  << fixedText(row.corrected, 4) << '\n';
     std::cout << "  (optimism from " << u.replicatesUsed << " of " << u.replicates << " bootstrap refits of the whole procedure)\n";
     for (const auto& caution : u.cautions)
         std::cout << "  note: " << caution << '\n';

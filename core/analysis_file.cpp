@@ -113,7 +113,7 @@ std::expected<AnalysisFile, InputError> loadAnalysisFile(const std::string& path
     }
     if (!json.contains("plumbline_analysis") || !json.at("plumbline_analysis").is_number_integer()) {
         error.problem = "this JSON file is not a Plumbline analysis (no \"plumbline_analysis\" version).";
-        error.remedy = "choose a file saved with Save analysis or --save-settings.";
+        error.remedy = "choose a file saved with File → Save analysis (or --save-settings).";
         return std::unexpected(error);
     }
     if (json.at("plumbline_analysis").get<int>() > formatVersion) {

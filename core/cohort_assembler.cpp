@@ -59,8 +59,9 @@ std::expected<void, InputError> checkProbabilityScale(const StagedRows& staged, 
         error.value = numberText(staged.rawScores[c][firstOutside]);
         error.problem = std::to_string(outside) + " of " + std::to_string(finite.size()) + " scores (" + percentText(share)
             + ") lie outside 0-1, so they are not probabilities: " + suggestion.reason + ".";
-        error.remedy = "rerun with --scale " + std::string(scaleName(suggestion.scale))
-            + " if that is how the model reports risk (or --scale probability to exclude the values outside 0-1).";
+        error.remedy = "if that is how the model reports risk, choose the scale " + std::string(scaleName(suggestion.scale))
+            + " (Score scale in the window, --scale " + std::string(scaleName(suggestion.scale))
+            + " on the command line); to exclude the values outside 0-1 instead, choose probability (--scale probability).";
         return std::unexpected(error);
     }
     return {};

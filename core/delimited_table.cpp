@@ -67,7 +67,7 @@ std::expected<DelimitedTable, InputError> DelimitedTable::open(TextFile file, st
             error.line = 1;
             error.value = firstLineOf(text);
             error.problem = "the header line does not split into columns on a comma, semicolon, tab or pipe.";
-            error.remedy = "check that this is the cohort file; if it uses another delimiter, give it with --delimiter.";
+            error.remedy = "check that this is the cohort file; if it uses another delimiter, choose it (Delimiter in the window, --delimiter on the command line).";
             return std::unexpected(error);
         }
     }

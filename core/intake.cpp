@@ -20,17 +20,17 @@ std::expected<void, InputError> checkSettings(const IntakeSettings& settings)
     error.file = settings.cohortFile;
     if (settings.cohortFile.empty()) {
         error.problem = "no cohort file was given.";
-        error.remedy = "name the file with the scores (and outcomes), or a saved analysis with --settings.";
+        error.remedy = "name the file with the scores (and outcomes), or open a saved analysis (File → Open analysis, or --settings).";
         return std::unexpected(error);
     }
     if (settings.outcomeColumn.empty()) {
         error.problem = "no outcome column was given.";
-        error.remedy = "name the column with the observed outcome with --outcome COLUMN.";
+        error.remedy = "choose the column with the observed outcome (Outcome column in the window, --outcome COLUMN on the command line).";
         return std::unexpected(error);
     }
     if (settings.scoreColumns.empty()) {
         error.problem = "no score column was given.";
-        error.remedy = "name the model's score column with --score COLUMN (repeat it to compare models).";
+        error.remedy = "choose the model's score column (Score columns in the window, --score COLUMN on the command line; several to compare models).";
         return std::unexpected(error);
     }
     std::unordered_set<std::string> seen;
@@ -46,7 +46,7 @@ std::expected<void, InputError> checkSettings(const IntakeSettings& settings)
     if (settings.outcomesFile && !settings.idColumn) {
         error.file = *settings.outcomesFile;
         error.problem = "outcomes in a second file need an id to join the two files on.";
-        error.remedy = "name the id column with --id COLUMN (and --outcomes-id if the outcomes file calls it differently).";
+        error.remedy = "choose the id column that links the two files (Id column in the window, --id COLUMN and, if the outcomes file calls it differently, --outcomes-id on the command line).";
         return std::unexpected(error);
     }
     return {};

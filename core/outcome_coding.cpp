@@ -41,7 +41,7 @@ std::expected<OutcomeCoding, InputError> codeOutcome(const std::vector<OutcomeLe
     if (levels.empty()) {
         error.kind = ErrorKind::ImpossibleAnalysis;
         error.problem = "the outcome column holds no values at all (every row is missing).";
-        error.remedy = "check that --outcome names the column with the observed outcome.";
+        error.remedy = "check that the outcome column chosen (--outcome) is the one with the observed outcome.";
         return std::unexpected(error);
     }
     if (levels.size() > 2) {
@@ -66,7 +66,7 @@ std::expected<OutcomeCoding, InputError> codeOutcome(const std::vector<OutcomeLe
                 return OutcomeCoding{i, 1 - i};
         error.value = *eventValue;
         error.problem = "the --event value does not occur in the outcome column, whose values are " + listLevels(levels) + ".";
-        error.remedy = "give --event one of those values.";
+        error.remedy = "give one of those values as the event value (Event value in the window, --event on the command line).";
         return std::unexpected(error);
     }
     for (const auto& [nonEvent, event] : knownPairs) {
@@ -76,7 +76,7 @@ std::expected<OutcomeCoding, InputError> codeOutcome(const std::vector<OutcomeLe
             return OutcomeCoding{0, 1};
     }
     error.problem = "the outcome values " + listLevels(levels) + " are not a recognised pair (0/1, yes/no, y/n, true/false).";
-    error.remedy = "say which value means the event with --event VALUE.";
+    error.remedy = "say which value means the event (Event value in the window, --event VALUE on the command line).";
     return std::unexpected(error);
 }
 

@@ -111,7 +111,7 @@ std::expected<PeriodAnalysis, InputError> analysePeriods(const Cohort& cohort, c
                 if (row != dates.codes.end() && std::size_t(row - dates.codes.begin()) < cohort.sourceLines.size())
                     error.line = cohort.sourceLines[std::size_t(row - dates.codes.begin())];
                 error.problem = "dates written like this are ambiguous: day/month/year and month/day/year read it differently.";
-                error.remedy = "say which with --date-format dmy (DD/MM/YYYY) or --date-format mdy (MM/DD/YYYY).";
+                error.remedy = "say which: Settings → Dates written as in the window, or --date-format dmy (DD/MM/YYYY) or mdy (MM/DD/YYYY) on the command line.";
                 return std::unexpected(error);
             }
         }
@@ -143,7 +143,7 @@ std::expected<PeriodAnalysis, InputError> analysePeriods(const Cohort& cohort, c
     if (out.undated == cohort.rows()) {
         error.value = firstUnparsed;
         error.problem = "no value of the period column reads as a date.";
-        error.remedy = "give dates as YYYY-MM-DD, or name the format with --date-format dmy or mdy.";
+        error.remedy = "give dates as YYYY-MM-DD, or name the format (Settings → Dates written as, or --date-format dmy or mdy).";
         return std::unexpected(error);
     }
     if (out.undated > 0)

@@ -62,13 +62,21 @@ void CalibrationChartView::attach(QAbstractSeries* series, bool inLegend)
         keepOutOfLegend(series);
 }
 
+// The risk group whose point is nearest to a position of the chart (hover and click report the
+// position, which may lie anywhere on the marker), within 3 % of the axis.
 int CalibrationChartView::groupAt(int model, const QPointF& point) const
 {
     const auto& groups = m_snapshot->validation.models[static_cast<std::size_t>(model)].riskGroups;
-    for (std::size_t k = 0; k < groups.size(); ++k)
-        if (groups[k].meanPredicted == point.x() && groups[k].observedRate == point.y())
-            return static_cast<int>(k);
-    return -1;
+    int nearest = -1;
+    double best = 0.03 * m_maximum;
+    for (std::size_t k = 0; k < groups.size(); ++k) {
+        const double d = std::hypot(groups[k].meanPredicted - point.x(), groups[k].observedRate - point.y());
+        if (d <= best) {
+            best = d;
+            nearest = static_cast<int>(k);
+        }
+    }
+    return nearest;
 }
 
 QString CalibrationChartView::groupTip(int model, int group) const
@@ -100,6 +108,12 @@ void CalibrationChartView::setSnapshot(SnapshotPointer snapshot)
     ideal->append(m_maximum, m_maximum);
     ideal->setPen(QPen(QColor(120, 120, 120), 1, Qt::DashLine));
     attach(ideal, true);
+    // The ring goes under the points, so that the point stays the one hovered and clicked.
+    m_highlight = new QScatterSeries;
+    m_highlight->setMarkerSize(18);
+    m_highlight->setColor(Qt::transparent);
+    m_highlight->setBorderColor(QColor(30, 30, 30));
+    attach(m_highlight, false);
     if (m_snapshot) {
         const auto& models = m_snapshot->validation.models;
         for (std::size_t m = 0; m < models.size(); ++m) {
@@ -125,7 +139,7 @@ void CalibrationChartView::setSnapshot(SnapshotPointer snapshot)
                 s.curve = new QLineSeries;
                 for (const auto& point : model.calibrationCurve) // clamped for display only
                     s.curve->append(point.predicted, std::clamp(point.observed, 0.0, m_maximum));
-                s.curve->setName(tr("%1 (smoothed)").arg(name));
+                s.curve->setName(name);
                 s.curve->setPen(QPen(modelColour(index), 2));
                 attach(s.curve, true);
             }
@@ -138,17 +152,18 @@ void CalibrationChartView::setSnapshot(SnapshotPointer snapshot)
                 s.whiskers.push_back(whisker);
             }
             s.groups = new QScatterSeries;
-            s.groups->setName(tr("%1 (risk groups, %2 % CI)").arg(name).arg(m_snapshot->validation.settings.confidence * 100.0));
             s.groups->setMarkerSize(8);
             s.groups->setColor(modelColour(index));
             s.groups->setBorderColor(Qt::white);
             for (const auto& g : model.riskGroups)
                 s.groups->append(g.meanPredicted, g.observedRate);
-            attach(s.groups, true);
+            attach(s.groups, false);
             connect(s.groups, &QScatterSeries::hovered, this, [this, index](const QPointF& point, bool state) {
                 const int group = state ? groupAt(index, point) : -1;
                 if (group >= 0)
                     showValueTip(groupTip(index, group));
+                else
+                    hideValueTip();
                 emit riskGroupHovered(index, group);
             });
             connect(s.groups, &QScatterSeries::clicked, this, [this, index](const QPointF& point) {
@@ -160,11 +175,19 @@ void CalibrationChartView::setSnapshot(SnapshotPointer snapshot)
         }
     }
     m_visible.assign(m_series.size(), true);
-    m_highlight = new QScatterSeries;
-    m_highlight->setMarkerSize(18);
-    m_highlight->setColor(Qt::transparent);
-    m_highlight->setBorderColor(QColor(30, 30, 30));
-    attach(m_highlight, false);
+    // One legend entry explains the points of every model; the lines are the smoothed curves.
+    if (m_snapshot && !m_snapshot->validation.models.empty()) {
+        auto* key = new QScatterSeries;
+        key->setName(tr("points: risk groups, %1 % CI").arg(m_snapshot->validation.settings.confidence * 100.0));
+        key->setMarkerSize(8);
+        key->setColor(QColor(90, 90, 90));
+        key->setBorderColor(Qt::white);
+        attach(key, true);
+        auto* lines = new QLineSeries;
+        lines->setName(tr("lines: smoothed, with band"));
+        lines->setPen(QPen(QColor(90, 90, 90), 2));
+        attach(lines, true);
+    }
     m_thresholdLine = new QLineSeries;
     m_thresholdLine->setPen(thresholdPen());
     attach(m_thresholdLine, true);

@@ -2,6 +2,7 @@
 
 #include <QChart>
 #include <QFont>
+#include <QLegend>
 #include <QValueAxis>
 
 #include <cmath>
@@ -46,6 +47,8 @@ void styleChart(QChart* chart, const QString& title)
     chart->setBackgroundRoundness(0);
     chart->legend()->setFont(chartFont(8));
     chart->legend()->setAlignment(Qt::AlignBottom);
+    // A line's entry is a short piece of that line (dashes and dots included), a point's a dot.
+    chart->legend()->setMarkerShape(QLegend::MarkerShapeFromSeries);
     chart->setMargins(QMargins(4, 4, 4, 4));
 }
 

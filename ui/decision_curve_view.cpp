@@ -101,14 +101,27 @@ void DecisionCurveView::setSnapshot(SnapshotPointer snapshot)
         connect(s.curve, &QLineSeries::hovered, this, [this, m](const QPointF& point, bool state) {
             if (state && m_snapshot)
                 showValueTip(curveTip(m_snapshot->validation.models[m], point.x()));
+            else
+                hideValueTip();
         });
         m_series.push_back(s);
     }
     auto* all = new QLineSeries;
     all->setName(tr("Treat all"));
-    for (const auto& p : grid)
-        if (p.treatAll >= m_bottom)
+    // Down to the axis' edge: the last segment ends where treat-all crosses the bottom.
+    for (std::size_t k = 0; k < grid.size(); ++k) {
+        const auto& p = grid[k];
+        if (p.treatAll >= m_bottom) {
             all->append(p.threshold, p.treatAll);
+        } else {
+            if (k > 0 && grid[k - 1].treatAll > m_bottom) {
+                const auto& q = grid[k - 1];
+                const double share = (q.treatAll - m_bottom) / (q.treatAll - p.treatAll);
+                all->append(q.threshold + share * (p.threshold - q.threshold), m_bottom);
+            }
+            break;
+        }
+    }
     all->setPen(QPen(QColor(90, 90, 90), 1.5, Qt::DashLine));
     add(all);
     auto* none = new QLineSeries;

@@ -9,6 +9,7 @@
 #include <QContextMenuEvent>
 #include <QCursor>
 #include <QFileInfo>
+#include <QHelpEvent>
 #include <QGraphicsLayout>
 #include <QLegendMarker>
 #include <QMenu>
@@ -220,7 +221,23 @@ QStringList ExportableChartView::legendEntries() const
 
 void ExportableChartView::showValueTip(const QString& text)
 {
-    QToolTip::showText(QCursor::pos(), text);
+    m_valueTip = text;
+    QToolTip::showText(QCursor::pos(), text, viewport());
+}
+
+void ExportableChartView::hideValueTip()
+{
+    m_valueTip.clear();
+    QToolTip::hideText();
+}
+
+bool ExportableChartView::viewportEvent(QEvent* event)
+{
+    if (event->type() == QEvent::ToolTip && !m_valueTip.isEmpty()) {
+        QToolTip::showText(static_cast<QHelpEvent*>(event)->globalPos(), m_valueTip, viewport());
+        return true;
+    }
+    return QChartView::viewportEvent(event);
 }
 
 void ExportableChartView::contextMenuEvent(QContextMenuEvent* event)
@@ -234,6 +251,7 @@ void ExportableChartView::contextMenuEvent(QContextMenuEvent* event)
         return;
     if (chosen == copy) {
         copyToClipboard();
+        emit exported(tr("Chart copied: %1").arg(chart()->title().isEmpty() ? accessibleName() : chart()->title()));
         return;
     }
     const bool asSvg = chosen == svgAction;
@@ -244,6 +262,8 @@ void ExportableChartView::contextMenuEvent(QContextMenuEvent* event)
     QString error;
     if (!exportTo(path, QSize(900, 700), &error))
         QMessageBox::warning(this, tr("Chart not saved"), tr("%1 could not be written: %2").arg(path, error));
+    else
+        emit exported(tr("Chart saved to %1").arg(path));
     (void)png;
 }
 

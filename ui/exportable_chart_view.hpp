@@ -51,6 +51,8 @@ public:
 signals:
     // The plot area after fitting (square or aligned), in view coordinates.
     void plotAreaFitted(const QRectF& area);
+    // The chart was copied or saved from its context menu: what happened, for the status bar.
+    void exported(const QString& message);
 
 protected:
     void contextMenuEvent(QContextMenuEvent* event) override;
@@ -59,8 +61,11 @@ protected:
     void resetChart();
     // Re-fits the plot area after the chart's content changed (new series, a longer legend).
     void fitPlotArea();
-    // A tooltip with a value under the mouse (hovered points and lines).
-    static void showValueTip(const QString& text);
+    // A tooltip with a value under the mouse (hovered points and lines), kept until the mouse
+    // leaves the point: the scene's own tooltip handling would otherwise hide it at once.
+    void showValueTip(const QString& text);
+    void hideValueTip();
+    bool viewportEvent(QEvent* event) override;
 
 private:
     template <typename Draw>
@@ -72,6 +77,7 @@ private:
     bool m_square = false;
     qreal m_alignLeft = -1.0, m_alignRight = -1.0;
     bool m_exporting = false;
+    QString m_valueTip;
 };
 
 } // namespace plumbline

@@ -101,10 +101,12 @@ void ForestChartView::setRows(const std::vector<ForestRow>& rows, const Estimate
     add(hollow);
     // A hovered point names its row and values.
     for (QScatterSeries* series : {points, hollow})
-        connect(series, &QScatterSeries::hovered, this, [all, count](const QPointF& point, bool state) {
+        connect(series, &QScatterSeries::hovered, this, [this, all, count](const QPointF& point, bool state) {
             const auto k = static_cast<std::ptrdiff_t>(std::lround(count - 1.0 - point.y()));
-            if (!state || k < 0 || k >= static_cast<std::ptrdiff_t>(all.size()))
+            if (!state || k < 0 || k >= static_cast<std::ptrdiff_t>(all.size())) {
+                hideValueTip();
                 return;
+            }
             const ForestRow& r = all[static_cast<std::size_t>(k)];
             QString tip = QStringLiteral("%1: %2").arg(QString::fromStdString(r.label), QString::fromStdString(estimateText(r.estimate, 3)));
             if (!r.mark.empty())

@@ -78,6 +78,8 @@ void FunnelChartView::setFunnel(const std::vector<FunnelPoint>& points, const Fu
     add(dots);
     m_points = points;
     connect(dots, &QScatterSeries::hovered, this, [this](const QPointF& at, bool state) {
+        if (!state)
+            hideValueTip();
         for (const auto& p : m_points)
             if (state && p.expected == at.x() && p.oe == at.y())
                 showValueTip(tr("%1: O/E %2, %3 observed, %4 expected")
@@ -96,7 +98,9 @@ void FunnelChartView::placeLabels()
     m_labels.clear();
     QChart* c = chart();
     const QRectF plot = c->plotArea();
-    std::vector<QRectF> taken;
+    std::vector<QRectF> taken; // the points themselves first: a name never covers a point
+    for (const auto& p : m_points)
+        taken.emplace_back(c->mapToPosition(QPointF(p.expected, p.oe)) - QPointF(6, 6), QSizeF(12, 12));
     for (const auto& p : m_points) {
         auto* label = new QGraphicsSimpleTextItem(QString::fromStdString(p.level), c);
         label->setFont(QFont(QStringLiteral("DejaVu Sans"), 8));

@@ -94,6 +94,15 @@ ImportDialog::ImportDialog(QWidget* parent)
     m_file->setObjectName(QStringLiteral("cohortPath"));
     m_file->setPlaceholderText(tr("Type or paste a path and press Return, or Browse…"));
     m_file->installEventFilter(this);
+    m_outcomesFile->setObjectName(QStringLiteral("outcomesPath"));
+    m_twoFiles->setObjectName(QStringLiteral("twoFiles"));
+    m_outcomesFile->setPlaceholderText(tr("Type or paste a path and press Return, or Browse…"));
+    // A typed outcomes path is read on Return or when the box is left, like the cohort's.
+    connect(m_outcomesFile, &QLineEdit::editingFinished, this, [this] {
+        const QString typed = m_outcomesFile->text().trimmed();
+        if (!typed.isEmpty() && typed != m_loadedOutcomesPath)
+            loadOutcomesFile(typed);
+    });
     m_delimiter->addItem(tr("Sniff"), QString());
     m_delimiter->addItem(tr("Comma"), QStringLiteral(","));
     m_delimiter->addItem(tr("Semicolon"), QStringLiteral(";"));
@@ -348,7 +357,7 @@ bool ImportDialog::loadFile(const QString& path)
             m_categoryColumns.push_back(column.name);
     }
     m_loadedPath = path;
-    rememberFolderOf(path);
+    rememberFolderOf(path, FolderUse::Reading);
     showPreview(previewTable(*table, 20));
     fillColumnChoices(table->header(), guessColumnRoles(*profile));
     stale();
@@ -359,9 +368,12 @@ bool ImportDialog::loadOutcomesFile(const QString& path)
 {
     m_twoFiles->setChecked(true);
     m_outcomesFile->setText(path);
+    m_loadedOutcomesPath = path;
+    m_problem->clear();
     const auto table = openTable(path);
     if (!table)
         return false;
+    rememberFolderOf(path, FolderUse::Reading);
     const QSignalBlocker blockOutcome(m_outcome);
     m_outcomesId->clear();
     m_outcome->clear();

@@ -91,6 +91,7 @@ private:
     QFutureWatcher<std::expected<IntakeResult, InputError>> m_watcher;
     std::optional<IntakeResult> m_checked;
     QString m_loadedPath;
+    QString m_loadedOutcomesPath;
     std::vector<std::string> m_numericColumns;
     std::vector<std::string> m_categoryColumns;
     bool m_runAfterCheck = false;

@@ -10,6 +10,7 @@
 #include "exportable_chart_view.hpp"
 #include "guide_dialog.hpp"
 #include "metric_table_model.hpp"
+#include "metric_table_view.hpp"
 #include "model_palette.hpp"
 #include "option_lists.hpp"
 #include "overview_panel.hpp"
@@ -121,6 +122,10 @@ MainWindow::MainWindow(QWidget* parent)
         m_tabs->setCurrentWidget(m_riskGroups);
     });
 
+    // Charts copied or saved from their own menus say so where Edit → Copy chart does.
+    for (ExportableChartView* chart : findChildren<ExportableChartView*>())
+        connect(chart, &ExportableChartView::exported, m_status, &ElidedLabel::setFullText);
+
     QSettings settings;
     const bool restored = restoreGeometry(settings.value(QStringLiteral("window/geometry")).toByteArray());
     restoreState(settings.value(QStringLiteral("window/state")).toByteArray());
@@ -151,8 +156,11 @@ void MainWindow::fitToScreen(bool always)
         return;
     const QRect available = screen->availableGeometry();
     if (always || width() > available.width() || height() > available.height()) {
-        resize(std::min(1600, available.width()), std::min(1000, available.height()));
-        move(available.topLeft());
+        // A laptop screen is used whole; a large one mostly, leaving a margin around the window.
+        const bool small = available.width() <= 1400 || available.height() <= 800;
+        const QSize size = small ? available.size() : QSize(available.width() * 92 / 100, available.height() * 92 / 100);
+        resize(size);
+        move(available.topLeft() + QPoint((available.width() - size.width()) / 2, (available.height() - size.height()) / 2));
     }
 }
 
@@ -196,16 +204,14 @@ QWidget* MainWindow::buildCentralArea()
     caution->setAccessibleName(tr("Caution"));
     QFont titleFont = m_title->font();
     titleFont.setBold(true);
-    titleFont.setPointSizeF(titleFont.pointSizeF() * 1.15);
     m_title->setFont(titleFont);
     m_title->setFullText(tr("Open a cohort (File → Open, or drop a file here) to validate a risk model."));
     auto* togglesRow = new QHBoxLayout;
     togglesRow->addWidget(m_title, 1);
     togglesRow->addLayout(m_toggles);
 
-    auto* metricView = new CopyableTableView;
+    auto* metricView = new MetricTableView;
     metricView->setModel(m_metrics);
-    metricView->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
     metricView->setAccessibleName(tr("Metrics"));
     m_tabs->addTab(buildOverviewPage(), tr("O&verview"));
     m_tabs->addTab(metricView, tr("&Metrics"));
@@ -311,12 +317,12 @@ void MainWindow::showSnapshot(SnapshotPointer snapshot)
     const AnalysisRequest& request = m_snapshot->request;
     const IntakeAudit& audit = m_snapshot->audit;
     const QString intervals = m_snapshot->validation.bootstrap
-        ? tr("%1 intervals, %2 replicates, seed %3")
+        ? tr("%1, B = %2, seed %3")
               .arg(QString::fromStdString(bootstrapCiLabel(request.bootstrap.method)))
-              .arg(m_snapshot->validation.bootstrap->replicates)
+              .arg(QLocale().toString(qulonglong(m_snapshot->validation.bootstrap->replicates)))
               .arg(m_snapshot->validation.bootstrap->seed)
-        : tr("analytic intervals");
-    m_title->setFullText(tr("%1 — %2 patients, %3 with the event (%4 %); %5 % %6")
+        : tr("analytic");
+    m_title->setFullText(tr("%1 · %2 patients, %3 events (%4 %) · %5 % intervals: %6")
                              .arg(QFileInfo(QString::fromStdString(request.intake.cohortFile)).fileName())
                              .arg(QLocale().toString(qulonglong(audit.rowsUsed)))
                              .arg(QLocale().toString(qulonglong(audit.events)))
@@ -370,7 +376,8 @@ void MainWindow::rebuildModelToggles()
         swatch.fill(modelColour(int(m)));
         toggle->setIcon(QIcon(swatch));
         toggle->setChecked(true);
-        toggle->setToolTip(tr("Show or hide this model in the charts"));
+        toggle->setToolTip(tr("Show or hide this model in the Overview, Risk groups and Net benefit charts and the table "
+                              "at the threshold (Subgroups, Over time and Updating show the model chosen there)"));
         connect(toggle, &QCheckBox::toggled, this, [this, m](bool visible) { setModelVisible(int(m), visible); });
         m_toggles->addWidget(toggle);
     }

@@ -180,6 +180,8 @@ void OverviewPanel::setModelVisible(int model, bool visible)
     if (model < 0 || model >= static_cast<int>(m_visible.size()))
         return;
     m_visible[std::size_t(model)] = visible;
+    m_summaryTable->setRowHidden(model, !visible);
+    fitSummaryHeight();
     m_roc->setModelVisible(model, visible);
     m_calibration->setModelVisible(model, visible);
     // The distribution shows a model that is shown: the chosen one, else the first visible one.

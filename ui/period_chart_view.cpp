@@ -101,7 +101,7 @@ void PeriodChartView::setPoints(const std::vector<PeriodPoint>& points, const Es
         keepOutOfLegend(line);
     }
     auto* trend = new QLineSeries;
-    trend->setName(tr("by period, with CI"));
+    trend->setName(tr("by period"));
     trend->setPen(QPen(colour, 1.5));
     auto* filled = new QScatterSeries;
     filled->setMarkerSize(7);
@@ -134,10 +134,12 @@ void PeriodChartView::setPoints(const std::vector<PeriodPoint>& points, const Es
     if (hollow->count() == 0)
         keepOutOfLegend(hollow);
     for (QScatterSeries* series : {filled, hollow})
-        connect(series, &QScatterSeries::hovered, this, [points](const QPointF& point, bool state) {
+        connect(series, &QScatterSeries::hovered, this, [this, points](const QPointF& point, bool state) {
             const auto k = static_cast<std::ptrdiff_t>(std::lround(point.x()));
-            if (!state || k < 0 || k >= static_cast<std::ptrdiff_t>(points.size()))
+            if (!state || k < 0 || k >= static_cast<std::ptrdiff_t>(points.size())) {
+                hideValueTip();
                 return;
+            }
             const PeriodPoint& p = points[static_cast<std::size_t>(k)];
             QString tip = QStringLiteral("%1: %2").arg(QString::fromStdString(p.period), QString::fromStdString(estimateText(p.estimate, 3)));
             if (p.flagged)

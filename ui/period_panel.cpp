@@ -83,7 +83,7 @@ void PeriodPanel::showModel(int index)
         if (m_snapshot)
             for (const auto& w : m_snapshot->validation.warnings)
                 if (w.starts_with("No view over time"))
-                    text = QString::fromStdString(w) + tr(" (Settings tab: Dates written as.)");
+                    text = QString::fromStdString(w);
         m_note->setText(text);
         return;
     }

@@ -29,7 +29,7 @@ public:
 
     // The threshold the charts mark (read back from the calibration plot's line).
     double markedThreshold() const;
-    static QSize logicalSize() { return {540, 420}; } // small, so its text reads well when scaled to half a page
+    static QSize logicalSize() { return {700, 430}; } // small, so its text reads well when scaled to half a page
     void draw(ReportChart chart, QPainter* painter, const QRectF& target);
     QByteArray svg(ReportChart chart);
     // roc.png, roc.svg, calibration.png, calibration.svg into a folder (created if needed).

@@ -23,12 +23,15 @@ std::size_t operatingPointIndex(double threshold)
 
 namespace {
 
+// "name" over "C 0.719 (0.710–0.728)": two short lines fit beside the plot where one long line
+// would be cut (the legend shows rich text, so the name is escaped).
 QString legendText(const ModelValidation& model)
 {
+    const QString name = QString::fromStdString(model.name).toHtmlEscaped();
     const Estimate& c = model.metrics[CStatistic].estimate;
     if (!c.value)
-        return QString::fromStdString(model.name);
-    QString text = QStringLiteral("%1  C %2").arg(QString::fromStdString(model.name), QString::fromStdString(fixedText(*c.value, 3)));
+        return name;
+    QString text = QStringLiteral("%1<br>C %2").arg(name, QString::fromStdString(fixedText(*c.value, 3)));
     if (c.lower && c.upper)
         text += QStringLiteral(" (%1–%2)").arg(QString::fromStdString(fixedText(*c.lower, 3)), QString::fromStdString(fixedText(*c.upper, 3)));
     return text;
@@ -81,6 +84,7 @@ void RocChartView::setSnapshot(SnapshotPointer snapshot)
     QChart* c = chart();
     resetChart();
     m_series.clear();
+    m_thresholdKey = nullptr;
     c->addAxis(probabilityAxis(tr("1 − specificity (false-positive rate)")), Qt::AlignBottom);
     c->addAxis(probabilityAxis(tr("Sensitivity")), Qt::AlignLeft);
     auto* diagonal = new QLineSeries;
@@ -118,6 +122,8 @@ void RocChartView::setSnapshot(SnapshotPointer snapshot)
             connect(s.curve, &QLineSeries::hovered, this, [this, m](const QPointF& point, bool state) {
                 if (state && m_snapshot && m < m_snapshot->validation.models.size())
                     showValueTip(rocTip(m_snapshot->validation.models[m], point));
+                else
+                    hideValueTip();
             });
             s.marker = new QScatterSeries;
             s.marker->setMarkerSize(11);
@@ -128,6 +134,12 @@ void RocChartView::setSnapshot(SnapshotPointer snapshot)
             m_series.push_back(s);
         }
     }
+    // One legend entry for the dots that mark the threshold on every curve.
+    m_thresholdKey = new QScatterSeries;
+    m_thresholdKey->setMarkerSize(9);
+    m_thresholdKey->setColor(QColor(90, 90, 90));
+    m_thresholdKey->setBorderColor(Qt::white);
+    addAxes(m_thresholdKey);
     setThreshold(m_threshold);
     fitPlotArea();
 }
@@ -135,6 +147,8 @@ void RocChartView::setSnapshot(SnapshotPointer snapshot)
 void RocChartView::setThreshold(double threshold)
 {
     m_threshold = threshold;
+    if (m_thresholdKey)
+        m_thresholdKey->setName(tr("dots: flag if risk ≥ %1").arg(threshold, 0, 'f', 3));
     if (!m_snapshot)
         return;
     for (std::size_t m = 0; m < m_series.size(); ++m) {

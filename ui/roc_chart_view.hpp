@@ -37,6 +37,7 @@ private:
 
     SnapshotPointer m_snapshot;
     std::vector<ModelSeries> m_series;
+    QScatterSeries* m_thresholdKey = nullptr; // an empty series: the legend's entry for the dots
     double m_threshold = 0.2;
 };
 

@@ -4,12 +4,16 @@
 #include <QFileDialog>
 #include <QFileInfo>
 #include <QSettings>
+#include <QStandardPaths>
 
 namespace plumbline {
 
 namespace {
 
-const QString folderKey = QStringLiteral("paths/lastFolder");
+QString keyOf(FolderUse use)
+{
+    return use == FolderUse::Reading ? QStringLiteral("paths/lastReadFolder") : QStringLiteral("paths/lastWriteFolder");
+}
 
 QString filterOf(const FileKind& kind)
 {
@@ -18,16 +22,19 @@ QString filterOf(const FileKind& kind)
 
 } // namespace
 
-QString lastFolder()
+QString lastFolder(FolderUse use)
 {
-    const QString folder = QSettings().value(folderKey).toString();
-    return !folder.isEmpty() && QFileInfo(folder).isDir() ? folder : QDir::homePath();
+    const QString folder = QSettings().value(keyOf(use)).toString();
+    if (!folder.isEmpty() && QFileInfo(folder).isDir())
+        return folder;
+    const QString documents = QStandardPaths::writableLocation(QStandardPaths::DocumentsLocation);
+    return use == FolderUse::Writing && QFileInfo(documents).isDir() ? documents : QDir::homePath();
 }
 
-void rememberFolderOf(const QString& path)
+void rememberFolderOf(const QString& path, FolderUse use)
 {
     const QFileInfo info(path);
-    QSettings().setValue(folderKey, info.isDir() ? info.absoluteFilePath() : info.absolutePath());
+    QSettings().setValue(keyOf(use), info.isDir() ? info.absoluteFilePath() : info.absolutePath());
 }
 
 QString withSuffix(const QString& path, const QList<FileKind>& kinds, const QString& chosenFilter)
@@ -46,29 +53,29 @@ QString askSaveLocation(QWidget* parent, const QString& title, const QString& su
     QStringList filters;
     for (const FileKind& kind : kinds)
         filters << filterOf(kind);
-    const QString start = QDir(lastFolder()).filePath(kinds.isEmpty() ? suggestedName : suggestedName + QLatin1Char('.') + kinds.front().suffix);
+    const QString start = QDir(lastFolder(FolderUse::Writing)).filePath(kinds.isEmpty() ? suggestedName : suggestedName + QLatin1Char('.') + kinds.front().suffix);
     QString chosenFilter;
     const QString path = QFileDialog::getSaveFileName(parent, title, start, filters.join(QStringLiteral(";;")), &chosenFilter);
     if (path.isEmpty())
         return {};
     const QString complete = withSuffix(path, kinds, chosenFilter);
-    rememberFolderOf(complete);
+    rememberFolderOf(complete, FolderUse::Writing);
     return complete;
 }
 
 QString askFolder(QWidget* parent, const QString& title)
 {
-    const QString folder = QFileDialog::getExistingDirectory(parent, title, lastFolder());
+    const QString folder = QFileDialog::getExistingDirectory(parent, title, lastFolder(FolderUse::Writing));
     if (!folder.isEmpty())
-        rememberFolderOf(folder);
+        rememberFolderOf(folder, FolderUse::Writing);
     return folder;
 }
 
 QString askOpenLocation(QWidget* parent, const QString& title, const QString& filter)
 {
-    const QString path = QFileDialog::getOpenFileName(parent, title, lastFolder(), filter);
+    const QString path = QFileDialog::getOpenFileName(parent, title, lastFolder(FolderUse::Reading), filter);
     if (!path.isEmpty())
-        rememberFolderOf(path);
+        rememberFolderOf(path, FolderUse::Reading);
     return path;
 }
 

@@ -13,18 +13,21 @@ struct FileKind {
     QString suffix;
 };
 
-// Asks where to save, starting in the folder used last with a suggested name; a name typed
+// Asks where to save, starting in the folder last written to with a suggested name; a name typed
 // without a known suffix gets the suffix of the chosen kind (never a refusal). Empty when the
 // user cancels.
 QString askSaveLocation(QWidget* parent, const QString& title, const QString& suggestedName, const QList<FileKind>& kinds);
-// Asks for a folder, starting in the folder used last.
+// Asks for a folder to write into, starting in the folder last written to.
 QString askFolder(QWidget* parent, const QString& title);
-// Asks for a file to open, starting in the folder used last.
+// Asks for a file to open, starting in the folder last read from.
 QString askOpenLocation(QWidget* parent, const QString& title, const QString& filter);
 
-// The folder of the last file opened or saved (the user's home folder at first).
-QString lastFolder();
-void rememberFolderOf(const QString& path);
+// Files are read from one place and results written to another: the folder last read from
+// (the home folder at first) and the folder last written to (the documents folder at first,
+// never the data's folder by default).
+enum class FolderUse { Reading, Writing };
+QString lastFolder(FolderUse use);
+void rememberFolderOf(const QString& path, FolderUse use);
 
 // `path` with the suffix of the kind whose label is `filterLabel` added when it has none of
 // the kinds' suffixes.

@@ -140,12 +140,12 @@ void UpdatingPanel::showUpdate()
     }
     const ModelUpdate& u = *m_update;
     QString text = tr("<b>%1</b>: %2<br><tt>%3</tt>")
-                       .arg(QString::fromStdString(u.model), QString::fromLatin1(updateChoiceName(u.fit.choice).data()),
-                            QString::fromStdString(u.fit.formula()));
+                       .arg(QString::fromStdString(u.model).toHtmlEscaped(), QString::fromLatin1(updateChoiceName(u.fit.choice).data()),
+                            QString::fromStdString(u.fit.formula()).toHtmlEscaped());
     if (u.fit.tests)
         text += tr("<br>Closed test: intercept and slope jointly %1; slope given intercept %2.")
-                    .arg(QString::fromStdString(pValueText(u.fit.tests->joint.pValue)),
-                         QString::fromStdString(pValueText(u.fit.tests->slopeGivenIntercept.pValue)));
+                    .arg(QString::fromStdString(pValueText(u.fit.tests->joint.pValue)).toHtmlEscaped(),
+                         QString::fromStdString(pValueText(u.fit.tests->slopeGivenIntercept.pValue)).toHtmlEscaped());
     m_formula->setText(text);
     for (const auto& row : u.optimism) {
         const int r = m_optimism->rowCount();

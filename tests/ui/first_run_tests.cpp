@@ -26,6 +26,7 @@
 #include "subgroup_panel.hpp"
 #include "threshold_panel.hpp"
 #include "threshold_summary_model.hpp"
+#include "updating_panel.hpp"
 #include "validation_task.hpp"
 
 #include <QAction>
@@ -49,6 +50,7 @@
 #include <QTabWidget>
 #include <QTableWidget>
 #include <QTemporaryDir>
+#include <QTextDocument>
 #include <QTimer>
 
 #include <functional>
@@ -254,7 +256,7 @@ private slots:
         window.show();
         QVERIFY(runAndWait(window, sampleRequest(20))); // bands, so that band markers could leak
         const QList<QStringList> before = legendsOf(window);
-        QVERIFY(before[0].size() == 2 && before[1].size() >= 6);
+        QVERIFY(before[0].size() == 3 && before[1].size() >= 6); // ROC: two curves and the threshold's dots
         // A ring on model 2's group 3 and its distribution shown.
         window.riskGroupsPanel()->selectGroup(1, 2);
         QVERIFY(window.calibrationView()->highlightedPoint().x() >= 0.0);
@@ -296,6 +298,53 @@ private slots:
                                                      QStringLiteral("payer")}));
         for (QPushButton* button : dialog.findChildren<QPushButton*>())
             QVERIFY2(button == dialog.runButton() || !button->autoDefault(), qPrintable(button->text()));
+    }
+
+    void aTypedOutcomesPathIsReadLikeTheCohortPath()
+    {
+        ImportDialog dialog;
+        dialog.show();
+        QVERIFY(dialog.loadFile(QStringLiteral(PLUMBLINE_SAMPLE_DATA "/readmission-scores.csv")));
+        dialog.findChild<QCheckBox*>(QStringLiteral("twoFiles"))->setChecked(true);
+        auto* outcomes = dialog.findChild<QLineEdit*>(QStringLiteral("outcomesPath"));
+        outcomes->setFocus();
+        QTest::keyClicks(outcomes, QStringLiteral(PLUMBLINE_SAMPLE_DATA "/readmission-outcomes.csv"));
+        QTest::keyClick(outcomes, Qt::Key_Return);
+        const IntakeSettings mapping = dialog.intakeSettings();
+        QCOMPARE(mapping.outcomeColumn, std::string("readmitted_30d"));
+        QCOMPARE(mapping.outcomesIdColumn, std::optional<std::string>("encounter_id"));
+        QVERIFY(dialog.checkNow());
+        QCOMPARE(dialog.checkedIntake()->audit.join->matched, std::size_t(23934));
+    }
+
+    void clickingARiskGroupOpensItAndAHiddenModelLeavesTheTable()
+    {
+        MainWindow window;
+        window.show();
+        QVERIFY(runAndWait(window, sampleRequest(0)));
+        emit window.calibrationView()->riskGroupClicked(1, 9);
+        QCOMPARE(window.tabs()->currentWidget(), static_cast<QWidget*>(window.riskGroupsPanel()));
+        const QModelIndex current = window.riskGroupView()->selectionModel()->currentIndex();
+        QVERIFY(current.isValid());
+        QCOMPARE(current.siblingAtColumn(RiskGroupTableModel::GroupColumn).data(Qt::EditRole).toInt(), 10);
+        window.modelToggle(0)->setChecked(false);
+        QTableView* table = nullptr;
+        for (QTableView* view : window.overviewPanel()->findChildren<QTableView*>())
+            if (view->model() == window.summaryModel())
+                table = view;
+        QVERIFY(table && table->isRowHidden(0) && !table->isRowHidden(1));
+    }
+
+    void theUpdatingTabShowsTheClosedTestsPValuesInFull()
+    {
+        MainWindow window;
+        QVERIFY(runAndWait(window, sampleRequest(0)));
+        QSignalSpy done(window.updatingPanel(), &UpdatingPanel::updateFinished);
+        window.updatingPanel()->runUpdate();
+        QVERIFY(done.wait(60000));
+        QTextDocument shown;
+        shown.setHtml(window.updatingPanel()->formulaText()); // as the label renders it
+        QVERIFY2(shown.toPlainText().contains(QStringLiteral("slope given intercept p < 0.001")), qPrintable(shown.toPlainText()));
     }
 
     void thePlannerStartsFromTheLoadedCohort()
@@ -392,7 +441,7 @@ private slots:
         const auto periods = window.snapshot()->validation.periods->results;
         QLineSeries* trend = nullptr;
         for (QAbstractSeries* s : window.periodPanel()->oeChart()->chart()->series())
-            if (s->name() == QStringLiteral("by period, with CI"))
+            if (s->name() == QStringLiteral("by period"))
                 trend = qobject_cast<QLineSeries*>(s);
         QVERIFY(trend);
         QVERIFY(trend->count() >= 12);
