@@ -62,7 +62,7 @@ QString GuideDialog::guideHtml()
         "<tr><td>Esc</td><td>Cancel a run</td></tr>"
         "<tr><td>Ctrl+C</td><td>Copy the selected table rows</td></tr>"
         "<tr><td>Ctrl+Shift+C</td><td>Copy the chart</td></tr>"
-        "<tr><td>Ctrl+1 … Ctrl+9</td><td>Go to a tab</td></tr>"
+        "<tr><td>Ctrl+1 … Ctrl+9</td><td>Go to the first nine tabs (Settings: Alt+S)</td></tr>"
         "<tr><td>F1</td><td>This guide</td></tr></table>")
         + cautionsHtml();
 }

@@ -44,6 +44,7 @@
 #include <QStackedWidget>
 #include <QStatusBar>
 #include <QTabWidget>
+#include <QToolTip>
 #include <QVBoxLayout>
 
 namespace plumbline {
@@ -224,6 +225,7 @@ QWidget* MainWindow::buildCentralArea()
     m_tabs->addTab(m_cohort, tr("C&ohort"));
     m_tabs->addTab(m_settings, tr("&Settings"));
     m_tabs->setUsesScrollButtons(true);
+    connect(m_tabs, &QTabWidget::currentChanged, this, [] { QToolTip::hideText(); }); // no tip left from another page
     for (int t = 0; t < std::min(9, m_tabs->count()); ++t) {
         auto* go = new QAction(this);
         go->setShortcut(QKeySequence(Qt::CTRL | Qt::Key(Qt::Key_1 + t)));
