@@ -1,5 +1,7 @@
 #include "cli_analysis_options.hpp"
 
+#include "settings_check.hpp"
+
 namespace plumbline::cli {
 
 void AnalysisOptions::addTo(CLI::App& command)
@@ -18,6 +20,10 @@ void AnalysisOptions::addTo(CLI::App& command)
     command.add_option("--report-notes", report.notes, "Reviewer's notes, for the report");
     command.add_option("--settings", settingsFile, "Start from a saved analysis (*.plumbline.json); options given here override it");
     command.add_option("--save-settings", saveSettingsFile, "Save the analysis as a file that re-runs it exactly");
+    command.add_flag("--allow-outside-paths", allowOutsidePaths,
+                     "Let --settings read inputs named by an absolute path or outside the analysis file's folder");
+    command.add_flag("--strict-inputs", strictInputs,
+                     "Refuse --settings when an input has changed since it was saved or has no recorded SHA-256");
 }
 
 std::expected<AnalysisFile, InputError> AnalysisOptions::resolved(const CLI::App& command, std::vector<std::string>& warnings) const
@@ -31,7 +37,7 @@ std::expected<AnalysisFile, InputError> AnalysisOptions::resolved(const CLI::App
     const BootstrapSettings bootstrapGiven = bootstrap.resolved();
     AnalysisFile out;
     if (!settingsFile.empty()) {
-        auto loaded = loadAnalysisFile(settingsFile, warnings);
+        auto loaded = loadAnalysisFile(settingsFile, warnings, {allowOutsidePaths, strictInputs});
         if (!loaded)
             return std::unexpected(loaded.error());
         out = std::move(*loaded);
@@ -57,6 +63,7 @@ std::expected<AnalysisFile, InputError> AnalysisOptions::resolved(const CLI::App
         if (given("--decimal-comma")) i.decimalComma = g.decimalComma;
         if (given("--group")) i.groupColumns = g.groupColumns;
         if (given("--period")) i.periodColumn = g.periodColumn;
+        if (given("--max-line-length")) i.maxLineBytes = g.maxLineBytes;
         PanelSettings& p = out.panel;
         if (given("--thresholds")) p.thresholds = panelGiven->thresholds;
         if (given("--groups")) p.riskGroups = panelGiven->riskGroups;
@@ -88,6 +95,9 @@ std::expected<AnalysisFile, InputError> AnalysisOptions::resolved(const CLI::App
     text("--report-population", report.population, out.report.population);
     text("--report-period", report.period, out.report.period);
     text("--report-notes", report.notes, out.report.notes);
+    // The same bounds as an analysis file and the window, in the command line's words.
+    if (auto checked = checkAnalysisSettings(out, SettingsSource::CommandLine); !checked)
+        return std::unexpected(checked.error());
     return out;
 }
 

@@ -24,6 +24,8 @@ struct AnalysisOptions {
     ReportFields report;
     std::string settingsFile;
     std::string saveSettingsFile;
+    bool allowOutsidePaths = false;
+    bool strictInputs = false;
 
     void addTo(CLI::App& command);
     // The analysis as the user asked for it; warnings about the saved analysis's inputs go to

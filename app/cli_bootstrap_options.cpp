@@ -10,7 +10,8 @@ void BootstrapOptions::addTo(CLI::App& command)
 {
     command.add_option("--bootstrap", settings.replicates, "Bootstrap replicates (0 = analytic intervals only)")
         ->check(CLI::Range(std::size_t{0}, std::size_t{20000}));
-    command.add_option("--seed", settings.seed, "Seed of the resampling; the same seed gives the same results");
+    command.add_option("--seed", settings.seed, "Seed of the resampling; the same seed gives the same results")
+        ->check(CLI::NonNegativeNumber);
     command.add_option("--threads", settings.threads, "Threads for the bootstrap; results do not depend on it")
         ->check(CLI::Range(1u, 256u));
     command.add_option("--ci-method", ciMethod, "Bootstrap interval type")->check(CLI::IsMember({"percentile", "bca"}));

@@ -11,4 +11,8 @@ enum ExitStatus : int { Done = 0, InternalError = 1, UnusableInput = 2, Impossib
 // Prints the error on stderr in the one format every command shares and returns its status.
 int reportError(const InputError& error);
 
+// Running out of memory on a cohort is the size of the data, not a bug: says how many rows the
+// file holds (estimated from its first lines) and how much memory a run of that size needs.
+int reportOutOfMemory(const std::string& cohortFile);
+
 } // namespace plumbline::cli

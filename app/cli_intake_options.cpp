@@ -17,6 +17,8 @@ void IntakeOptions::addTo(CLI::App& command, bool required)
     command.add_flag("--decimal-comma", settings.decimalComma, "Read 0,25 as 0.25");
     command.add_option("--group", settings.groupColumns, "Subgroup column (repeatable)");
     command.add_option("--period", periodColumn, "Date column for performance over time");
+    command.add_option("--max-line-length", settings.maxLineBytes,
+                       "Longest line, in bytes, before a file is judged not to be a table (default 1048576)");
 }
 
 std::expected<IntakeSettings, InputError> IntakeOptions::resolved(const CLI::App& command) const

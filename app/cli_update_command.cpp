@@ -67,6 +67,12 @@ int runUpdate(const UpdateOptions& options, const CLI::App& command)
         error.remedy = "name one score column and the id column (e.g. --score supplier_score --id encounter_id).";
         return reportError(error);
     }
+    std::vector<std::string> inputs{settings->cohortFile};
+    if (settings->outcomesFile)
+        inputs.push_back(*settings->outcomesFile);
+    for (const auto& [output, option] : {std::pair{options.out, "--out"}, std::pair{options.jsonFile, "--json"}})
+        if (auto ok = refuseInputAsOutput(output, inputs, option); !ok)
+            return reportError(ok.error());
     const auto intake = runIntake(*settings);
     if (!intake)
         return reportError(intake.error());
@@ -132,7 +138,13 @@ void addUpdateCommand(CLI::App& app, int& exitStatus)
     command->add_option("--bootstrap", options->replicates, "Bootstrap refits for the optimism correction")
         ->check(CLI::Range(std::size_t{10}, std::size_t{20000}));
     command->add_option("--seed", options->seed, "Seed of the optimism bootstrap");
-    command->callback([options, command, &exitStatus] { exitStatus = runUpdate(*options, *command); });
+    command->callback([options, command, &exitStatus] {
+        try {
+            exitStatus = runUpdate(*options, *command);
+        } catch (const std::bad_alloc&) {
+            exitStatus = reportOutOfMemory(options->intake.settings.cohortFile);
+        }
+    });
 }
 
 } // namespace plumbline::cli

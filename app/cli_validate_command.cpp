@@ -17,7 +17,9 @@
 
 #include <cstdlib>
 #include <iostream>
+#include <filesystem>
 #include <memory>
+#include <optional>
 
 namespace plumbline::cli {
 
@@ -58,13 +60,30 @@ nlohmann::ordered_json resultJson(const AnalysisSnapshot& s)
 
 // Reports with charts need a QApplication (Qt Charts are widgets); the CLI makes one only then,
 // offscreen, so it never needs a display.
-int writeReports(const ValidateOptions& options, const AnalysisFile& analysis, const std::shared_ptr<const AnalysisSnapshot>& snapshot)
+bool wantsReports(const ValidateOptions& options)
 {
-    const bool anyReport = !options.reportFile.empty() || !options.xlsxFile.empty() || !options.csvFolder.empty()
-        || !options.chartFolder.empty();
-    if (!anyReport)
+    return !options.reportFile.empty() || !options.xlsxFile.empty() || !options.csvFolder.empty() || !options.chartFolder.empty();
+}
+
+// The CSV tables' names depend on the results (one per subgroup column, say): checked once the
+// report's content is known, before any output is written.
+std::expected<void, InputError> checkTableOutputs(const ValidateOptions& options, const AnalysisFile& analysis, const ReportDocument& document)
+{
+    if (options.csvFolder.empty())
+        return {};
+    std::vector<std::string> inputs{analysis.intake.cohortFile, options.analysis.settingsFile};
+    if (analysis.intake.outcomesFile)
+        inputs.push_back(*analysis.intake.outcomesFile);
+    for (const auto& table : csvTablePaths(document, options.csvFolder))
+        if (auto ok = refuseInputAsOutput(table, inputs, "--csv-dir"); !ok)
+            return ok;
+    return {};
+}
+
+int writeReports(const ValidateOptions& options, const ReportDocument& document, const std::shared_ptr<const AnalysisSnapshot>& snapshot)
+{
+    if (!wantsReports(options))
         return Done;
-    const ReportDocument document = buildReport(*snapshot, analysis.report, analysis.minimumCell, utcTimestamp());
     if (!options.csvFolder.empty()) {
         if (auto written = writeCsvTables(document, options.csvFolder); !written)
             return reportError(written.error());
@@ -105,12 +124,36 @@ int writeReports(const ValidateOptions& options, const AnalysisFile& analysis, c
     return Done;
 }
 
+// No output may replace an input (after links), checked before anything is computed or written.
+std::expected<void, InputError> checkOutputs(const ValidateOptions& options, const AnalysisFile& analysis)
+{
+    std::vector<std::string> inputs{analysis.intake.cohortFile};
+    if (analysis.intake.outcomesFile)
+        inputs.push_back(*analysis.intake.outcomesFile);
+    // The analysis file itself may be saved again (--settings a.json --save-settings a.json).
+    if (auto ok = refuseInputAsOutput(options.analysis.saveSettingsFile, inputs, "--save-settings"); !ok)
+        return ok;
+    inputs.push_back(options.analysis.settingsFile);
+    const std::pair<const std::string*, const char*> outputs[] = {
+        {&options.jsonFile, "--json"}, {&options.reportFile, "--report"}, {&options.xlsxFile, "--xlsx"}};
+    for (const auto& [path, option] : outputs)
+        if (auto ok = refuseInputAsOutput(*path, inputs, option); !ok)
+            return ok;
+    if (!options.chartFolder.empty())
+        for (const char* name : {"roc.png", "roc.svg", "calibration.png", "calibration.svg"})
+            if (auto ok = refuseInputAsOutput((std::filesystem::path(options.chartFolder) / name).string(), inputs, "--chart-dir"); !ok)
+                return ok;
+    return {};
+}
+
 int runValidate(const ValidateOptions& options, const CLI::App& command)
 {
     std::vector<std::string> settingsWarnings;
     const auto analysis = options.analysis.resolved(command, settingsWarnings);
     if (!analysis)
         return reportError(analysis.error());
+    if (auto ok = checkOutputs(options, *analysis); !ok)
+        return reportError(ok.error());
     for (const auto& warning : settingsWarnings)
         std::cerr << "plumbline-cli: warning: " << warning << '\n';
     auto result = runIntake(analysis->intake);
@@ -124,8 +167,12 @@ int runValidate(const ValidateOptions& options, const CLI::App& command)
             error.file = analysis->intake.cohortFile;
             return reportError(error);
         }
+    // A changed or unfingerprinted input is a warning of the result itself (JSON, report,
+    // window), not only a line on the terminal.
+    result->audit.warnings.insert(result->audit.warnings.begin(), settingsWarnings.begin(), settingsWarnings.end());
     auto snapshot = std::make_shared<AnalysisSnapshot>();
     snapshot->request = AnalysisRequest::fromAnalysisFile(*analysis);
+    snapshot->request.inputWarnings = settingsWarnings;
     // Each model updated for the local population enters as one more model, "<name>_updated".
     snapshot->updates = addUpdatedModels(result->cohort, analysis->addUpdated);
     snapshot->validation = runValidation(result->cohort, analysis->panel);
@@ -141,6 +188,12 @@ int runValidate(const ValidateOptions& options, const CLI::App& command)
     printIntakeSummary(std::cout, analysis->intake, *result);
     printPanel(std::cout, snapshot->validation);
     printCautions(std::cout);
+    std::optional<ReportDocument> document;
+    if (wantsReports(options)) {
+        document = buildReport(*snapshot, analysis->report, analysis->minimumCell, utcTimestamp());
+        if (auto ok = checkTableOutputs(options, *analysis, *document); !ok)
+            return reportError(ok.error());
+    }
     if (!options.jsonFile.empty()) {
         if (auto written = writeFileAtomically(options.jsonFile, resultJson(*snapshot).dump(2) + "\n"); !written)
             return reportError(written.error());
@@ -151,7 +204,7 @@ int runValidate(const ValidateOptions& options, const CLI::App& command)
             return reportError(written.error());
         std::cout << "Analysis file: " << options.analysis.saveSettingsFile << '\n';
     }
-    return writeReports(options, *analysis, snapshot);
+    return document ? writeReports(options, *document, snapshot) : Done;
 }
 
 } // namespace
@@ -166,7 +219,13 @@ void addValidateCommand(CLI::App& app, int& exitStatus)
     command->add_option("--xlsx", options->xlsxFile, "Write every table of the report to a workbook");
     command->add_option("--csv-dir", options->csvFolder, "Write every table of the report as CSV into this folder");
     command->add_option("--chart-dir", options->chartFolder, "Write the ROC and calibration charts as PNG and SVG into this folder");
-    command->callback([options, command, &exitStatus] { exitStatus = runValidate(*options, *command); });
+    command->callback([options, command, &exitStatus] {
+        try {
+            exitStatus = runValidate(*options, *command);
+        } catch (const std::bad_alloc&) {
+            exitStatus = reportOutOfMemory(options->analysis.intake.settings.cohortFile);
+        }
+    });
 }
 
 } // namespace plumbline::cli

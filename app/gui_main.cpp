@@ -4,6 +4,7 @@
 // As the composition root it catches what escapes and shows it once.
 #include "atomic_file.hpp"
 #include "cli_analysis_options.hpp"
+#include "guarded_application.hpp"
 #include "main_window.hpp"
 #include "validation_task.hpp"
 #include "version.hpp"
@@ -72,7 +73,7 @@ int main(int argc, char** argv)
     // A snapshot needs no screen: without one, render offscreen rather than fail to start.
     if (wantsSnapshot(argc, argv) && !std::getenv("DISPLAY") && !std::getenv("WAYLAND_DISPLAY") && !std::getenv("QT_QPA_PLATFORM"))
         qputenv("QT_QPA_PLATFORM", "offscreen");
-    QApplication app(argc, argv);
+    plumbline::GuardedApplication app(argc, argv);
     QApplication::setOrganizationName(QStringLiteral("Plumbline"));
     QApplication::setApplicationName(QStringLiteral("Plumbline"));
     QApplication::setApplicationVersion(QString::fromLatin1(plumbline::versionString));

@@ -36,8 +36,17 @@ struct AnalysisFile {
 // Writes the analysis (atomically), fingerprinting the inputs as they are now.
 std::expected<void, InputError> saveAnalysisFile(const std::string& path, const AnalysisFile& analysis);
 
-// Reads an analysis file; paths come back resolved against its folder. `warnings` tells when an
-// input is missing or its SHA-256 no longer matches (the data changed since the analysis).
-std::expected<AnalysisFile, InputError> loadAnalysisFile(const std::string& path, std::vector<std::string>& warnings);
+// How an analysis file may be read.
+struct AnalysisFileReading {
+    bool allowOutsidePaths = false; // inputs named by an absolute path or outside the file's folder
+    bool strictInputs = false;      // a changed input or a missing SHA-256 refuses the analysis
+};
+
+// Reads an analysis file; paths come back resolved against its folder. Every value is checked
+// (type, range, known names) and a value that cannot be used is refused naming the key. An input
+// outside the file's folder is refused (ErrorKind::OutsideFolder) unless allowed. `warnings`
+// tells when an input is missing, has no recorded SHA-256, or no longer matches it.
+std::expected<AnalysisFile, InputError> loadAnalysisFile(const std::string& path, std::vector<std::string>& warnings,
+                                                         const AnalysisFileReading& reading = {});
 
 } // namespace plumbline

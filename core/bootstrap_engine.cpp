@@ -31,22 +31,22 @@ struct PreparedModel {
 struct Shared {
     const Cohort& cohort;
     const BootstrapSettings& settings;
-    std::vector<PreparedModel> models;
-    std::vector<std::uint32_t> eventRows, nonEventRows;
-    std::vector<double> rocRates;
-    LoessOptions loess;
+    std::vector<PreparedModel> models{};
+    std::vector<std::uint32_t> eventRows{}, nonEventRows{};
+    std::vector<double> rocRates{};
+    LoessOptions loess{};
     // Results, written by replicate index: [model][metric or point][replicate].
-    std::vector<std::array<std::vector<double>, PanelMetricCount>> values;
-    std::vector<std::vector<std::vector<double>>> curves;
-    std::vector<std::vector<std::vector<double>>> rocs;
-    std::vector<std::size_t> redraws;
+    std::vector<std::array<std::vector<double>, PanelMetricCount>> values{};
+    std::vector<std::vector<std::vector<double>>> curves{};
+    std::vector<std::vector<std::vector<double>>> rocs{};
+    std::vector<std::size_t> redraws{};
     // Paired pieces: net benefit per [model][threshold][replicate], NRI parts per [pair][part][replicate].
-    std::vector<double> thresholds;
-    std::vector<PairMoves> pairs;
-    std::vector<std::vector<std::vector<double>>> netBenefit;
-    std::vector<double> decisionThresholds;
-    std::vector<std::vector<std::vector<double>>> decision; // [model][threshold][replicate]
-    std::vector<std::array<std::vector<double>, 4>> pairValues;
+    std::vector<double> thresholds{};
+    std::vector<PairMoves> pairs{};
+    std::vector<std::vector<std::vector<double>>> netBenefit{};
+    std::vector<double> decisionThresholds{};
+    std::vector<std::vector<std::vector<double>>> decision{}; // [model][threshold][replicate]
+    std::vector<std::array<std::vector<double>, 4>> pairValues{};
 };
 
 PreparedModel prepareModel(const Cohort& cohort, std::size_t m, const ModelValidation& full)
@@ -118,9 +118,9 @@ bool runReplicate(Shared& shared, std::size_t r, std::vector<std::uint16_t>& cou
             const auto nb = netBenefitAt(model.support, supportCounts, shared.thresholds);
             for (std::size_t j = 0; j < nb.size(); ++j)
                 shared.netBenefit[m][j][r] = nb[j];
-            const auto curve = netBenefitAt(model.support, supportCounts, shared.decisionThresholds);
-            for (std::size_t j = 0; j < curve.size(); ++j)
-                shared.decision[m][j][r] = curve[j];
+            const auto decision = netBenefitAt(model.support, supportCounts, shared.decisionThresholds);
+            for (std::size_t j = 0; j < decision.size(); ++j)
+                shared.decision[m][j][r] = decision[j];
         }
     }
     for (std::size_t p = 0; p < shared.pairs.size(); ++p) {
@@ -280,7 +280,7 @@ std::optional<BootstrapResult> runBootstrap(const Cohort& cohort, const Validati
         nothing.warnings.push_back("The bootstrap needs at least 2 replicates; intervals are analytic only.");
         return nothing;
     }
-    Shared shared{cohort, settings, {}, {}, {}, {}, {}, {}, {}, {}, {}};
+    Shared shared{cohort, settings};
     shared.loess.stop = stop;
     for (std::size_t m = 0; m < cohort.models.size(); ++m)
         shared.models.push_back(prepareModel(cohort, m, full.models[m]));

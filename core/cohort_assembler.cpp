@@ -33,7 +33,8 @@ std::expected<void, InputError> checkProbabilityScale(const StagedRows& staged, 
         std::size_t firstOutside = staged.size();
         for (std::size_t r = 0; r < staged.size(); ++r) {
             const double v = staged.rawScores[c][r];
-            if (staged.scoreStatus[c][r] != ScoreFieldStatus::Number || !std::isfinite(v))
+            const ScoreFieldStatus status = staged.scoreStatus[c][r];
+            if ((status != ScoreFieldStatus::Number && status != ScoreFieldStatus::Underflow) || !std::isfinite(v))
                 continue;
             finite.push_back(v);
             if (v < 0.0 || v > 1.0) {
@@ -65,6 +66,20 @@ std::expected<void, InputError> checkProbabilityScale(const StagedRows& staged, 
         return std::unexpected(error);
     }
     return {};
+}
+
+void warnAboutUnderflow(const StagedRows& staged, const IntakeSettings& settings, const StagedSources& sources, IntakeAudit& audit)
+{
+    for (std::size_t c = 0; c < staged.scoreStatus.size(); ++c) {
+        std::size_t count = 0, first = 0;
+        for (std::size_t r = 0; r < staged.size(); ++r)
+            if (staged.scoreStatus[c][r] == ScoreFieldStatus::Underflow && count++ == 0)
+                first = staged.lines[r];
+        if (count > 0)
+            audit.warnings.push_back("Column '" + settings.scoreColumns[c] + "' of " + sources.cohortFile + ": " + std::to_string(count)
+                                     + " scores are nearer to 0 than a number can hold (below 2.2e-308 in size) and were read as 0 (first on line "
+                                     + std::to_string(first) + ").");
+    }
 }
 
 struct RowVerdict {
@@ -121,6 +136,7 @@ std::expected<Cohort, InputError> assembleCohort(StagedRows&& staged, const std:
             return std::unexpected(checked.error());
 
     const std::size_t columns = settings.scoreColumns.size();
+    warnAboutUnderflow(staged, settings, sources, audit);
     audit.scoreColumns.assign(columns, {});
     for (std::size_t c = 0; c < columns; ++c)
         audit.scoreColumns[c].column = settings.scoreColumns[c];

@@ -76,18 +76,43 @@ std::expected<void, InputError> checkEnoughRows(const IntakeAudit& audit, const 
     return std::unexpected(error);
 }
 
+// Before the outcome is coded: a file of a header alone, or rows that all fell at the structural
+// or join checks, would otherwise be reported as "the outcome holds no values".
+std::expected<void, InputError> checkRowsToUse(const IntakeAudit& audit, std::size_t staged, const ExclusionCounter& exclusions,
+                                               const std::string& file, bool joined)
+{
+    if (staged > 0)
+        return {};
+    InputError error;
+    error.file = file;
+    if (audit.rowsRead == 0) {
+        error.problem = "the file has a header row but no data rows.";
+        error.remedy = "choose the file with one row per patient under the header.";
+        return std::unexpected(error);
+    }
+    error.kind = ErrorKind::ImpossibleAnalysis;
+    std::string reasons;
+    for (const auto& tally : exclusions.tallies())
+        reasons += (reasons.empty() ? "" : "; ") + exclusionReasonText(tally.reason) + (tally.column.empty() ? "" : " ('" + tally.column + "')")
+            + ": " + std::to_string(tally.rows) + " rows";
+    error.problem = "none of the " + std::to_string(audit.rowsRead) + " rows can be used (" + reasons + ").";
+    error.remedy = joined ? "check the id columns of both files: each patient's id must appear once in each file."
+                          : "check that every row has as many fields as the header and that quoted fields are closed.";
+    return std::unexpected(error);
+}
+
 } // namespace
 
 std::expected<IntakeResult, InputError> runIntake(const IntakeSettings& settings)
 {
     if (auto ok = checkSettings(settings); !ok)
         return std::unexpected(ok.error());
-    auto cohortFile = TextFile::load(settings.cohortFile);
+    auto cohortFile = TextFile::load(settings.cohortFile, settings.maxLineBytes);
     if (!cohortFile)
         return std::unexpected(cohortFile.error());
     std::optional<TextFile> outcomesFile;
     if (settings.outcomesFile) {
-        auto loaded = TextFile::load(*settings.outcomesFile);
+        auto loaded = TextFile::load(*settings.outcomesFile, settings.maxLineBytes);
         if (!loaded)
             return std::unexpected(loaded.error());
         outcomesFile = std::move(*loaded);
@@ -147,6 +172,8 @@ std::expected<IntakeResult, InputError> runIntake(const IntakeSettings& asked, T
             audit.warnings.push_back(std::to_string(repeated) + " rows repeat an id already seen in column '"
                                      + *settings.idColumn + "'; with one file they are kept, check that rows are not duplicated.");
     }
+    if (auto usable = checkRowsToUse(audit, staged->rows.size(), exclusions, sources.cohortFile, outcomesTable.has_value()); !usable)
+        return std::unexpected(usable.error());
     auto cohort = assembleCohort(std::move(staged->rows), staged->outcomeLevels.levels(), settings, sources, exclusions, audit);
     if (!cohort)
         return std::unexpected(cohort.error());

@@ -23,6 +23,7 @@ struct IntakeSettings {
     bool scaleGiven = false;                  // the user chose the scale explicitly
     std::optional<char> delimiter;            // nullopt: sniffed
     bool decimalComma = false;
+    std::size_t maxLineBytes = std::size_t{1} << 20; // a longer line means the file is not a table
 };
 
 } // namespace plumbline

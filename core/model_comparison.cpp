@@ -40,7 +40,7 @@ namespace {
 
 DifferenceEstimate normalDifference(std::string key, double value, double se, double confidence, CiMethod method)
 {
-    DifferenceEstimate d{std::move(key), Estimate::point(value), std::nullopt, std::nullopt};
+    DifferenceEstimate d{std::move(key), Estimate::point(value), std::nullopt, std::nullopt, std::nullopt};
     if (!(se > 0.0) || !std::isfinite(se))
         return d;
     const double z = zForConfidence(confidence);
@@ -133,9 +133,9 @@ ModelComparison comparePair(const Cohort& cohort, std::size_t a, std::size_t b, 
     out.differences.push_back(normalDifference("brier_difference", meanD, sdD / std::sqrt(double(n)), confidence, CiMethod::Wald));
     auto metricOf = [&](std::size_t model, PanelMetric k) { return result.models[model].metrics[k].estimate.value; };
     if (metricOf(a, CalibrationSlope) && metricOf(b, CalibrationSlope))
-        out.differences.push_back({"calibration_slope_difference", Estimate::point(*metricOf(b, CalibrationSlope) - *metricOf(a, CalibrationSlope)), std::nullopt, std::nullopt});
+        out.differences.push_back({"calibration_slope_difference", Estimate::point(*metricOf(b, CalibrationSlope) - *metricOf(a, CalibrationSlope)), std::nullopt, std::nullopt, std::nullopt});
     if (metricOf(a, Ici) && metricOf(b, Ici))
-        out.differences.push_back({"ici_difference", Estimate::point(*metricOf(b, Ici) - *metricOf(a, Ici)), std::nullopt, std::nullopt});
+        out.differences.push_back({"ici_difference", Estimate::point(*metricOf(b, Ici) - *metricOf(a, Ici)), std::nullopt, std::nullopt, std::nullopt});
     if (!cuts.empty())
         addNri(out.differences, "nri", categorical, events, nonEvents, confidence);
     addNri(out.differences, "nri_continuous", continuous, events, nonEvents, confidence);
@@ -149,7 +149,7 @@ ModelComparison comparePair(const Cohort& cohort, std::size_t a, std::size_t b, 
     const auto& tb = result.models[b].thresholds;
     for (std::size_t k = 0; k < ta.size() && k < tb.size(); ++k) {
         out.netBenefitThresholds.push_back(ta[k].threshold);
-        out.netBenefitDifferences.push_back({"net_benefit_difference", Estimate::point(tb[k].netBenefit - ta[k].netBenefit), std::nullopt, std::nullopt});
+        out.netBenefitDifferences.push_back({"net_benefit_difference", Estimate::point(tb[k].netBenefit - ta[k].netBenefit), std::nullopt, std::nullopt, std::nullopt});
     }
     return out;
 }

@@ -36,7 +36,7 @@ public:
     {
         m_result.name = model.name;
         for (std::string_view key : panelKeys)
-            m_result.metrics.push_back({std::string(key), Estimate::undefined(), {}});
+            m_result.metrics.push_back({std::string(key), Estimate::undefined(), {}, std::nullopt, std::nullopt});
     }
 
     void discrimination(bool risks)

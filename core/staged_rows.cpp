@@ -2,6 +2,7 @@
 
 #include "field_values.hpp"
 
+#include <cmath>
 #include <limits>
 
 namespace plumbline {
@@ -63,6 +64,14 @@ ScoreFieldStatus readScoreField(std::string_view field, bool decimalComma, doubl
         return ScoreFieldStatus::NotANumber;
     }
     value = *parsed;
+    // Tiny numbers are zeros that could not be written as such: one rule for both signs, so
+    // that 1e-400 and -1e-310 are read alike (as 0), not one kept and the other excluded.
+    const bool subnormal = value != 0.0 && std::abs(value) < std::numeric_limits<double>::min();
+    const bool roundedToZero = value == 0.0 && field.find_first_of("123456789") < field.find_first_of("eE");
+    if (subnormal || roundedToZero) {
+        value = 0.0;
+        return ScoreFieldStatus::Underflow;
+    }
     return ScoreFieldStatus::Number;
 }
 

@@ -15,7 +15,9 @@
 namespace plumbline {
 
 // How a score field read, before the scale is applied.
-enum class ScoreFieldStatus : std::uint8_t { Number, Missing, NotANumber };
+// Underflow: a number nearer to 0 than the smallest normal double (|x| < 2.2e-308, written
+// 1e-400 or -1e-310): read as 0, whatever its sign, and counted.
+enum class ScoreFieldStatus : std::uint8_t { Number, Missing, NotANumber, Underflow };
 
 // Rows that passed the structural and join checks, with their raw values, waiting for the
 // outcome coding and the scale (both need the whole column first).

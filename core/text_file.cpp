@@ -7,6 +7,8 @@
 #include <cstring>
 #include <memory>
 
+#include <sys/stat.h>
+
 namespace plumbline {
 
 namespace {
@@ -51,6 +53,22 @@ std::size_t utf8SequenceLength(std::string_view s, std::size_t i)
     return 0;
 }
 
+// ASCII text in UTF-16 has a zero byte at every other position (odd ones little-endian, even
+// ones big-endian); other binary files do not.
+bool looksLikeUtf16(std::string_view text)
+{
+    const std::size_t n = std::min<std::size_t>(text.size(), 4096) & ~std::size_t{1};
+    if (n < 8)
+        return false;
+    std::size_t zeroEven = 0, zeroOdd = 0;
+    for (std::size_t i = 0; i < n; i += 2) {
+        zeroEven += text[i] == '\0' ? 1 : 0;
+        zeroOdd += text[i + 1] == '\0' ? 1 : 0;
+    }
+    const std::size_t half = n / 2;
+    return (zeroOdd * 10 >= half * 7 && zeroEven * 20 <= half) || (zeroEven * 10 >= half * 7 && zeroOdd * 20 <= half);
+}
+
 } // namespace
 
 TextFile::TextFile(std::string name, std::string bytes)
@@ -65,10 +83,28 @@ std::string_view TextFile::text() const
     return std::string_view(m_bytes).substr(m_textStart);
 }
 
-std::expected<TextFile, InputError> TextFile::load(const std::string& path)
+std::expected<TextFile, InputError> TextFile::load(const std::string& path, std::size_t maxLineBytes)
 {
     InputError error;
     error.file = path;
+    // Only regular files: a FIFO would block forever at open, a device such as /dev/zero never
+    // ends, and a folder is not a cohort. stat() itself never blocks.
+    struct stat status {};
+    if (::stat(path.c_str(), &status) != 0) {
+        error.problem = std::string("the file cannot be opened (") + std::strerror(errno) + ").";
+        error.remedy = "check the path and that you may read the file.";
+        return std::unexpected(error);
+    }
+    if (S_ISDIR(status.st_mode)) {
+        error.problem = "this is a folder, not a file.";
+        error.remedy = "choose the cohort file inside it.";
+        return std::unexpected(error);
+    }
+    if (!S_ISREG(status.st_mode)) {
+        error.problem = "this is not a regular file (it is a device, a pipe or a socket), so it cannot be read as a table.";
+        error.remedy = "save the data to a file and choose that file.";
+        return std::unexpected(error);
+    }
     std::unique_ptr<std::FILE, int (*)(std::FILE*)> file(std::fopen(path.c_str(), "rb"), &std::fclose);
     if (!file) {
         error.problem = std::string("the file cannot be opened (") + std::strerror(errno) + ").";
@@ -76,16 +112,33 @@ std::expected<TextFile, InputError> TextFile::load(const std::string& path)
         return std::unexpected(error);
     }
     std::string bytes;
-    if (std::fseek(file.get(), 0, SEEK_END) == 0) {
-        const long size = std::ftell(file.get());
-        if (size > 0)
-            bytes.reserve(static_cast<std::size_t>(size));
-        std::fseek(file.get(), 0, SEEK_SET);
-    }
+    if (status.st_size > 0)
+        bytes.reserve(static_cast<std::size_t>(status.st_size));
     char buffer[1 << 16];
     std::size_t got = 0;
-    while ((got = std::fread(buffer, 1, sizeof buffer, file.get())) > 0)
+    std::size_t lineLength = 0, lines = 1; // bytes since the last line break, and its line number
+    while ((got = std::fread(buffer, 1, sizeof buffer, file.get())) > 0) {
+        for (const char *p = buffer, *end = buffer + got; p < end;) {
+            const auto* lineBreak = static_cast<const char*>(std::memchr(p, '\n', std::size_t(end - p)));
+            const std::size_t run = std::size_t((lineBreak ? lineBreak : end) - p);
+            if (lineLength + run > maxLineBytes) {
+                error.line = lines;
+                error.problem = "line " + std::to_string(lines) + " is longer than " + std::to_string(maxLineBytes)
+                    + " bytes, so this is not a table of patients (a document, a binary file, or a file without line breaks).";
+                error.remedy = "check that this is the cohort file; if one line really is that long, raise the limit with "
+                               "--max-line-length BYTES.";
+                return std::unexpected(error);
+            }
+            if (!lineBreak) {
+                lineLength += run;
+                break;
+            }
+            lineLength = 0;
+            ++lines;
+            p = lineBreak + 1;
+        }
         bytes.append(buffer, got);
+    }
     if (std::ferror(file.get())) {
         error.problem = "the file could not be read to the end.";
         error.remedy = "check that the file is not a folder and is not being written to.";
@@ -114,6 +167,12 @@ std::expected<TextFile, InputError> TextFile::checked(std::string name, std::str
     if (std::all_of(text.begin(), text.end(), [](char c) { return c == '\n' || c == '\r' || c == ' ' || c == '\t'; })) {
         error.problem = "the file is empty.";
         error.remedy = "choose the file that holds the cohort, with a header row and one row per patient.";
+        return std::unexpected(error);
+    }
+    if (looksLikeUtf16(text)) {
+        error.line = 1;
+        error.problem = "the file looks UTF-16 encoded (every other byte is zero) without a byte-order mark; Plumbline reads UTF-8 text.";
+        error.remedy = "save the file as 'CSV UTF-8' (or convert it with iconv -f UTF-16LE -t UTF-8, or UTF-16BE).";
         return std::unexpected(error);
     }
     if (const auto nul = text.find('\0'); nul != std::string_view::npos) {

@@ -10,12 +10,19 @@
 
 namespace plumbline {
 
+// How much one line may hold before a file is judged not to be a table: a line of a cohort is a
+// few hundred bytes, so a megabyte-long "line" is a document, a binary or a file without line
+// breaks, and reading on would only fill memory. --max-line-length raises it.
+inline constexpr std::size_t defaultMaxLineBytes = std::size_t{1} << 20;
+
 // The bytes of one input file, held once in memory and never modified on disk.
 // The UTF-8 byte-order mark, if any, is skipped by text(); the fingerprint covers the whole file.
 class TextFile {
 public:
-    // Reads a file from disk; a missing, unreadable, empty, binary or UTF-16 file is an InputError.
-    static std::expected<TextFile, InputError> load(const std::string& path);
+    // Reads a regular file from disk; a folder, device, pipe or socket, a missing, unreadable,
+    // empty, binary or UTF-16 file, or a line longer than `maxLineBytes` is an InputError. Reading
+    // stops at the first line too long, so memory stays bounded.
+    static std::expected<TextFile, InputError> load(const std::string& path, std::size_t maxLineBytes = defaultMaxLineBytes);
     // The same checks on bytes already in memory (tests, clipboard, the import dialog's preview).
     static std::expected<TextFile, InputError> fromBytes(std::string name, std::string bytes);
 

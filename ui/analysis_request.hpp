@@ -15,11 +15,14 @@ struct AnalysisRequest {
     std::string addUpdated; // "", "intercept", "logistic" or "closed-test"
     ReportFields report;
     std::size_t minimumCell = 11;
+    // What reading the analysis file found about its inputs (changed since saved, no SHA-256):
+    // carried into the result's warnings and the report's provenance. Not saved.
+    std::vector<std::string> inputWarnings;
 
     AnalysisFile toAnalysisFile() const { return {intake, panel, bootstrap, addUpdated, minimumCell, report}; }
     static AnalysisRequest fromAnalysisFile(const AnalysisFile& a)
     {
-        return {a.intake, a.panel, a.bootstrap, a.addUpdated, a.report, a.minimumCell};
+        return {a.intake, a.panel, a.bootstrap, a.addUpdated, a.report, a.minimumCell, {}};
     }
 };
 

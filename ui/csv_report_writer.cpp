@@ -42,7 +42,8 @@ std::expected<void, InputError> writeCsvTables(const ReportDocument& document, c
         return std::unexpected(e);
     }
     const auto tables = document.tables();
-    const auto names = uniqueTableNames(document);
+    const auto paths = csvTablePaths(document, folder);
+    std::vector<OutputFile> files;
     for (std::size_t t = 0; t < tables.size(); ++t) {
         std::string csv;
         for (std::size_t c = 0; c < tables[t]->headers.size(); ++c) {
@@ -59,10 +60,17 @@ std::expected<void, InputError> writeCsvTables(const ReportDocument& document, c
             }
             csv.push_back('\n');
         }
-        if (auto written = writeFileAtomically((std::filesystem::path(folder) / (names[t] + ".csv")).string(), csv); !written)
-            return written;
+        files.push_back({paths[t], std::move(csv)});
     }
-    return {};
+    return writeFilesTogether(files);
+}
+
+std::vector<std::string> csvTablePaths(const ReportDocument& document, const std::string& folder)
+{
+    std::vector<std::string> paths;
+    for (const auto& name : uniqueTableNames(document))
+        paths.push_back((std::filesystem::path(folder) / (name + ".csv")).string());
+    return paths;
 }
 
 std::expected<void, InputError> writeReport(const ReportDocument& document, ReportCharts& charts, const std::string& path)

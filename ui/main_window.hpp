@@ -54,7 +54,8 @@ public:
     std::optional<AnalysisRequest> currentRequest() const;
     // Saves the current analysis; opens a saved one and runs it (input changes are warned about).
     bool saveAnalysis(const QString& path, QString* error = nullptr);
-    bool openAnalysis(const QString& path, QStringList* warnings = nullptr, QString* error = nullptr);
+    // `allowOutsidePaths`: the user has confirmed inputs outside the analysis file's folder.
+    bool openAnalysis(const QString& path, QStringList* warnings = nullptr, QString* error = nullptr, bool allowOutsidePaths = false);
     // Exports the report of the shown results: PDF or HTML (by suffix), XLSX, or CSV tables.
     // The report's charts mark the current threshold.
     bool exportReport(const QString& path, QString* error = nullptr);
@@ -112,6 +113,7 @@ private:
     void askAndSaveAnalysis();
     void askAndOpenAnalysis();
     void announceWritten(const QString& what, const QString& path);
+    bool refuseInputs(const QString& output, QString* error) const;
     QString cohortStem() const;
 
     ValidationTask* m_task;
@@ -135,6 +137,7 @@ private:
     QProgressBar* m_progress;
     QPushButton* m_cancel;
     QMenu* m_recent;
+    bool m_outsideRefused = false; // the last analysis opened named an input outside its folder
 };
 
 // The cautions every window and report carries, as one paragraph.

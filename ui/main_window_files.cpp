@@ -3,6 +3,7 @@
 #include "main_window.hpp"
 
 #include "elided_label.hpp"
+#include "atomic_file.hpp"
 #include "import_dialog.hpp"
 #include "report_writers.hpp"
 #include "result_json.hpp"
@@ -59,6 +60,20 @@ void MainWindow::openWithDialog(const QString& path)
     runRequest(request);
 }
 
+// No export or saved analysis may replace the data it was computed from.
+bool MainWindow::refuseInputs(const QString& output, QString* error) const
+{
+    if (!m_snapshot)
+        return true;
+    std::vector<std::string> inputs{m_snapshot->request.intake.cohortFile};
+    if (m_snapshot->request.intake.outcomesFile)
+        inputs.push_back(*m_snapshot->request.intake.outcomesFile);
+    const auto ok = refuseInputAsOutput(output.toStdString(), inputs, {});
+    if (!ok && error)
+        *error = QString::fromStdString(ok.error().message());
+    return ok.has_value();
+}
+
 bool MainWindow::saveAnalysis(const QString& path, QString* error)
 {
     const auto request = currentRequest();
@@ -67,16 +82,19 @@ bool MainWindow::saveAnalysis(const QString& path, QString* error)
             *error = tr("The Settings tab holds a value that cannot be used; see the message there.");
         return false;
     }
+    if (!refuseInputs(path, error))
+        return false;
     const auto saved = saveAnalysisFile(path.toStdString(), request->toAnalysisFile());
     if (!saved && error)
         *error = QString::fromStdString(saved.error().message());
     return saved.has_value();
 }
 
-bool MainWindow::openAnalysis(const QString& path, QStringList* warnings, QString* error)
+bool MainWindow::openAnalysis(const QString& path, QStringList* warnings, QString* error, bool allowOutsidePaths)
 {
     std::vector<std::string> found;
-    const auto analysis = loadAnalysisFile(path.toStdString(), found);
+    const auto analysis = loadAnalysisFile(path.toStdString(), found, {allowOutsidePaths, false});
+    m_outsideRefused = !analysis && analysis.error().kind == ErrorKind::OutsideFolder;
     if (!analysis) {
         if (error)
             *error = QString::fromStdString(analysis.error().message());
@@ -85,7 +103,9 @@ bool MainWindow::openAnalysis(const QString& path, QStringList* warnings, QStrin
     if (warnings)
         for (const auto& w : found)
             warnings->append(QString::fromStdString(w));
-    runRequest(AnalysisRequest::fromAnalysisFile(*analysis));
+    AnalysisRequest request = AnalysisRequest::fromAnalysisFile(*analysis);
+    request.inputWarnings = found;
+    runRequest(request);
     return true;
 }
 
@@ -102,6 +122,8 @@ bool MainWindow::exportReport(const QString& path, QString* error)
 {
     if (!m_snapshot)
         return false;
+    if (!refuseInputs(path, error))
+        return false;
     const ReportDocument document = buildReport(*m_snapshot, m_snapshot->request.report, m_snapshot->request.minimumCell, utcTimestamp());
     ReportCharts charts(m_snapshot, m_threshold->threshold());
     return reportResult(writeReport(document, charts, path.toStdString()), error);
@@ -110,6 +132,8 @@ bool MainWindow::exportReport(const QString& path, QString* error)
 bool MainWindow::exportWorkbook(const QString& path, QString* error)
 {
     if (!m_snapshot)
+        return false;
+    if (!refuseInputs(path, error))
         return false;
     const ReportDocument document = buildReport(*m_snapshot, m_snapshot->request.report, m_snapshot->request.minimumCell, utcTimestamp());
     return reportResult(writeXlsxReport(document, path.toStdString()), error);
@@ -120,6 +144,9 @@ bool MainWindow::exportTables(const QString& folder, QString* error)
     if (!m_snapshot)
         return false;
     const ReportDocument document = buildReport(*m_snapshot, m_snapshot->request.report, m_snapshot->request.minimumCell, utcTimestamp());
+    for (const auto& table : csvTablePaths(document, folder.toStdString()))
+        if (!refuseInputs(QString::fromStdString(table), error))
+            return false;
     return reportResult(writeCsvTables(document, folder.toStdString()), error);
 }
 
@@ -192,7 +219,17 @@ void MainWindow::askAndOpenAnalysis()
         return;
     QStringList warnings;
     QString error;
-    if (!openAnalysis(path, &warnings, &error))
+    bool opened = openAnalysis(path, &warnings, &error);
+    if (!opened && m_outsideRefused) {
+        // An analysis received from someone else must not read any file it names unasked.
+        const auto answer = QMessageBox::question(this, tr("Read a file outside the analysis's folder?"),
+                                                  tr("%1\n\nRead it anyway?").arg(error), QMessageBox::Yes | QMessageBox::No, QMessageBox::No);
+        if (answer != QMessageBox::Yes)
+            return;
+        warnings.clear();
+        opened = openAnalysis(path, &warnings, &error, true);
+    }
+    if (!opened)
         QMessageBox::warning(this, tr("Analysis not opened"), error);
     else if (!warnings.isEmpty())
         QMessageBox::warning(this, tr("The data have changed"), warnings.join(QLatin1Char('\n')));

@@ -4,6 +4,7 @@
 #include "metric_definitions.hpp"
 #include "metric_reading.hpp"
 #include "model_comparison.hpp"
+#include "printable_text.hpp"
 #include "panel_keys.hpp"
 #include "version.hpp"
 
@@ -91,6 +92,8 @@ ReportSection provenanceSection(const AnalysisSnapshot& s, std::size_t minimumCe
         inputs.rows.push_back({textCell(input.role), textCell(std::filesystem::path(input.path).filename().string()),
                                textCell(input.sha256), {std::to_string(input.rows), double(input.rows), false}});
     section.tables.push_back(inputs);
+    for (const auto& warning : s.request.inputWarnings)
+        section.paragraphs.push_back("Input check: " + warning);
     const IntakeAudit& a = s.audit;
     section.paragraphs.push_back("Rows read " + std::to_string(a.rowsRead) + "; used " + std::to_string(a.rowsUsed) + " ("
                                  + std::to_string(a.events) + " with the event, " + std::to_string(a.nonEvents)
@@ -377,6 +380,32 @@ std::vector<const ReportTable*> ReportDocument::tables() const
     return out;
 }
 
+// Text from the data (column names, levels, free text) may hold right-to-left overrides that
+// make "exe.png" show as "gnp.exe": every string of the report shows them as <U+202E> instead,
+// in every format at once.
+namespace {
+void makeBidiControlsVisible(ReportDocument& d)
+{
+    auto visible = [](std::string& text) { text = withVisibleBidiControls(text); };
+    visible(d.title);
+    visible(d.subtitle);
+    for (auto& section : d.sections) {
+        visible(section.title);
+        for (auto& paragraph : section.paragraphs)
+            visible(paragraph);
+        for (auto& table : section.tables) {
+            visible(table.title);
+            visible(table.note);
+            for (auto& header : table.headers)
+                visible(header);
+            for (auto& row : table.rows)
+                for (auto& cell : row)
+                    visible(cell.text);
+        }
+    }
+}
+} // namespace
+
 ReportDocument buildReport(const AnalysisSnapshot& s, const ReportFields& fields, std::size_t minimumCell,
                            const std::string& createdUtc)
 {
@@ -407,6 +436,7 @@ ReportDocument buildReport(const AnalysisSnapshot& s, const ReportFields& fields
     signOff.paragraphs.push_back("Decision and conditions: ______________________________");
     signOff.paragraphs.push_back("Signature and date: ______________________________");
     d.sections.push_back(signOff);
+    makeBidiControlsVisible(d);
     return d;
 }
 

@@ -12,8 +12,11 @@ namespace plumbline {
 // The report writers, shared by the window's Export and the CLI. Each writes under a temporary
 // name and renames, so a failed export leaves no partial or half-overwritten file.
 
-// One CSV per table in `folder` (created if needed), named after the table.
+// One CSV per table in `folder` (created if needed), named after the table. The set is written
+// together: if any table cannot be written, every file in the folder stays as it was.
 std::expected<void, InputError> writeCsvTables(const ReportDocument& document, const std::string& folder);
+// The paths writeCsvTables would write (to check them against the inputs first).
+std::vector<std::string> csvTablePaths(const ReportDocument& document, const std::string& folder);
 
 // A self-contained HTML file: inline CSS and inline SVG charts, no scripts, no external
 // references; text from the data is escaped.

@@ -92,6 +92,7 @@ void ValidationTask::run(AnalysisRequest request, std::stop_token stop, unsigned
             applyBootstrap(snapshot->validation, *bootstrap);
         }
         snapshot->audit = intake->audit;
+        snapshot->audit.warnings.insert(snapshot->audit.warnings.begin(), request.inputWarnings.begin(), request.inputWarnings.end());
         snapshot->cohort = std::make_shared<const Cohort>(std::move(intake->cohort));
         snapshot->inputs = intake->inputs;
         SnapshotPointer result = std::move(snapshot);

@@ -75,6 +75,9 @@ TEST_CASE("A damaged or foreign analysis file is refused with a clear message", 
     std::ofstream(dir / "newer.json") << "{\"plumbline_analysis\": 99}";
     CHECK(loadAnalysisFile((dir / "newer.json").string(), warnings).error().problem.find("newer") != std::string::npos);
     std::ofstream(dir / "missing.json") << "{\"plumbline_analysis\": 1, \"inputs\": []}";
-    CHECK(loadAnalysisFile((dir / "missing.json").string(), warnings).error().problem.find("misses") != std::string::npos);
+    const auto missing = loadAnalysisFile((dir / "missing.json").string(), warnings);
+    REQUIRE_FALSE(missing);
+    CHECK(missing.error().key == "inputs");
+    CHECK(missing.error().problem.find("must list the cohort file") != std::string::npos);
     fs::remove_all(dir);
 }

@@ -401,12 +401,14 @@ private slots:
         const QString file = dir.filePath(QStringLiteral("a.plumbline.json"));
         QVERIFY(window.saveAnalysis(file));
         std::vector<std::string> warnings;
-        QCOMPARE(loadAnalysisFile(file.toStdString(), warnings)->panel.decisionThreshold, 0.35);
+        const auto saved = loadAnalysisFile(file.toStdString(), warnings, {true, false}); // the sample lies outside dir
+        QVERIFY(saved);
+        QCOMPARE(saved->panel.decisionThreshold, 0.35);
         ReportCharts charts(window.snapshot(), window.thresholdPanel()->threshold());
         QCOMPARE(charts.markedThreshold(), 0.35);
         MainWindow reopened;
         QSignalSpy finished(reopened.task(), &ValidationTask::finished);
-        QVERIFY(reopened.openAnalysis(file));
+        QVERIFY(reopened.openAnalysis(file, nullptr, nullptr, true));
         QVERIFY(finished.wait(120000));
         QCOMPARE(reopened.thresholdPanel()->threshold(), 0.35);
         // A name typed without its suffix gets the chosen kind's.

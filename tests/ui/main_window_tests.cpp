@@ -323,13 +323,13 @@ private slots:
         const QString file = dir.filePath(QStringLiteral("a.plumbline.json"));
         QVERIFY(saveAnalysisFile(file.toStdString(), analysis).has_value());
         QProcess cli;
-        cli.start(QStringLiteral(PLUMBLINE_CLI), {QStringLiteral("validate"), QStringLiteral("--settings"), file,
+        cli.start(QStringLiteral(PLUMBLINE_CLI), {QStringLiteral("validate"), QStringLiteral("--settings"), file, QStringLiteral("--allow-outside-paths"),
                                                   QStringLiteral("--csv-dir"), dir.filePath(QStringLiteral("cli"))});
         QVERIFY(cli.waitForFinished(120000));
         QCOMPARE(cli.exitCode(), 0);
         MainWindow window;
         QSignalSpy finished(window.task(), &ValidationTask::finished);
-        QVERIFY(window.openAnalysis(file));
+        QVERIFY(window.openAnalysis(file, nullptr, nullptr, true)); // the sample lies outside the analysis's folder
         QVERIFY(finished.wait(120000));
         QVERIFY(window.exportTables(dir.filePath(QStringLiteral("gui"))));
         const QStringList tables = QDir(dir.filePath(QStringLiteral("cli"))).entryList({QStringLiteral("*.csv")});
