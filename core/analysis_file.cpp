@@ -344,11 +344,19 @@ AnalysisFile readAnalysis(const Json& json, const std::string& path, std::vector
 std::expected<AnalysisFile, InputError> loadAnalysisFile(const std::string& path, std::vector<std::string>& warnings,
                                                          const AnalysisFileReading& reading)
 {
-    InputError error;
-    error.file = path;
     const auto text = TextFile::load(path);
     if (!text)
         return std::unexpected(text.error());
+    return readAnalysisFile(*text, warnings, reading);
+}
+
+std::expected<AnalysisFile, InputError> readAnalysisFile(const TextFile& file, std::vector<std::string>& warnings,
+                                                         const AnalysisFileReading& reading)
+{
+    const std::string& path = file.name();
+    const TextFile* text = &file;
+    InputError error;
+    error.file = path;
     if (text->sizeInBytes() > maxAnalysisFileBytes) {
         error.problem = "the file is " + std::to_string(text->sizeInBytes() / 1024) + " KB; an analysis file is a few kilobytes.";
         error.remedy = "choose an analysis saved by Plumbline (*.plumbline.json).";

@@ -4,6 +4,7 @@
 #include "input_error.hpp"
 #include "intake_settings.hpp"
 #include "panel_settings.hpp"
+#include "text_file.hpp"
 
 #include <expected>
 #include <string>
@@ -47,6 +48,9 @@ struct AnalysisFileReading {
 // outside the file's folder is refused (ErrorKind::OutsideFolder) unless allowed. `warnings`
 // tells when an input is missing, has no recorded SHA-256, or no longer matches it.
 std::expected<AnalysisFile, InputError> loadAnalysisFile(const std::string& path, std::vector<std::string>& warnings,
+                                                         const AnalysisFileReading& reading = {});
+// The same on a file already in memory (its name places its inputs).
+std::expected<AnalysisFile, InputError> readAnalysisFile(const TextFile& file, std::vector<std::string>& warnings,
                                                          const AnalysisFileReading& reading = {});
 
 } // namespace plumbline

@@ -3,6 +3,7 @@
 #include "column_suggest.hpp"
 #include "delimiter_sniffer.hpp"
 #include "field_values.hpp"
+#include "printable_text.hpp"
 
 #include <algorithm>
 
@@ -65,7 +66,8 @@ std::expected<DelimitedTable, InputError> DelimitedTable::open(TextFile file, st
         delimiter = sniffDelimiter(text);
         if (!delimiter) {
             error.line = 1;
-            error.value = firstLineOf(text);
+            // A file that is not a table may be anything: show only its first few characters.
+            error.value = printableExcerpt(firstLineOf(text), 12);
             error.problem = "the header line does not split into columns on a comma, semicolon, tab or pipe.";
             error.remedy = "check that this is the cohort file; if it uses another delimiter, choose it (Delimiter in the window, --delimiter on the command line).";
             return std::unexpected(error);

@@ -2,6 +2,8 @@
 
 #include <catch2/catch.hpp>
 
+#include <cmath>
+
 using namespace plumbline;
 using namespace plumbline::test;
 
@@ -271,4 +273,26 @@ TEST_CASE("Settings that cannot work are refused before reading", "[intake][erro
     const auto ambiguous = intakeOf(settingsFor({"p"}), "y,p,p\n1,0.2,0.3\n0,0.1,0.1\n");
     REQUIRE_FALSE(ambiguous);
     CHECK(ambiguous.error().problem.find("ambiguous") != std::string::npos);
+}
+
+TEST_CASE("A header without data rows is named as such", "[intake][errors]")
+{
+    const auto result = intakeOf(settingsFor({"p"}), "y,p\n");
+    REQUIRE_FALSE(result);
+    CHECK(result.error().problem == "the file has a header row but no data rows.");
+}
+
+TEST_CASE("Scores nearer to 0 than a double holds are read as 0 whatever their sign and counted", "[intake]")
+{
+    // 1e-400 underflows when read; -1e-310 is a subnormal: one rule for both (read as 0).
+    const auto result = intakeOf(settingsFor({"p"}), "y,p\n1,1e-400\n0,-1e-310\n1,0.5\n0,0.25\n");
+    REQUIRE(result);
+    CHECK(result->audit.rowsUsed == 4);
+    CHECK(result->cohort.models[0].values[0] == 0.0);
+    CHECK(result->cohort.models[0].values[1] == 0.0);
+    CHECK_FALSE(std::signbit(result->cohort.models[0].values[1]));
+    bool counted = false;
+    for (const auto& w : result->audit.warnings)
+        counted = counted || (w.find("2 scores are nearer to 0") != std::string::npos && w.find("first on line 2") != std::string::npos);
+    CHECK(counted);
 }

@@ -89,3 +89,12 @@ TEST_CASE("The outcomes file's own columns are checked with its name in the mess
     CHECK(result.error().file == "outcomes.csv");
     CHECK(result.error().column == "patient");
 }
+
+TEST_CASE("A join where every score id is duplicated says why no row is left", "[join][errors]")
+{
+    const auto result = join("id,p\na,0.8\na,0.1\nb,0.3\nb,0.2\n", "patient,y\na,1\nb,0\n");
+    REQUIRE_FALSE(result);
+    CHECK(result.error().problem.find("none of the 4 rows can be used") != std::string::npos);
+    CHECK(result.error().problem.find("outcome column holds no values") == std::string::npos);
+    CHECK(result.error().remedy.find("each patient's id must appear once") != std::string::npos);
+}

@@ -2,6 +2,10 @@
 
 #include <catch2/catch.hpp>
 
+#include <filesystem>
+#include <fstream>
+#include <sys/stat.h>
+
 using plumbline::TextFile;
 
 TEST_CASE("A UTF-8 byte-order mark is skipped in the text but kept in the bytes", "[textfile]")
@@ -47,4 +51,57 @@ TEST_CASE("A missing file is refused with the path and the system's reason", "[t
     REQUIRE_FALSE(file);
     CHECK(file.error().message().find("/nonexistent/plumbline/cohort.csv") == 0);
     CHECK(file.error().problem.find("No such file") != std::string::npos);
+}
+
+TEST_CASE("Only regular files are read and a folder a pipe or a device is named as such", "[textfile]")
+{
+    const auto folder = TextFile::load(std::filesystem::temp_directory_path().string());
+    REQUIRE_FALSE(folder);
+    CHECK(folder.error().problem.find("folder") != std::string::npos);
+    // /dev/zero never ends: refused before a single byte is read.
+    const auto device = TextFile::load("/dev/zero");
+    REQUIRE_FALSE(device);
+    CHECK(device.error().problem.find("not a regular file") != std::string::npos);
+    // A FIFO would block at open(); refused without opening it.
+    const auto fifo = std::filesystem::temp_directory_path() / "plumbline-test-fifo";
+    std::filesystem::remove(fifo);
+    REQUIRE(::mkfifo(fifo.c_str(), 0600) == 0);
+    const auto pipe = TextFile::load(fifo.string());
+    REQUIRE_FALSE(pipe);
+    CHECK(pipe.error().problem.find("not a regular file") != std::string::npos);
+    std::filesystem::remove(fifo);
+}
+
+TEST_CASE("Reading stops at the first line longer than the limit", "[textfile]")
+{
+    const auto path = std::filesystem::temp_directory_path() / "plumbline-long-line.csv";
+    {
+        std::ofstream out(path, std::ios::binary);
+        out << "y,p\n1,0.5\n";
+        out << std::string(3 << 20, 'x'); // 3 MB without a line break on line 3
+    }
+    const auto refused = TextFile::load(path.string(), 1 << 20);
+    REQUIRE_FALSE(refused);
+    CHECK(refused.error().line == 3);
+    CHECK(refused.error().problem.find("longer than 1048576 bytes") != std::string::npos);
+    CHECK(refused.error().remedy.find("--max-line-length") != std::string::npos);
+    CHECK(TextFile::load(path.string(), 4 << 20).has_value()); // a higher limit reads it
+    std::filesystem::remove(path);
+}
+
+TEST_CASE("UTF-16 without a byte-order mark is recognised and named", "[textfile]")
+{
+    std::string utf16le;
+    for (const char c : std::string("readmitted,score\n1,0.25\n0,0.5\n")) {
+        utf16le.push_back(c);
+        utf16le.push_back('\0');
+    }
+    const auto refused = TextFile::fromBytes("w.csv", utf16le);
+    REQUIRE_FALSE(refused);
+    CHECK(refused.error().problem.find("UTF-16") != std::string::npos);
+    CHECK(refused.error().remedy.find("iconv") != std::string::npos);
+    // Other binary data is still "binary data".
+    const auto binary = TextFile::fromBytes("b.csv", std::string("y,p\n1,0.5\n\0\x01\x02\x03\x04\x05\x06\x07\x08\x09", 19));
+    REQUIRE_FALSE(binary);
+    CHECK(binary.error().problem.find("binary") != std::string::npos);
 }

@@ -341,6 +341,25 @@ private slots:
         }
     }
 
+    void anAnalysisNamingAFileOutsideItsFolderIsNotReadUnasked()
+    {
+        QTemporaryDir dir;
+        AnalysisFile analysis;
+        analysis.intake = sampleRequest(0).intake; // the sample lies outside dir
+        const QString file = dir.filePath(QStringLiteral("a.plumbline.json"));
+        QVERIFY(saveAnalysisFile(file.toStdString(), analysis).has_value());
+        MainWindow window;
+        QString error;
+        QVERIFY(!window.openAnalysis(file, nullptr, &error));
+        QVERIFY(error.contains(QStringLiteral("outside the analysis file's folder")));
+        QVERIFY(!window.task()->isRunning());
+        // The window's exports never replace an input either.
+        QVERIFY(runAndWait(window, sampleRequest(0)));
+        QVERIFY(!window.exportReport(sampleFile, &error));
+        QVERIFY(error.contains(QStringLiteral("names an input")));
+        QVERIFY(!window.saveAnalysis(sampleFile, &error));
+    }
+
     void chartsExportAsPngAndSvg()
     {
         MainWindow window;
