@@ -22,6 +22,7 @@
 #include <QMimeData>
 #include <QPushButton>
 #include <QSettings>
+#include <QTabWidget>
 #include <QUrl>
 
 namespace plumbline {
@@ -53,8 +54,15 @@ void MainWindow::openWithDialog(const QString& path)
         dialog.loadFile(path);
     if (dialog.exec() != QDialog::Accepted)
         return;
-    // The analysis options stay as the Settings tab shows them (the defaults at first).
-    AnalysisRequest request = currentRequest().value_or(AnalysisRequest{});
+    // The analysis options stay as the Settings tab shows them (the defaults at first); a value
+    // there that cannot be used stops the run where the user can see why.
+    std::optional<AnalysisRequest> current = currentRequest();
+    if (!current) {
+        m_tabs->setCurrentWidget(m_settings);
+        QMessageBox::warning(this, tr("Settings to correct"), tr("A setting cannot be used; the Settings tab says which."));
+        return;
+    }
+    AnalysisRequest request = *current;
     request.intake = dialog.intakeSettings();
     addRecentFile(QString::fromStdString(request.intake.cohortFile));
     runRequest(request);

@@ -1,6 +1,7 @@
 #include "settings_panel.hpp"
 
 #include "option_lists.hpp"
+#include "settings_check.hpp"
 
 #include <QCheckBox>
 #include <QComboBox>
@@ -210,6 +211,12 @@ std::optional<AnalysisRequest> SettingsPanel::request() const
     out.panel.decisionFrom = range->from;
     out.panel.decisionTo = range->to;
     out.panel.decisionStep = range->step;
+    // The same bounds as the command line and analysis files (50 thresholds, 1,000 points on
+    // the decision curve, …), in the Settings tab's words.
+    if (const auto checked = checkAnalysisSettings(out.toAnalysisFile(), SettingsSource::Window); !checked) {
+        m_problem->setText(QString::fromStdString(checked.error().message()));
+        return std::nullopt;
+    }
     m_problem->clear();
     return out;
 }

@@ -40,6 +40,7 @@
 #include <QJsonArray>
 #include <QJsonDocument>
 #include <QJsonObject>
+#include <QLabel>
 #include <QLineEdit>
 #include <QLineSeries>
 #include <QListWidget>
@@ -390,6 +391,14 @@ private slots:
         QCOMPARE(panel.request()->panel.decisionFrom, 0.02);
         QCOMPARE(panel.request()->panel.nriCutPoints, std::vector<double>{0.15});
         QCOMPARE(panel.request()->bootstrap.seed, 18446744073709551557ull);
+        // The shared bounds: a decision step that would draw a million points is refused here too.
+        changed.panel.decisionStep = 1e-6;
+        panel.setRequest(changed);
+        QVERIFY(!panel.request());
+        bool shown = false;
+        for (QLabel* label : panel.findChildren<QLabel*>())
+            shown = shown || label->text().contains(QStringLiteral("Decision curve range: would give"));
+        QVERIFY(shown);
     }
 
     void theAnalysisFileAndTheReportKeepTheWindowsThreshold()
