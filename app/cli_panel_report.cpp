@@ -65,9 +65,9 @@ void printTests(std::ostream& out, const ModelValidation& model)
         out << "  Spiegelhalter: z " << number(model.spiegelhalter->z, 2) << ", " << pValueText(model.spiegelhalter->pValue) << '\n';
     if (model.likelihoodRatio) {
         const auto& lr = *model.likelihoodRatio;
-        out << "  Likelihood-ratio tests: intercept 0 and slope 1 jointly " << pValueText(lr.joint.pValue)
-            << "; calibration-in-the-large " << pValueText(lr.interceptOnly.pValue) << "; slope given intercept "
-            << pValueText(lr.slopeGivenIntercept.pValue) << '\n';
+        auto p = [](const std::optional<LikelihoodRatioTest>& t) { return t ? pValueText(t->pValue) : std::string("not computed"); };
+        out << "  Likelihood-ratio tests: intercept 0 and slope 1 jointly " << p(lr.joint) << "; calibration-in-the-large "
+            << pValueText(lr.interceptOnly.pValue) << "; slope given intercept " << p(lr.slopeGivenIntercept) << '\n';
     }
 }
 

@@ -41,8 +41,8 @@ void printUpdate(const ModelUpdate& u)
 {
     std::cout << "\nUpdating " << u.model << " (" << updateMethodName(u.method) << "): " << updateChoiceName(u.fit.choice) << '\n';
     if (u.fit.tests)
-        std::cout << "  closed test: intercept and slope jointly " << pValueText(u.fit.tests->joint.pValue)
-                  << "; slope given intercept " << pValueText(u.fit.tests->slopeGivenIntercept.pValue) << '\n';
+        std::cout << "  closed test: intercept and slope jointly " << pValueText(u.fit.tests->joint->pValue)
+                  << "; slope given intercept " << pValueText(u.fit.tests->slopeGivenIntercept->pValue) << '\n';
     std::cout << "  " << u.fit.formula() << "\n\n";
     std::cout << "  " << std::left << std::setw(24) << "metric" << std::right << std::setw(10) << "apparent" << std::setw(10)
               << "optimism" << std::setw(11) << "corrected\n";

@@ -181,8 +181,12 @@ FullSampleFits fullSampleFits(const Cohort& cohort, std::size_t m, const FitStar
     fits.start = start;
     if (!scaleIsProbabilistic(cohort.scale))
         return fits;
-    const auto lp = clampedLogits(cohort.models[m].values);
-    if (const auto slope = fitCalibrationSlope(cohort.outcome, lp, {}, start.recalibrationIntercept, start.slope)) {
+    const auto& risks = cohort.models[m].values;
+    const auto lp = clampedLogits(risks);
+    std::vector<double> weights(risks.size());
+    for (std::size_t i = 0; i < risks.size(); ++i)
+        weights[i] = contradictsOutcome(risks[i], cohort.outcome[i] != 0) ? 0.0 : 1.0;
+    if (const auto slope = fitCalibrationSlope(cohort.outcome, lp, weights, start.recalibrationIntercept, start.slope)) {
         std::copy(std::begin(slope->information), std::end(slope->information), fits.slopeInformation);
         fits.hasSlope = true;
     }

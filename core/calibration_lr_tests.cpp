@@ -16,10 +16,14 @@ LikelihoodRatioTest lrTest(double reduced, double full, int df)
 } // namespace
 
 CalibrationLikelihoodRatioTests calibrationLikelihoodRatioTests(double original, const InterceptFit& intercept,
-                                                                const SlopeFit& slope)
+                                                                const SlopeFit* slope)
 {
-    return {lrTest(original, slope.logLikelihood, 2), lrTest(original, intercept.logLikelihood, 1),
-            lrTest(intercept.logLikelihood, slope.logLikelihood, 1)};
+    CalibrationLikelihoodRatioTests out{std::nullopt, lrTest(original, intercept.logLikelihood, 1), std::nullopt};
+    if (slope) {
+        out.joint = lrTest(original, slope->logLikelihood, 2);
+        out.slopeGivenIntercept = lrTest(intercept.logLikelihood, slope->logLikelihood, 1);
+    }
+    return out;
 }
 
 std::optional<CalibrationLikelihoodRatioTests> calibrationLikelihoodRatioTests(std::span<const std::uint8_t> outcome,
@@ -29,7 +33,7 @@ std::optional<CalibrationLikelihoodRatioTests> calibrationLikelihoodRatioTests(s
     const auto slope = fitCalibrationSlope(outcome, lp);
     if (!intercept || !slope)
         return std::nullopt;
-    return calibrationLikelihoodRatioTests(logLikelihoodOfLogits(outcome, lp), *intercept, *slope);
+    return calibrationLikelihoodRatioTests(logLikelihoodOfLogits(outcome, lp), *intercept, &*slope);
 }
 
 } // namespace plumbline

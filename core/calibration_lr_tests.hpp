@@ -17,16 +17,18 @@ struct LikelihoodRatioTest {
     double pValue;
 };
 
+// Calibration-in-the-large needs only the intercept fit; the other two need the slope fit too,
+// and are empty when it cannot be made (separation, constant risks).
 struct CalibrationLikelihoodRatioTests {
-    LikelihoodRatioTest joint;
+    std::optional<LikelihoodRatioTest> joint;
     LikelihoodRatioTest interceptOnly;
-    LikelihoodRatioTest slopeGivenIntercept;
+    std::optional<LikelihoodRatioTest> slopeGivenIntercept;
 };
 
 // From fits already made (no refitting): the log-likelihoods of the unmodified risks, of the
-// intercept-only and of the intercept-and-slope recalibration.
+// intercept-only and (when there is one) of the intercept-and-slope recalibration.
 CalibrationLikelihoodRatioTests calibrationLikelihoodRatioTests(double logLikelihoodOriginal, const InterceptFit& intercept,
-                                                                const SlopeFit& slope);
+                                                                const SlopeFit* slope);
 
 // Fits both models first; nullopt when either is not estimable (one class, separation,
 // constant risks).

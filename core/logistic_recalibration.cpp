@@ -7,7 +7,6 @@ namespace plumbline {
 
 namespace {
 
-constexpr double riskFloor = 1e-12;
 constexpr int maxIterations = 100;
 
 double expit(double x)
@@ -58,8 +57,8 @@ std::vector<double> clampedLogits(std::span<const double> risk, std::size_t* cla
     std::size_t clamped = 0;
     for (std::size_t i = 0; i < risk.size(); ++i) {
         double p = risk[i];
-        if (p < riskFloor || p > 1.0 - riskFloor) {
-            p = std::clamp(p, riskFloor, 1.0 - riskFloor);
+        if (p < certaintyMargin || p > 1.0 - certaintyMargin) {
+            p = std::clamp(p, certaintyMargin, 1.0 - certaintyMargin);
             ++clamped;
         }
         lp[i] = std::log(p / (1.0 - p));

@@ -7,9 +7,22 @@
 
 namespace plumbline {
 
+// Risks within this margin of 0 or 1 are held at it in a regression on logits (logit ±27.6).
+inline constexpr double certaintyMargin = 1e-12;
+
 // Linear predictors logit(p), with p clamped to [1e-12, 1 − 1e-12] so that a risk of exactly
 // 0 or 1 stays usable in a regression (the caller warns when clamping happened).
 std::vector<double> clampedLogits(std::span<const double> risk, std::size_t* clampedCount = nullptr);
+
+// A patient whose outcome contradicts a risk at the margin: an event at a risk of 1e-12 or
+// less, or a non-event at 1 − 1e-12 or more. Such a patient would drive a calibration fit by an
+// amount set by the clamp alone (1e-12, 1e-9 or 1e-15 give different slopes), so the fits leave
+// them out and say how many. A patient whose outcome agrees with such a risk is kept: clamped,
+// it changes the fits by a negligible amount.
+inline bool contradictsOutcome(double risk, bool event)
+{
+    return event ? risk <= certaintyMargin : risk >= 1.0 - certaintyMargin;
+}
 
 // Grouped (binomial) data: at point k, events[k] of trials[k] patients share the linear
 // predictor lp[k]. Frequency-weighted patients and bootstrap replicates are grouped data too;

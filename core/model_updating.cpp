@@ -50,7 +50,17 @@ std::optional<UpdateFit> fitUpdate(std::span<const double> risks, std::span<cons
                                    std::span<const double> trials, UpdateMethod method, double alpha)
 {
     const std::vector<double> lp = clampedLogits(risks);
-    const BinomialPoints points{lp, events, trials};
+    // As in validation: patients whose outcome contradicts a risk of 0 or 1 are not fitted.
+    std::vector<double> agreeingEvents(events.begin(), events.end()), agreeingTrials(trials.begin(), trials.end());
+    for (std::size_t k = 0; k < risks.size(); ++k) {
+        if (contradictsOutcome(risks[k], true)) {
+            agreeingTrials[k] -= agreeingEvents[k];
+            agreeingEvents[k] = 0.0;
+        }
+        if (contradictsOutcome(risks[k], false))
+            agreeingTrials[k] = agreeingEvents[k];
+    }
+    const BinomialPoints points{lp, agreeingEvents, agreeingTrials};
     const auto intercept = fitCalibrationIntercept(points);
     if (!intercept)
         return std::nullopt;
@@ -71,10 +81,10 @@ std::optional<UpdateFit> fitUpdate(std::span<const double> risks, std::span<cons
     }
     // Closed test: keep the model unless intercept and slope jointly differ from (0, 1); then the
     // intercept update unless the slope adds significantly to it.
-    fit.tests = calibrationLikelihoodRatioTests(logLikelihoodOfLogits(points), *intercept, *slope);
-    if (fit.tests->joint.pValue >= alpha) {
+    fit.tests = calibrationLikelihoodRatioTests(logLikelihoodOfLogits(points), *intercept, &*slope);
+    if (fit.tests->joint->pValue >= alpha) {
         fit.choice = UpdateChoice::None;
-    } else if (fit.tests->slopeGivenIntercept.pValue >= alpha) {
+    } else if (fit.tests->slopeGivenIntercept->pValue >= alpha) {
         fit.choice = UpdateChoice::Intercept;
         fit.intercept = intercept->alpha;
     } else {

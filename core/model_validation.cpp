@@ -28,10 +28,12 @@ Estimate optionalPoint(const std::optional<double>& value)
 
 class PanelBuilder {
 public:
-    PanelBuilder(const std::vector<std::uint8_t>& outcome, const ModelScores& model, const PanelSettings& settings)
+    PanelBuilder(const std::vector<std::uint8_t>& outcome, const ModelScores& model, const PanelSettings& settings,
+                 std::span<const std::uint32_t> lines)
         : m_y(outcome)
         , m_p(model.values)
         , m_settings(settings)
+        , m_lines(lines)
         , m_order(ascendingOrder(model.values))
     {
         m_result.name = model.name;
@@ -60,23 +62,23 @@ public:
     {
         std::size_t clamped = 0;
         const std::vector<double> lp = clampedLogits(m_p, &clamped);
-        if (clamped > 0)
-            warn(std::to_string(clamped) + " patients have a predicted risk of exactly 0 or 1; the calibration regressions use 1e-12 and 1 - 1e-12 for them.");
+        const std::vector<double> weights = fitWeights(clamped);
         const double confidence = m_settings.confidence;
-        const auto intercept = fitCalibrationIntercept(m_y, lp);
+        const auto intercept = fitCalibrationIntercept(m_y, lp, weights);
         if (intercept)
             set("calibration_intercept", wald(intercept->alpha, intercept->se, confidence));
         else
             warn("calibration-in-the-large cannot be estimated (the fit does not converge).");
-        const auto slope = fitCalibrationSlope(m_y, lp);
+        const auto slope = fitCalibrationSlope(m_y, lp, weights);
         if (slope) {
             set("calibration_slope", wald(slope->slope, slope->slopeSe, confidence));
             set("recalibration_intercept", wald(slope->intercept, slope->interceptSe, confidence));
         } else {
             warn("the calibration slope cannot be estimated: the risks separate the outcomes perfectly or are all equal.");
         }
-        if (intercept && slope)
-            m_result.likelihoodRatio = calibrationLikelihoodRatioTests(logLikelihoodOfLogits(m_y, lp), *intercept, *slope);
+        if (intercept)
+            m_result.likelihoodRatio = calibrationLikelihoodRatioTests(logLikelihoodOfLogits(m_y, lp, weights), *intercept,
+                                                                       slope ? &*slope : nullptr);
         set("oe_ratio", observedExpectedRatio(m_y, m_p, m_settings.confidence));
         m_result.spiegelhalter = spiegelhalterTest(m_y, m_p);
         if (!m_result.spiegelhalter)
@@ -109,6 +111,31 @@ public:
     }
 
     void warn(const std::string& text) { m_result.warnings.push_back("Model '" + m_result.name + "': " + text); }
+
+    // Weights of the calibration fits: 0 for a patient whose outcome contradicts a risk of 0 or
+    // 1 (within 1e-12), 1 otherwise; says which patients were left out and why.
+    std::vector<double> fitWeights(std::size_t clamped)
+    {
+        std::vector<double> weights(m_y.size(), 1.0);
+        std::size_t left = 0;
+        std::string lines;
+        for (std::size_t i = 0; i < m_y.size(); ++i)
+            if (contradictsOutcome(m_p[i], m_y[i] != 0)) {
+                weights[i] = 0.0;
+                if (++left <= 5 && i < m_lines.size())
+                    lines += (lines.empty() ? "" : ", ") + std::to_string(m_lines[i]);
+            }
+        if (left > 0)
+            warn(std::to_string(left) + " patients have a predicted risk within 1e-12 of 0 or 1 that their outcome contradicts (an event at "
+                 "a risk of 0, or a non-event at a risk of 1)" + (lines.empty() ? "" : ", first on lines " + lines)
+                 + "; they are left out of calibration-in-the-large, the calibration slope, the recalibration intercept and the "
+                   "likelihood-ratio tests, whose values would otherwise depend only on how such a risk is rounded.");
+        if (clamped > left)
+            warn(std::to_string(clamped - left) + " patients have a predicted risk within 1e-12 of 0 or 1 (a logit beyond ±27.6) that "
+                 "their outcome agrees with; the calibration regressions hold those risks at 1e-12 or 1 - 1e-12, which changes no estimate "
+                 "noticeably.");
+        return weights;
+    }
 
     ModelValidation take()
     {
@@ -174,6 +201,7 @@ private:
     const std::vector<std::uint8_t>& m_y;
     const std::vector<double>& m_p;
     const PanelSettings& m_settings;
+    std::span<const std::uint32_t> m_lines;
     ScoreOrder m_order;
     ModelValidation m_result;
 };
@@ -189,9 +217,9 @@ const Estimate* ModelValidation::metric(std::string_view key) const
 }
 
 ModelValidation validateModel(const std::vector<std::uint8_t>& outcome, const ModelScores& model, ScoreScale scale,
-                              const PanelSettings& settings)
+                              const PanelSettings& settings, std::span<const std::uint32_t> sourceLines)
 {
-    PanelBuilder builder(outcome, model, settings);
+    PanelBuilder builder(outcome, model, settings, sourceLines);
     const bool risks = scaleIsProbabilistic(scale);
     builder.discrimination(risks);
     if (!risks) {

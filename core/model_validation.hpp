@@ -15,6 +15,7 @@
 #include <optional>
 #include <string>
 #include <string_view>
+#include <span>
 #include <vector>
 
 namespace plumbline {
@@ -59,7 +60,8 @@ struct ModelValidation {
 
 // The metric panel for one model (discrimination, calibration, overall accuracy, thresholds),
 // with analytic intervals. A points-scale score gets discrimination only.
+// `sourceLines` (each row's line in the file, may be empty) lets warnings name patients.
 ModelValidation validateModel(const std::vector<std::uint8_t>& outcome, const ModelScores& model, ScoreScale scale,
-                              const PanelSettings& settings);
+                              const PanelSettings& settings, std::span<const std::uint32_t> sourceLines = {});
 
 } // namespace plumbline

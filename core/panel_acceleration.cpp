@@ -1,6 +1,7 @@
 #include "panel_acceleration.hpp"
 
 #include "bootstrap_interval.hpp"
+#include "logistic_recalibration.hpp"
 
 #include <cmath>
 #include <functional>
@@ -154,6 +155,8 @@ void fits(const ModelSupport& s, const SupportCounts& c, const FullSampleFits& f
         const double piOffset = expit(f.start.calibrationIntercept + lp);
         const double piSlope = expit(f.start.recalibrationIntercept + f.start.slope * lp);
         for (int y = 0; y <= 1; ++y) {
+            if (contradictsOutcome(s.x[k], y == 1))
+                continue; // left out of the fits themselves
             const double count = y ? c.events[k] : c.nonEvents[k];
             // Influence values up to a positive factor; the jackknife value is its negative.
             intercept.add(-(y - piOffset), count);

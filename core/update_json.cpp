@@ -13,8 +13,8 @@ nlohmann::ordered_json updateJson(const ModelUpdate& u)
     out["slope"] = u.fit.slope;
     out["formula"] = u.fit.formula();
     if (u.fit.tests)
-        out["closed_test"] = {{"joint_p_value", u.fit.tests->joint.pValue},
-                              {"slope_given_intercept_p_value", u.fit.tests->slopeGivenIntercept.pValue}};
+        out["closed_test"] = {{"joint_p_value", u.fit.tests->joint->pValue},
+                              {"slope_given_intercept_p_value", u.fit.tests->slopeGivenIntercept->pValue}};
     Json rows = Json::array();
     for (const auto& row : u.optimism)
         rows.push_back({{"metric", row.key}, {"apparent", row.apparent}, {"optimism", row.optimism}, {"corrected", row.corrected}});

@@ -46,7 +46,7 @@ ValidationResult runValidation(const Cohort& cohort, const PanelSettings& settin
     auto work = [&](std::size_t w) {
         try {
             for (std::size_t m = w; m < cohort.models.size(); m += workers)
-                result.models[m] = validateModel(cohort.outcome, cohort.models[m], cohort.scale, settings);
+                result.models[m] = validateModel(cohort.outcome, cohort.models[m], cohort.scale, settings, cohort.sourceLines);
         } catch (...) {
             failures[w] = std::current_exception();
         }

@@ -56,12 +56,14 @@ Json testsJson(const ModelValidation& m)
         tests["hosmer_lemeshow"] = nullptr;
     }
     tests["spiegelhalter"] = m.spiegelhalter ? Json{{"z", m.spiegelhalter->z}, {"p_value", m.spiegelhalter->pValue}} : Json(nullptr);
-    if (m.likelihoodRatio) {
-        auto lr = [](const LikelihoodRatioTest& t) { return Json{{"statistic", t.statistic}, {"df", t.df}, {"p_value", t.pValue}}; };
-        tests["likelihood_ratio_joint"] = lr(m.likelihoodRatio->joint);
-        tests["likelihood_ratio_calibration_in_the_large"] = lr(m.likelihoodRatio->interceptOnly);
-        tests["likelihood_ratio_slope_given_intercept"] = lr(m.likelihoodRatio->slopeGivenIntercept);
-    }
+    // Every test key is always there: null when the test cannot be made on these data.
+    auto lr = [](const std::optional<LikelihoodRatioTest>& t) {
+        return t ? Json{{"statistic", t->statistic}, {"df", t->df}, {"p_value", t->pValue}} : Json(nullptr);
+    };
+    const auto& tests3 = m.likelihoodRatio;
+    tests["likelihood_ratio_joint"] = lr(tests3 ? tests3->joint : std::nullopt);
+    tests["likelihood_ratio_calibration_in_the_large"] = lr(tests3 ? std::optional(tests3->interceptOnly) : std::nullopt);
+    tests["likelihood_ratio_slope_given_intercept"] = lr(tests3 ? tests3->slopeGivenIntercept : std::nullopt);
     return tests;
 }
 

@@ -112,10 +112,15 @@ void accuracy(const ModelSupport& s, const SupportCounts& c, const Totals& t, Pa
 
 void calibrationFits(const ModelSupport& s, const SupportCounts& c, const FitStart& start, PanelValues& out)
 {
-    std::vector<double> trials(s.x.size());
-    for (std::size_t k = 0; k < s.x.size(); ++k)
-        trials[k] = c.events[k] + c.nonEvents[k];
-    const BinomialPoints points{s.lp, c.events, trials};
+    // Patients whose outcome contradicts a risk of 0 or 1 are left out, as in the full sample.
+    std::vector<double> events(c.events), trials(s.x.size());
+    for (std::size_t k = 0; k < s.x.size(); ++k) {
+        const double agreeingEvents = contradictsOutcome(s.x[k], true) ? 0.0 : c.events[k];
+        const double agreeingNonEvents = contradictsOutcome(s.x[k], false) ? 0.0 : c.nonEvents[k];
+        events[k] = agreeingEvents;
+        trials[k] = agreeingEvents + agreeingNonEvents;
+    }
+    const BinomialPoints points{s.lp, events, trials};
     if (const auto intercept = fitCalibrationIntercept(points, start.calibrationIntercept))
         out[CalibrationIntercept] = intercept->alpha;
     if (const auto slope = fitCalibrationSlope(points, start.recalibrationIntercept, start.slope)) {

@@ -165,9 +165,9 @@ ReportSection resultsSection(const AnalysisSnapshot& s, std::size_t minimumCell)
         if (m.spiegelhalter)
             tests.rows.push_back({textCell(m.name), textCell("Spiegelhalter z"), numberCell(m.spiegelhalter->z, 3), textCell("-"),
                                   numberCell(m.spiegelhalter->pValue, 4)});
-        if (m.likelihoodRatio)
+        if (m.likelihoodRatio && m.likelihoodRatio->joint)
             tests.rows.push_back({textCell(m.name), textCell("Likelihood ratio: intercept 0 and slope 1"),
-                                  numberCell(m.likelihoodRatio->joint.statistic, 2), textCell("2"), numberCell(m.likelihoodRatio->joint.pValue, 4)});
+                                  numberCell(m.likelihoodRatio->joint->statistic, 2), textCell("2"), numberCell(m.likelihoodRatio->joint->pValue, 4)});
     }
     tests.note = "Large cohorts reject clinically unimportant miscalibration: read the risk-group table and the curve.";
     section.tables.push_back(tests);

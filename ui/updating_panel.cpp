@@ -144,8 +144,8 @@ void UpdatingPanel::showUpdate()
                             QString::fromStdString(u.fit.formula()).toHtmlEscaped());
     if (u.fit.tests)
         text += tr("<br>Closed test: intercept and slope jointly %1; slope given intercept %2.")
-                    .arg(QString::fromStdString(pValueText(u.fit.tests->joint.pValue)).toHtmlEscaped(),
-                         QString::fromStdString(pValueText(u.fit.tests->slopeGivenIntercept.pValue)).toHtmlEscaped());
+                    .arg(QString::fromStdString(pValueText(u.fit.tests->joint->pValue)).toHtmlEscaped(),
+                         QString::fromStdString(pValueText(u.fit.tests->slopeGivenIntercept->pValue)).toHtmlEscaped());
     m_formula->setText(text);
     for (const auto& row : u.optimism) {
         const int r = m_optimism->rowCount();

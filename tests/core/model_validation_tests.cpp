@@ -67,8 +67,45 @@ TEST_CASE("Every metric key of the interface is in the JSON and undefined values
         CHECK(metrics.contains(key));
     CHECK(metrics.at("log_loss").at("estimate").is_null());
     CHECK(mentions(result.warnings, "log loss and Nagelkerke R2 are infinite"));
-    CHECK(mentions(result.warnings, "exactly 0 or 1"));
+    CHECK(mentions(result.warnings, "1 patients have a predicted risk within 1e-12 of 0 or 1 that their outcome contradicts"));
     CHECK(json.dump().find("NaN") == std::string::npos);
+}
+
+TEST_CASE("A risk of 0 contradicted by an event leaves the calibration fits as if that patient were absent", "[panel][calibration]")
+{
+    // Toy-20 (check_datasets.hpp) with patient 4, an event, given a risk of 0, 1e-15, or 0 reached
+    // through a logit of -800: the calibration intercept, slope and the likelihood-ratio tests
+    // equal those of the 19 other patients, whatever the rounding (they no longer depend on the clip).
+    CheckData reference = toy20A();
+    REQUIRE(reference.y[3] == 1);
+    CheckData without = reference;
+    without.y.erase(without.y.begin() + 3);
+    without.p.erase(without.p.begin() + 3);
+    const ValidationResult expected = runValidation(cohortOf(without), PanelSettings{});
+    for (const double risk : {0.0, 1e-15, 1.0 / (1.0 + std::exp(800.0))}) {
+        CheckData data = reference;
+        data.p[3] = risk;
+        const ValidationResult result = runValidation(cohortOf(data), PanelSettings{});
+        const ModelValidation& m = result.models.at(0);
+        const ModelValidation& e = expected.models.at(0);
+        for (const char* key : {"calibration_intercept", "calibration_slope", "recalibration_intercept"}) {
+            INFO(key << " at risk " << risk);
+            REQUIRE(m.metric(key)->value);
+            CHECK_THAT(*m.metric(key)->value, WithinAbs(*e.metric(key)->value, 1e-10));
+            CHECK_THAT(*m.metric(key)->upper, WithinAbs(*e.metric(key)->upper, 1e-10));
+        }
+        REQUIRE(m.likelihoodRatio);
+        CHECK_THAT(m.likelihoodRatio->slopeGivenIntercept->pValue, WithinAbs(e.likelihoodRatio->slopeGivenIntercept->pValue, 1e-10));
+        CHECK_THAT(m.likelihoodRatio->joint->pValue, WithinAbs(e.likelihoodRatio->joint->pValue, 1e-10));
+        CHECK(mentions(result.warnings, "left out of calibration-in-the-large"));
+    }
+    // A risk of 1e-18 agreeing with its outcome (a non-event) is kept and not called contradicted.
+    CheckData agreeing = reference;
+    const auto nonEvent = std::find(agreeing.y.begin(), agreeing.y.end(), std::uint8_t{0}) - agreeing.y.begin();
+    agreeing.p[std::size_t(nonEvent)] = 1e-18;
+    const ValidationResult kept = runValidation(cohortOf(agreeing), PanelSettings{});
+    CHECK_FALSE(mentions(kept.warnings, "contradicts"));
+    CHECK(mentions(kept.warnings, "that their outcome agrees with"));
 }
 
 TEST_CASE("A points score gets discrimination only with a warning", "[panel]")

@@ -53,7 +53,16 @@ TEST_CASE("Weighted Toy-20 C and Brier match the check values of the methods ref
 TEST_CASE("Every weighted metric equals the metric on the explicitly resampled rows", "[bootstrap][weighted]")
 {
     RandomStream random(5150);
-    const std::vector<CheckData> datasets{toy20A(), toy20B(), gen1000()};
+    // The third set has an event at a risk of 0 and a non-event at a risk of 1: both are left out
+    // of the calibration fits, in a replicate as in the rows (the weighted and expanded panels agree).
+    CheckData contradicted = toy20B();
+    for (std::size_t i = 0, events = 0, nonEvents = 0; i < contradicted.y.size(); ++i) {
+        if (contradicted.y[i] && events++ == 0)
+            contradicted.p[i] = 0.0;
+        if (!contradicted.y[i] && nonEvents++ == 0)
+            contradicted.p[i] = 1.0;
+    }
+    const std::vector<CheckData> datasets{toy20A(), toy20B(), contradicted, gen1000()};
     for (const CheckData& d : datasets) {
         for (int trial = 0; trial < 4; ++trial) {
             std::vector<std::uint16_t> counts(d.y.size(), 0);
