@@ -1,6 +1,7 @@
 #include "bootstrap_engine.hpp"
 
 #include "decision_curve.hpp"
+#include "interval_choice.hpp"
 #include "logistic_recalibration.hpp"
 #include "metric_reading.hpp"
 #include "panel_acceleration.hpp"
@@ -217,9 +218,6 @@ ModelBootstrap summariseModel(const Shared& shared, const Cohort& cohort, std::s
                                       + std::to_string(shared.settings.replicates) + " bootstrap replicates could not compute "
                                       + metricLabel(panelKeys[k]) + "; its interval uses the others.");
         out.metrics[k] = summarise(sorted, *estimate->value, *accelerations[k], confidence);
-        if (!out.metrics[k]->bca && shared.settings.method == BootstrapCi::Bca)
-            result.warnings.push_back("Model '" + full.name + "': every bootstrap replicate of " + metricLabel(panelKeys[k])
-                                      + " lies on one side of the estimate, so BCa is undefined; the percentile interval is reported.");
     }
     std::vector<double> curveX;
     for (const auto& point : full.calibrationCurve)
@@ -367,6 +365,8 @@ std::optional<BootstrapResult> runBootstrap(const Cohort& cohort, const Validati
     result.confidence = full.settings.confidence;
     for (std::size_t r : shared.redraws)
         result.redrawn += r;
+    result.events = shared.eventRows.size();
+    result.nonEvents = shared.nonEventRows.size();
     for (std::size_t m = 0; m < cohort.models.size(); ++m) {
         if (stop.stop_requested())
             return std::nullopt;
@@ -381,6 +381,7 @@ std::optional<BootstrapResult> runBootstrap(const Cohort& cohort, const Validati
 
 void applyBootstrap(ValidationResult& result, const BootstrapResult& bootstrap)
 {
+    const BootstrapEvidence evidence{bootstrap.events, bootstrap.nonEvents, bootstrap.redrawn, bootstrap.settings.replicates};
     for (std::size_t m = 0; m < result.models.size(); ++m) {
         ModelValidation& model = result.models[m];
         model.calibrationBand = bootstrap.models[m].calibrationBand;
@@ -399,29 +400,34 @@ void applyBootstrap(ValidationResult& result, const BootstrapResult& bootstrap)
                 continue;
             entry.bootstrap = *b;
             entry.analytic = entry.estimate;
-            const bool useBca = bootstrap.settings.method == BootstrapCi::Bca && b->bca;
-            const auto [lower, upper] = useBca ? *b->bca : b->percentile;
-            entry.estimate.lower = lower;
-            entry.estimate.upper = upper;
-            entry.estimate.ciMethod = useBca ? CiMethod::BootstrapBca : CiMethod::BootstrapPercentile;
-            if (!entry.estimate.se)
-                entry.estimate.se = b->se;
+            // The interval reported follows the rule of interval_choice; `se` stays the analytic
+            // SE (the bootstrap's is in `bootstrap`), so each field keeps one meaning.
+            const ChosenInterval chosen = chooseInterval(entry.estimate, *b, bootstrap.settings.method, evidence);
+            entry.estimate = chosen.estimate;
+            entry.intervalNote = chosen.note;
+            if (chosen.note.starts_with("no interval"))
+                result.warnings.push_back("Model '" + model.name + "': " + metricLabel(entry.key) + ": " + chosen.note + ".");
             entry.reading = metricReading(entry.key, entry.estimate);
         }
+        if (evidence.sparse())
+            result.warnings.push_back("Model '" + model.name + "': the cohort is small for the bootstrap (" + std::to_string(evidence.events)
+                                      + " events, " + std::to_string(evidence.nonEvents) + " non-events, " + std::to_string(evidence.redrawn)
+                                      + " draws redrawn): analytic or exact intervals are reported where a metric has one, the bootstrap "
+                                        "intervals stay beside them in the result.");
     }
     for (std::size_t p = 0; p < result.comparisons.size() && p < bootstrap.pairs.size(); ++p) {
         ModelComparison& comparison = result.comparisons[p];
-        auto attach = [](DifferenceEstimate& d, const MetricBootstrap& b) {
-            if (b.replicatesUsed < 2)
+        auto attach = [&evidence](DifferenceEstimate& d, const MetricBootstrap& b) {
+            if (b.replicatesUsed < 2 || !d.estimate.value)
                 return;
             d.bootstrap = b;
             if (d.estimate.lower)
                 d.analytic = d.estimate;
-            d.estimate.lower = b.percentile.first;
-            d.estimate.upper = b.percentile.second;
-            d.estimate.ciMethod = CiMethod::BootstrapPercentile;
-            if (!d.estimate.se)
-                d.estimate.se = b.se;
+            const ChosenInterval chosen = chooseDifferenceInterval(d.estimate, b, evidence);
+            d.estimate = chosen.estimate;
+            d.intervalNote = chosen.note;
+            if (d.estimate.ciMethod != CiMethod::Wald && d.estimate.ciMethod != CiMethod::DeLongPlain)
+                d.truncated = false; // a bootstrap interval never leaves the quantity's range
         };
         for (auto& d : comparison.differences)
             for (const auto& [key, b] : bootstrap.pairs[p].differences)

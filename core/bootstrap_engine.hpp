@@ -38,6 +38,7 @@ struct BootstrapResult {
     BootstrapSettings settings;
     double confidence = 0.95;
     std::size_t redrawn = 0; // draws replaced because they lacked events or non-events
+    std::size_t events = 0, nonEvents = 0; // of the cohort resampled
     std::vector<ModelBootstrap> models;
     std::vector<PairBootstrap> pairs; // in the order of ValidationResult::comparisons
     std::vector<std::string> warnings;

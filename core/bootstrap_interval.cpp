@@ -52,8 +52,11 @@ double accelerationFromJackknife(std::span<const double> values, std::span<const
 std::optional<BcaLevels> bcaLevels(std::span<const double> sorted, double estimate, double acceleration,
                                    double confidence)
 {
-    const auto below = std::lower_bound(sorted.begin(), sorted.end(), estimate) - sorted.begin();
-    const auto notAbove = std::upper_bound(sorted.begin(), sorted.end(), estimate) - sorted.begin();
+    // Replicates within rounding of the estimate count as ties: an estimate of -1.4e-16 that is
+    // 0 in exact arithmetic must not put every replicate of 0 "above" it.
+    const double slack = 1e-12 * std::max(1.0, std::abs(estimate));
+    const auto below = std::lower_bound(sorted.begin(), sorted.end(), estimate - slack) - sorted.begin();
+    const auto notAbove = std::upper_bound(sorted.begin(), sorted.end(), estimate + slack) - sorted.begin();
     const double share = (double(below) + 0.5 * double(notAbove - below)) / double(sorted.size());
     if (share <= 0.0 || share >= 1.0)
         return std::nullopt;

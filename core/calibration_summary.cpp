@@ -31,7 +31,8 @@ Estimate observedExpectedRatio(std::span<const std::uint8_t> outcome, std::span<
     }
     const double se = std::sqrt(std::max(0.0, 1.0 / observed - 1.0 / n));
     const double z = zForConfidence(confidence);
-    out.se = se; // on the log scale
+    out.seLog = se;
+    out.se = *out.value * se; // delta method: SE(O/E) = O/E · SE(log O/E)
     out.lower = *out.value * std::exp(-z * se);
     out.upper = *out.value * std::exp(z * se);
     out.ciMethod = CiMethod::LogNormal;

@@ -20,6 +20,9 @@ struct Estimate {
     std::optional<double> lower;
     std::optional<double> upper;
     CiMethod ciMethod = CiMethod::None;
+    // The SE on the log scale, for an estimate whose interval is built there (O/E); `se` is
+    // always on the estimate's own scale.
+    std::optional<double> seLog = std::nullopt;
 
     static Estimate undefined() { return {}; }
     static Estimate point(double v) { return {v, std::nullopt, std::nullopt, std::nullopt, CiMethod::None}; }

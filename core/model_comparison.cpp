@@ -38,15 +38,20 @@ const DifferenceEstimate* ModelComparison::difference(const std::string& key) co
 
 namespace {
 
-DifferenceEstimate normalDifference(std::string key, double value, double se, double confidence, CiMethod method)
+// A difference with its normal (Wald or DeLong) interval, cut at the quantity's range: a
+// difference of two proportions lies in [−1, 1] (an NRI in [−2, 2]), and an interval reaching
+// past it would claim values the quantity cannot take. `truncated` says when the cut was made.
+DifferenceEstimate normalDifference(std::string key, double value, double se, double confidence, CiMethod method,
+                                    double lowest = -1.0, double highest = 1.0)
 {
-    DifferenceEstimate d{std::move(key), Estimate::point(value), std::nullopt, std::nullopt, std::nullopt};
+    DifferenceEstimate d{std::move(key), Estimate::point(value), std::nullopt, std::nullopt, std::nullopt, {}, false};
     if (!(se > 0.0) || !std::isfinite(se))
         return d;
     const double z = zForConfidence(confidence);
     d.estimate.se = se;
-    d.estimate.lower = value - z * se;
-    d.estimate.upper = value + z * se;
+    d.estimate.lower = std::max(lowest, value - z * se);
+    d.estimate.upper = std::min(highest, value + z * se);
+    d.truncated = value - z * se < lowest || value + z * se > highest;
     d.estimate.ciMethod = method;
     d.pValue = twoSidedNormalP(value / se);
     return d;
@@ -69,7 +74,7 @@ void addNri(std::vector<DifferenceEstimate>& out, const std::string& prefix, con
     const double seNonEvents = std::sqrt(std::max(0.0, (pun + pdn - nriNonEvents * nriNonEvents) / nonEvents));
     out.push_back(normalDifference(prefix + "_events", nriEvents, seEvents, confidence, CiMethod::Wald));
     out.push_back(normalDifference(prefix + "_non_events", nriNonEvents, seNonEvents, confidence, CiMethod::Wald));
-    DifferenceEstimate total = normalDifference(prefix, nri, se1, confidence, CiMethod::Wald);
+    DifferenceEstimate total = normalDifference(prefix, nri, se1, confidence, CiMethod::Wald, -2.0, 2.0);
     if (se0 > 0.0)
         total.pValue = twoSidedNormalP(nri / se0);
     out.push_back(total);
@@ -133,9 +138,9 @@ ModelComparison comparePair(const Cohort& cohort, std::size_t a, std::size_t b, 
     out.differences.push_back(normalDifference("brier_difference", meanD, sdD / std::sqrt(double(n)), confidence, CiMethod::Wald));
     auto metricOf = [&](std::size_t model, PanelMetric k) { return result.models[model].metrics[k].estimate.value; };
     if (metricOf(a, CalibrationSlope) && metricOf(b, CalibrationSlope))
-        out.differences.push_back({"calibration_slope_difference", Estimate::point(*metricOf(b, CalibrationSlope) - *metricOf(a, CalibrationSlope)), std::nullopt, std::nullopt, std::nullopt});
+        out.differences.push_back({"calibration_slope_difference", Estimate::point(*metricOf(b, CalibrationSlope) - *metricOf(a, CalibrationSlope)), std::nullopt, std::nullopt, std::nullopt, {}, false});
     if (metricOf(a, Ici) && metricOf(b, Ici))
-        out.differences.push_back({"ici_difference", Estimate::point(*metricOf(b, Ici) - *metricOf(a, Ici)), std::nullopt, std::nullopt, std::nullopt});
+        out.differences.push_back({"ici_difference", Estimate::point(*metricOf(b, Ici) - *metricOf(a, Ici)), std::nullopt, std::nullopt, std::nullopt, {}, false});
     if (!cuts.empty())
         addNri(out.differences, "nri", categorical, events, nonEvents, confidence);
     addNri(out.differences, "nri_continuous", continuous, events, nonEvents, confidence);
@@ -149,7 +154,7 @@ ModelComparison comparePair(const Cohort& cohort, std::size_t a, std::size_t b, 
     const auto& tb = result.models[b].thresholds;
     for (std::size_t k = 0; k < ta.size() && k < tb.size(); ++k) {
         out.netBenefitThresholds.push_back(ta[k].threshold);
-        out.netBenefitDifferences.push_back({"net_benefit_difference", Estimate::point(tb[k].netBenefit - ta[k].netBenefit), std::nullopt, std::nullopt, std::nullopt});
+        out.netBenefitDifferences.push_back({"net_benefit_difference", Estimate::point(tb[k].netBenefit - ta[k].netBenefit), std::nullopt, std::nullopt, std::nullopt, {}, false});
     }
     return out;
 }

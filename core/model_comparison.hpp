@@ -19,6 +19,8 @@ struct DifferenceEstimate {
     std::optional<double> pValue;
     std::optional<MetricBootstrap> bootstrap; // paired: both models on the same resample
     std::optional<Estimate> analytic;         // kept when the bootstrap interval is reported
+    std::string intervalNote;                 // why the reported interval is not the usual one
+    bool truncated = false;                   // the Wald interval was cut at the quantity's range
 };
 
 // Reclassification at the cut-points: patients by category under model_a (rows) and model_b

@@ -1,6 +1,7 @@
 #include "model_validation.hpp"
 
 #include "distributions.hpp"
+#include "interval_choice.hpp"
 #include "logistic_recalibration.hpp"
 #include "loess_calibration.hpp"
 #include "metric_reading.hpp"
@@ -38,7 +39,7 @@ public:
     {
         m_result.name = model.name;
         for (std::string_view key : panelKeys)
-            m_result.metrics.push_back({std::string(key), Estimate::undefined(), {}, std::nullopt, std::nullopt});
+            m_result.metrics.push_back({std::string(key), Estimate::undefined(), {}, std::nullopt, std::nullopt, {}});
     }
 
     void discrimination(bool risks)
@@ -148,8 +149,12 @@ private:
     void set(std::string_view key, Estimate estimate)
     {
         for (auto& entry : m_result.metrics)
-            if (entry.key == key)
+            if (entry.key == key) {
                 entry.estimate = std::move(estimate);
+                entry.intervalNote = withoutDegenerateInterval(entry.estimate);
+                if (!entry.intervalNote.empty())
+                    warn(metricLabel(key) + ": " + entry.intervalNote + ".");
+            }
     }
 
     void groups()

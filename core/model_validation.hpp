@@ -29,6 +29,7 @@ struct MetricEntry {
     std::string reading;
     std::optional<Estimate> analytic;
     std::optional<MetricBootstrap> bootstrap;
+    std::string intervalNote; // why the reported interval is not the usual one (empty when it is)
 };
 
 struct CalibrationCurvePoint {

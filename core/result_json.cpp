@@ -93,6 +93,7 @@ nlohmann::ordered_json cohortJson(const IntakeAudit& audit)
     for (const auto& cost : audit.scoreColumns)
         costs.push_back({{"column", cost.column}, {"unusable", cost.unusable}, {"only_this_column", cost.onlyThisColumn}});
     out["score_columns"] = costs;
+    out["join"] = nullptr; // filled when outcomes came from a second file
     if (audit.join) {
         const JoinSummary& join = *audit.join;
         nlohmann::ordered_json joinOut;

@@ -12,9 +12,12 @@ nlohmann::ordered_json updateJson(const ModelUpdate& u)
     out["intercept"] = u.fit.intercept;
     out["slope"] = u.fit.slope;
     out["formula"] = u.fit.formula();
-    if (u.fit.tests)
-        out["closed_test"] = {{"joint_p_value", u.fit.tests->joint->pValue},
-                              {"slope_given_intercept_p_value", u.fit.tests->slopeGivenIntercept->pValue}};
+    // The closed test's p-values; null when the method is not the closed test or a test could
+    // not be made (no slope can be fitted on these data).
+    auto pValue = [](const std::optional<LikelihoodRatioTest>& t) { return t ? Json(t->pValue) : Json(nullptr); };
+    out["closed_test"] = u.fit.tests ? Json{{"joint_p_value", pValue(u.fit.tests->joint)},
+                                            {"slope_given_intercept_p_value", pValue(u.fit.tests->slopeGivenIntercept)}}
+                                     : Json(nullptr);
     Json rows = Json::array();
     for (const auto& row : u.optimism)
         rows.push_back({{"metric", row.key}, {"apparent", row.apparent}, {"optimism", row.optimism}, {"corrected", row.corrected}});

@@ -1,5 +1,7 @@
 #include "validation_json.hpp"
 
+#include "interval_choice.hpp"
+
 #include <algorithm>
 #include <cmath>
 
@@ -18,6 +20,16 @@ Json estimateJson(const Estimate& e)
             {"ci_method", e.value ? Json(ciMethodName(e.ciMethod)) : Json(nullptr)}};
 }
 
+// `se` is always on the reported (ratio) scale; the O/E interval is built on the log scale, so
+// its SE there is given too, as `se_log`, wherever an O/E ratio appears.
+Json metricEstimateJson(const std::string& key, const Estimate& e)
+{
+    Json out = estimateJson(e);
+    if (key == "oe_ratio")
+        out["se_log"] = numberOrNull(e.seLog);
+    return out;
+}
+
 Json pairJson(const std::pair<double, double>& p)
 {
     return Json::array({p.first, p.second});
@@ -25,12 +37,19 @@ Json pairJson(const std::pair<double, double>& p)
 
 Json metricJson(const MetricEntry& entry)
 {
-    Json out = estimateJson(entry.estimate);
+    Json out = metricEstimateJson(entry.key, entry.estimate);
+    out["interval_note"] = entry.intervalNote.empty() ? Json(nullptr) : Json(entry.intervalNote);
+    // `analytic` and `bootstrap` are null when no bootstrap ran (the estimate's own interval is
+    // then the analytic one); `analytic` is also null for a metric without an analytic interval.
+    out["analytic"] = nullptr;
+    out["bootstrap"] = nullptr;
     if (entry.analytic) {
         const Estimate& a = *entry.analytic;
         out["analytic"] = a.lower ? Json{{"se", numberOrNull(a.se)}, {"ci_lower", *a.lower}, {"ci_upper", *a.upper},
                                          {"ci_method", ciMethodName(a.ciMethod)}}
                                   : Json(nullptr);
+        if (a.lower && entry.key == "oe_ratio")
+            out["analytic"]["se_log"] = numberOrNull(a.seLog);
     }
     if (entry.bootstrap) {
         const MetricBootstrap& b = *entry.bootstrap;
@@ -152,6 +171,10 @@ Json differenceJson(const DifferenceEstimate& d)
 {
     Json out = estimateJson(d.estimate);
     out["p_value"] = numberOrNull(d.pValue);
+    out["ci_truncated"] = d.truncated;
+    out["interval_note"] = d.intervalNote.empty() ? Json(nullptr) : Json(d.intervalNote);
+    out["analytic"] = nullptr;
+    out["bootstrap"] = nullptr;
     if (d.analytic)
         out["analytic"] = {{"se", numberOrNull(d.analytic->se)}, {"ci_lower", numberOrNull(d.analytic->lower)},
                            {"ci_upper", numberOrNull(d.analytic->upper)}, {"ci_method", ciMethodName(d.analytic->ciMethod)}};
@@ -177,9 +200,15 @@ Json comparisonsJson(const ValidationResult& result)
 {
     Json out = Json::array();
     for (const auto& c : result.comparisons) {
+        // Every difference key is always there, null where it cannot be computed (a points
+        // score has only ΔC; no slope under separation; no categorical NRI without cut-points).
         Json metrics = Json::object();
-        for (const auto& d : c.differences)
-            metrics[d.key] = differenceJson(d);
+        for (const char* key : {"c_statistic_difference", "brier_difference", "calibration_slope_difference", "ici_difference",
+                                "nri_events", "nri_non_events", "nri", "nri_continuous_events", "nri_continuous_non_events",
+                                "nri_continuous", "idi"}) {
+            const DifferenceEstimate* d = c.difference(key);
+            metrics[key] = differenceJson(d ? *d : DifferenceEstimate{key, Estimate::undefined(), std::nullopt, std::nullopt, std::nullopt, {}, false});
+        }
         Json netBenefit = Json::array();
         for (std::size_t t = 0; t < c.netBenefitDifferences.size(); ++t) {
             Json row = differenceJson(c.netBenefitDifferences[t]);
@@ -204,7 +233,7 @@ void addUsefulnessFairnessDriftJson(Json& json, const ValidationResult& result)
         for (const auto& r : result.subgroups->results) {
             Json metrics = Json::object();
             for (const auto& entry : r.panel.metrics)
-                metrics[entry.key] = estimateJson(entry.estimate);
+                metrics[entry.key] = metricEstimateJson(entry.key, entry.estimate);
             subgroups.push_back({{"column", r.column}, {"level", r.level}, {"model", r.model}, {"n", r.n}, {"events", r.events},
                                  {"too_small", r.tooSmall}, {"metrics", metrics}});
         }
@@ -221,12 +250,14 @@ void addUsefulnessFairnessDriftJson(Json& json, const ValidationResult& result)
         json["funnel"] = funnel;
     } else {
         json["subgroups"] = Json::array();
+        json["heterogeneity"] = Json::array();
+        json["funnel"] = Json::array();
     }
     if (result.periods) {
         Json periods = Json::array();
         for (const auto& p : result.periods->results)
             periods.push_back({{"period", p.period}, {"model", p.model}, {"n", p.n}, {"events", p.events},
-                               {"metrics", {{"c_statistic", estimateJson(p.c)}, {"oe_ratio", estimateJson(p.oe)},
+                               {"metrics", {{"c_statistic", estimateJson(p.c)}, {"oe_ratio", metricEstimateJson("oe_ratio", p.oe)},
                                             {"calibration_intercept", estimateJson(p.calibrationIntercept)}}},
                                {"outside_first_year", p.outsideFirstYear}});
         json["periods"] = periods;
@@ -235,6 +266,7 @@ void addUsefulnessFairnessDriftJson(Json& json, const ValidationResult& result)
                                     {"note", result.periods->note}};
     } else {
         json["periods"] = Json::array();
+        json["period_reference"] = nullptr;
     }
     Json precision = Json::array();
     for (const auto& p : result.precision)
@@ -272,8 +304,18 @@ namespace plumbline {
 
 nlohmann::ordered_json bootstrapJson(const ValidationResult& result)
 {
+    // The same keys with and without a bootstrap, null where they do not apply.
     if (!result.bootstrap)
-        return {{"replicates", 0}, {"note", "analytic intervals only"}};
+        return {{"replicates", 0},
+                {"seed", nullptr},
+                {"ci_method", nullptr},
+                {"confidence", result.settings.confidence},
+                {"stratified", nullptr},
+                {"redrawn", 0},
+                {"resampling", nullptr},
+                {"random_stream", nullptr},
+                {"interval_rule", nullptr},
+                {"note", "analytic intervals only"}};
     const BootstrapSummary& b = *result.bootstrap;
     return {{"replicates", b.replicates},
             {"seed", b.seed},
@@ -282,7 +324,9 @@ nlohmann::ordered_json bootstrapJson(const ValidationResult& result)
             {"stratified", b.stratified},
             {"redrawn", b.redrawn},
             {"resampling", b.stratified ? "events and non-events resampled separately" : "patients resampled with replacement"},
-            {"random_stream", "xoshiro256** seeded by SplitMix64 from (seed, replicate)"}};
+            {"random_stream", "xoshiro256** seeded by SplitMix64 from (seed, replicate)"},
+            {"interval_rule", intervalRuleText()},
+            {"note", nullptr}};
 }
 
 } // namespace plumbline

@@ -65,6 +65,8 @@ QVariant MetricTableModel::data(const QModelIndex& index, int role) const
                                                                   QString::fromUtf8(d.source.data(), int(d.source.size())));
         if (entry.estimate.lower)
             tip += tr("<p>Interval: %1</p>").arg(QString::fromStdString(ciMethodLabel(entry.estimate.ciMethod)));
+        if (!entry.intervalNote.empty()) // why this interval and not the one asked for
+            tip += QStringLiteral("<p>%1.</p>").arg(QString::fromStdString(entry.intervalNote).toHtmlEscaped());
         return tip;
     }
     return {};

@@ -6,6 +6,7 @@
 #include "model_comparison.hpp"
 #include "printable_text.hpp"
 #include "panel_keys.hpp"
+#include "value_text.hpp"
 #include "version.hpp"
 
 #include <cstdio>
@@ -15,11 +16,10 @@ namespace plumbline {
 
 namespace {
 
+// Report numbers share the window's formatting: no "-0.000" for a value that rounds to zero.
 std::string fixed(double value, int digits)
 {
-    char buffer[48];
-    std::snprintf(buffer, sizeof buffer, "%.*f", digits, value);
-    return buffer;
+    return fixedText(value, digits);
 }
 
 ReportCell numberCell(std::optional<double> value, int digits)
@@ -56,16 +56,19 @@ ReportTable metricTable(const std::string& id, const std::string& title, const V
                         std::initializer_list<PanelMetric> metrics)
 {
     ReportTable t{id, title, {"Model", "Metric", "Estimate", "Interval", "Interval from", "Reading"}, {}, {}};
+    std::string notes; // why an interval other than the one asked for is reported
     for (const auto& model : v.models)
         for (PanelMetric k : metrics) {
             const MetricEntry& e = model.metrics[k];
             const int digits = digitsFor(e.key);
             t.rows.push_back({textCell(model.name), textCell(metricLabel(e.key)), numberCell(e.estimate.value, digits),
                               textCell(e.estimate.value ? intervalText(e.estimate, digits) : "-"),
-                              textCell(e.estimate.lower ? ciMethodName(e.estimate.ciMethod) : "-"),
+                              textCell(e.estimate.lower ? ciMethodLabel(e.estimate.ciMethod) : "-"),
                               textCell(e.estimate.value ? e.reading : "not computed: see the warnings")});
+            if (e.estimate.value && !e.intervalNote.empty())
+                notes += " " + model.name + ", " + metricLabel(e.key) + ": " + e.intervalNote + ".";
         }
-    t.note = "Intervals at the " + fixed(v.settings.confidence * 100.0, 0) + " % level.";
+    t.note = "Intervals at the " + fixed(v.settings.confidence * 100.0, 0) + " % level." + notes;
     return t;
 }
 
@@ -274,8 +277,13 @@ ReportSection comparisonSection(const AnalysisSnapshot& s, std::size_t minimumCe
     for (const auto& c : v.comparisons) {
         auto add = [&](const std::string& label, const DifferenceEstimate& d) {
             differences.rows.push_back({textCell(c.modelA), textCell(c.modelB), textCell(label), numberCell(d.estimate.value, 4),
-                                        textCell(intervalText(d.estimate, 4)), textCell(d.estimate.lower ? ciMethodName(d.estimate.ciMethod) : "-"),
+                                        textCell(intervalText(d.estimate, 4)), textCell(d.estimate.lower ? ciMethodLabel(d.estimate.ciMethod) : "-"),
                                         d.pValue ? numberCell(*d.pValue, 4) : textCell("-")});
+            if (d.estimate.value && !d.intervalNote.empty())
+                differences.note += (differences.note.empty() ? "" : " ") + c.modelB + " - " + c.modelA + ", " + label + ": " + d.intervalNote + ".";
+            else if (d.truncated)
+                differences.note += (differences.note.empty() ? "" : " ") + c.modelB + " - " + c.modelA + ", " + label
+                                    + ": the Wald interval is cut at the quantity's range.";
         };
         for (const auto& d : c.differences)
             add(d.key, d);

@@ -18,7 +18,9 @@ TEST_CASE("O/E and its intervals match the check values", "[calibration]")
     const auto a = toy20A(), gen = gen1000();
     const Estimate logNormal = observedExpectedRatio(a.y, a.p, 0.95, CiMethod::LogNormal);
     CHECK_THAT(*logNormal.value, WithinAbs(1.1267606, 1e-7));
-    CHECK_THAT(*logNormal.se, WithinAbs(0.2738613, 1e-7));
+    CHECK_THAT(*logNormal.seLog, WithinAbs(0.2738613, 1e-7));
+    // `se` is on the ratio's own scale (delta method): O/E · SE(log O/E).
+    CHECK_THAT(*logNormal.se, WithinAbs(1.1267606 * 0.2738613, 1e-7));
     CHECK_THAT(*logNormal.lower, WithinAbs(0.6587498, 1e-7));
     CHECK_THAT(*logNormal.upper, WithinAbs(1.9272710, 1e-7));
     const Estimate exact = observedExpectedRatio(a.y, a.p, 0.95, CiMethod::ExactPoisson);

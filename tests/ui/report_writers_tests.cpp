@@ -11,6 +11,7 @@
 #include <QXmlStreamReader>
 
 #include <cmath>
+#include <regex>
 
 using namespace plumbline;
 
@@ -153,6 +154,32 @@ private slots:
         QCOMPARE(QDir(dir.path()).entryList(QDir::NoDotAndDotDot | QDir::AllEntries).size(), 2);
         QVERIFY(QDir(target).isEmpty());
         QVERIFY(!writeReport(document, charts, dir.filePath(QStringLiteral("report.docx")).toStdString()).has_value());
+    }
+
+    void aValueThatRoundsToZeroHasNoSignAndIntervalNotesAreShown()
+    {
+        // A difference of -1.4e-16 is 0 in exact arithmetic: the report must not print "-0.000".
+        SnapshotPointer base = snapshotOf(300, 10);
+        auto snapshot = std::make_shared<AnalysisSnapshot>(*base);
+        MetricEntry& citl = snapshot->validation.models.at(0).metrics[CalibrationIntercept];
+        citl.estimate.value = -1.4e-16;
+        citl.estimate.lower = -0.1;
+        citl.estimate.upper = 0.1;
+        citl.intervalNote = "analytic interval: a reason given by the interval rule";
+        const ReportDocument document = buildReport(*snapshot, {}, 11, "2026-01-01T00:00:00Z");
+        const std::regex negativeZero("-0\\.0+(?![0-9])");
+        bool found = false, noted = false;
+        for (const auto& section : document.sections)
+            for (const auto& table : section.tables) {
+                noted = noted || table.note.find("a reason given by the interval rule") != std::string::npos;
+                for (const auto& row : table.rows)
+                    for (const auto& cell : row) {
+                        QVERIFY2(!std::regex_search(cell.text, negativeZero), cell.text.c_str());
+                        found = found || cell.text == "0.000";
+                    }
+            }
+        QVERIFY(found);
+        QVERIFY(noted);
     }
 };
 
