@@ -66,10 +66,9 @@ TEST_CASE("With few events the analytic or exact interval is reported and the bo
     REQUIRE(oe.bootstrap);
     CHECK(oe.intervalNote.find("fewer than 20 of one class") != std::string::npos);
     const MetricEntry& slope = entryOf(result, CalibrationSlope);
-    if (slope.estimate.value) {
-        CHECK(slope.estimate.ciMethod == CiMethod::Wald);
-        CHECK(slope.reading == metricReading("calibration_slope", slope.estimate)); // read on the interval reported
-    }
+    REQUIRE(slope.estimate.value);
+    CHECK(slope.estimate.ciMethod == CiMethod::Wald);
+    CHECK(slope.reading == metricReading("calibration_slope", slope.estimate)); // read on the interval reported
     // 25 patients with 6 events: still the exact Poisson interval for O/E.
     const ValidationResult six = bootstrapped(smallCohort(25, 6, 0.3, 4), 500, 12);
     CHECK(entryOf(six, OeRatio).estimate.ciMethod == CiMethod::ExactPoisson);

@@ -32,7 +32,7 @@ bool mentions(const std::vector<std::string>& warnings, const std::string& fragm
 
 TEST_CASE("The panel carries the estimators' check values for Toy-20", "[panel]")
 {
-    // Values: shared/methods.md §1-§4 (see the estimator tests for their sources).
+    // Values: docs/methods.md §3, §5-§8, §12 and §13 (see the estimator tests for their sources).
     const ValidationResult result = runValidation(cohortOf(toy20A()), PanelSettings{});
     const ModelValidation& m = result.models.at(0);
     CHECK_THAT(*m.metric("c_statistic")->value, WithinAbs(0.703125, 1e-12));
@@ -164,13 +164,11 @@ TEST_CASE("Readings follow the interval not just the estimate", "[panel]")
 {
     const ValidationResult result = runValidation(cohortOf(gen1000()), PanelSettings{});
     const ModelValidation& gen = result.models.at(0);
-    // Gen-1000's slope is 0.80 with an interval below 1 (methods §3.2): too extreme.
-    for (const auto& entry : gen.metrics) {
-        if (entry.key == "calibration_slope")
-            CHECK(entry.reading.find("too extreme") != std::string::npos);
-        if (entry.key == "oe_ratio") // interval 0.85-1.03 includes 1
-            CHECK(entry.reading.find("consistent") != std::string::npos);
-    }
+    // Gen-1000's slope is 0.80 with an interval below 1 (statsmodels 0.13.5; docs/methods.md §7): too extreme.
+    REQUIRE(gen.metrics[CalibrationSlope].key == "calibration_slope");
+    CHECK(gen.metrics[CalibrationSlope].reading.find("too extreme") != std::string::npos);
+    REQUIRE(gen.metrics[OeRatio].key == "oe_ratio"); // interval 0.85-1.03 includes 1
+    CHECK(gen.metrics[OeRatio].reading.find("consistent") != std::string::npos);
 }
 
 TEST_CASE("Operating points on the slider grid equal the threshold metrics at the same thresholds", "[panel]")
@@ -178,7 +176,7 @@ TEST_CASE("Operating points on the slider grid equal the threshold metrics at th
     const ValidationResult result = runValidation(cohortOf(gen1000()), PanelSettings{});
     const ModelValidation& m = result.models.at(0);
     REQUIRE(m.operatingPoints.size() == 201);
-    // Gen-1000 at t = 0.1, 0.2, 0.3 (methods §7.3 [C]): TP 282/247/214, FP 550/369/259.
+    // Gen-1000 at t = 0.1, 0.2, 0.3 (computed with numpy; docs/methods.md §14): TP 282/247/214, FP 550/369/259.
     const std::size_t tp[3] = {282, 247, 214}, fp[3] = {550, 369, 259};
     for (int k = 0; k < 3; ++k) {
         const OperatingPoint& point = m.operatingPoints[static_cast<std::size_t>(20 * (k + 1))];
@@ -195,7 +193,7 @@ TEST_CASE("Operating points on the slider grid equal the threshold metrics at th
 
 TEST_CASE("An operating point summary matches the Toy-20 threshold table", "[panel]")
 {
-    // shared/methods.md §7.3 [C], t = 0.3: TP 6, FP 5, FN 2, TN 7; NB 0.192857, treat all 0.142857.
+    // Computed with numpy (docs/methods.md §14), t = 0.3: TP 6, FP 5, FN 2, TN 7; NB 0.192857, treat all 0.142857.
     const OperatingPointSummary s = summarise(OperatingPoint{0.3, 6, 5, 7, 2});
     CHECK_THAT(*s.sensitivity, WithinAbs(0.75, 1e-12));
     CHECK_THAT(*s.specificity, WithinAbs(7.0 / 12.0, 1e-12));

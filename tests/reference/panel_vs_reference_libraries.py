@@ -28,6 +28,7 @@ cli, samples = sys.argv[1], sys.argv[2]
 EXACT, FITTED = 1e-9, 1e-6
 failures = []
 checks = 0
+exact_cases = []
 
 
 def close(label, got, want, tol):
@@ -55,9 +56,22 @@ def check_model(tag, model, y, p, settings):
     close(f"{tag} slope CI lower", m["calibration_slope"]["ci_lower"], slope.params[1] - z * slope.bse[1], FITTED)
     observed, expected = y.sum(), p.sum()
     close(f"{tag} O/E", m["oe_ratio"]["estimate"], observed / expected, EXACT)
-    if m["oe_ratio"]["ci_method"] == "log_normal":
+    # Both interval methods, both limits: log-normal with SE(log O/E) = sqrt(1/O - 1/N), exact
+    # Poisson from chi-square quantiles (Ulm 1990, Am J Epidemiol 131:373; both from memory).
+    oe = m["oe_ratio"]
+    alpha = 1 - settings["confidence"]
+    if oe["ci_method"] == "log_normal":
         se = np.sqrt(1 / observed - 1 / len(y))
-        close(f"{tag} O/E lower", m["oe_ratio"]["ci_lower"], observed / expected * np.exp(-z * se), EXACT)
+        close(f"{tag} O/E lower", oe["ci_lower"], observed / expected * np.exp(-z * se), EXACT)
+        close(f"{tag} O/E upper", oe["ci_upper"], observed / expected * np.exp(z * se), EXACT)
+        close(f"{tag} O/E se_log", oe["se_log"], se, EXACT)
+        close(f"{tag} O/E se on the ratio scale", oe["se"], observed / expected * se, EXACT)
+    else:
+        exact_cases.append(tag)
+        close(f"{tag} O/E interval is exact below 10 events", float(oe["ci_method"] == "exact_poisson" and observed < 10), 1.0, EXACT)
+        lower = st.chi2.ppf(alpha / 2, 2 * observed) / (2 * expected) if observed > 0 else 0.0
+        close(f"{tag} O/E exact lower", oe["ci_lower"], lower, FITTED)
+        close(f"{tag} O/E exact upper", oe["ci_upper"], st.chi2.ppf(1 - alpha / 2, 2 * observed + 2) / (2 * expected), FITTED)
     # Likelihood-ratio tests from the reference fits' log-likelihoods.
     ll_orig = np.sum(y * np.log(p) + (1 - y) * np.log(1 - p))
     tests = model["tests"]
@@ -87,9 +101,13 @@ def check_groups(tag, model, y, p, settings):
         close(f"{tag} group {g['group']} CI upper", g["ci_upper"], hi, FITTED if method == "beta" else EXACT)
         e = p[inside].sum()
         statistic += (y[inside].sum() - e) ** 2 / (e * (1 - e / inside.sum()))
+    # External validation: nothing is estimated on these data, so df = number of groups
+    # (Hosmer & Lemeshow 2013, Applied Logistic Regression, 3rd ed., §5.2.2; from memory),
+    # counted here from the groups, not read from the program.
     hl = model["tests"]["hosmer_lemeshow"]
     close(f"{tag} HL statistic", hl["statistic"], statistic, EXACT)
-    close(f"{tag} HL p", hl["p_value"], st.chi2.sf(hl["statistic"], hl["df"]), EXACT)
+    close(f"{tag} HL df", hl["df"], len(groups), EXACT)
+    close(f"{tag} HL p", hl["p_value"], st.chi2.sf(statistic, len(groups)), EXACT)
 
 
 def check_thresholds(tag, model, y, p, settings):
@@ -146,6 +164,13 @@ with tempfile.TemporaryDirectory() as work:
                 writer.writerow([y[k], repr(float(a)), repr(float(b))])
         extra = ["--binomial-interval", "clopper-pearson", "--thresholds", "0.05,0.15,0.25"] if seed == 12 else []
         validate(f"simulated seed {seed}" + (f" ties {step}" if step else ""), path, "y", ["a", "b"], extra)
+    # A small cohort with fewer than 10 events: the exact Poisson O/E interval, at 90 %.
+    small = os.path.join(work, "small.csv")
+    with open(os.path.join(work, "clean11.csv")) as source, open(small, "w") as target:
+        lines = source.readlines()
+        target.writelines(lines[:61])
+    validate("small cohort", small, "y", ["a", "b"], ["--confidence", "0.9"])
+    close("the exact Poisson interval was checked", float(len(exact_cases) > 0), 1.0, EXACT)
 
 for failure in failures:
     print("FAIL", failure)
