@@ -3,6 +3,7 @@
 #include "metric_reading.hpp"
 #include "value_text.hpp"
 
+#include <algorithm>
 #include <cstdio>
 #include <iomanip>
 #include <numeric>
@@ -53,6 +54,20 @@ void printMetrics(std::ostream& out, const ModelValidation& model, double confid
             << interval(entry.estimate, digits) << std::setw(15) << shortMethod(entry.estimate.ciMethod)
             << (entry.estimate.value ? entry.reading : "not computed: see the warnings") << '\n';
     }
+    // Why an interval other than the bootstrap one asked for is shown (the interval rule); the
+    // metrics sharing a reason share a line.
+    std::vector<std::pair<std::string, std::string>> notes; // reason, metrics
+    for (const auto& entry : model.metrics) {
+        if (!entry.estimate.value || entry.intervalNote.empty())
+            continue;
+        auto same = std::find_if(notes.begin(), notes.end(), [&](const auto& n) { return n.first == entry.intervalNote; });
+        if (same == notes.end())
+            notes.emplace_back(entry.intervalNote, metricLabel(entry.key));
+        else
+            same->second += ", " + metricLabel(entry.key);
+    }
+    for (const auto& [reason, metrics] : notes)
+        out << "  * " << metrics << ": " << reason << ".\n";
 }
 
 void printTests(std::ostream& out, const ModelValidation& model)

@@ -40,10 +40,10 @@ Estimate withoutInterval(Estimate e)
 std::string sparseReason(const BootstrapEvidence& evidence)
 {
     if (evidence.events < IntervalRule::minimumClass || evidence.nonEvents < IntervalRule::minimumClass)
-        return "with " + std::to_string(evidence.events) + " events and " + std::to_string(evidence.nonEvents)
-            + " non-events (fewer than 20 of one class) bootstrap intervals come out too narrow";
-    return std::to_string(evidence.redrawn) + " of " + std::to_string(evidence.replicates)
-        + " bootstrap draws lacked events or non-events and were redrawn, a sign of too few of one class";
+        return "too few of one class for the bootstrap (" + std::to_string(evidence.events) + (evidence.events == 1 ? " event, " : " events, ")
+            + std::to_string(evidence.nonEvents) + (evidence.nonEvents == 1 ? " non-event" : " non-events") + "; the rule asks for 20 of each)";
+    return "too many bootstrap draws lacked one class (" + std::to_string(evidence.redrawn) + " of "
+        + std::to_string(evidence.replicates) + " redrawn; the rule allows 1 %)";
 }
 
 // Falls back from a bootstrap interval that cannot be trusted: percentile if it holds the
@@ -74,7 +74,7 @@ ChosenInterval chooseInterval(const Estimate& analytic, const MetricBootstrap& b
     const double value = *analytic.value;
     const bool hasAnalytic = analytic.lower && analytic.upper;
     if (evidence.sparse() && hasAnalytic) {
-        chosen = {analytic, "analytic interval: " + sparseReason(evidence) + "; the bootstrap intervals are kept beside it"};
+        chosen = {analytic, "analytic interval: " + sparseReason(evidence) + "; the bootstrap intervals stay in the result"};
     } else if (asked == BootstrapCi::Bca) {
         if (!b.bca || !b.z0)
             chosen = fallBack(analytic, b, "every bootstrap replicate lies on one side of the estimate, so BCa is undefined", false);
@@ -88,8 +88,12 @@ ChosenInterval chooseInterval(const Estimate& analytic, const MetricBootstrap& b
         chosen = holds(b.percentile, value) ? ChosenInterval{withInterval(analytic, b.percentile, CiMethod::BootstrapPercentile), {}}
                                             : fallBack(analytic, b, "the percentile interval misses the estimate", true);
     }
+    // Few events and no analytic interval: the bootstrap interval is all there is; say so, and
+    // keep the note short enough to be shared by every metric in that position.
     if (evidence.sparse() && !hasAnalytic && chosen.estimate.lower)
-        chosen.note = "bootstrap interval, the only one this metric has: " + sparseReason(evidence) + ", so read it with care";
+        chosen.note = std::string(chosen.estimate.ciMethod == CiMethod::BootstrapBca ? "BCa" : "percentile")
+            + " bootstrap interval, the only one this metric has, read with care: " + sparseReason(evidence)
+            + (chosen.note.empty() ? "" : ", and BCa was not usable");
     if (const auto degenerate = withoutDegenerateInterval(chosen.estimate); !degenerate.empty())
         chosen.note = degenerate;
     return chosen;
@@ -102,7 +106,7 @@ ChosenInterval chooseDifferenceInterval(const Estimate& analytic, const MetricBo
     const bool hasAnalytic = analytic.lower && analytic.upper;
     ChosenInterval chosen;
     if (evidence.sparse() && hasAnalytic)
-        chosen = {analytic, "analytic interval: " + sparseReason(evidence) + "; the bootstrap interval is kept beside it"};
+        chosen = {analytic, "analytic interval: " + sparseReason(evidence) + "; the bootstrap interval stays in the result"};
     else if (holds(b.percentile, *analytic.value))
         chosen = {withInterval(analytic, b.percentile, CiMethod::BootstrapPercentile), {}};
     else

@@ -9,6 +9,7 @@
 #include "value_text.hpp"
 #include "version.hpp"
 
+#include <algorithm>
 #include <cstdio>
 #include <filesystem>
 
@@ -56,7 +57,7 @@ ReportTable metricTable(const std::string& id, const std::string& title, const V
                         std::initializer_list<PanelMetric> metrics)
 {
     ReportTable t{id, title, {"Model", "Metric", "Estimate", "Interval", "Interval from", "Reading"}, {}, {}};
-    std::string notes; // why an interval other than the one asked for is reported
+    std::vector<std::pair<std::string, std::string>> notes; // why an interval other than the one asked for is reported: reason, metrics
     for (const auto& model : v.models)
         for (PanelMetric k : metrics) {
             const MetricEntry& e = model.metrics[k];
@@ -65,10 +66,19 @@ ReportTable metricTable(const std::string& id, const std::string& title, const V
                               textCell(e.estimate.value ? intervalText(e.estimate, digits) : "-"),
                               textCell(e.estimate.lower ? ciMethodLabel(e.estimate.ciMethod) : "-"),
                               textCell(e.estimate.value ? e.reading : "not computed: see the warnings")});
-            if (e.estimate.value && !e.intervalNote.empty())
-                notes += " " + model.name + ", " + metricLabel(e.key) + ": " + e.intervalNote + ".";
+            if (e.estimate.value && !e.intervalNote.empty()) {
+                const std::string who = model.name + " " + metricLabel(e.key);
+                auto same = std::find_if(notes.begin(), notes.end(), [&](const auto& n) { return n.first == e.intervalNote; });
+                if (same == notes.end())
+                    notes.emplace_back(e.intervalNote, who);
+                else
+                    same->second += ", " + who;
+            }
         }
-    t.note = "Intervals at the " + fixed(v.settings.confidence * 100.0, 0) + " % level." + notes;
+    // Metrics sharing a reason share a sentence, so a small cohort's notes stay short.
+    t.note = "Intervals at the " + fixed(v.settings.confidence * 100.0, 0) + " % level.";
+    for (const auto& [reason, who] : notes)
+        t.note += " " + who + ": " + reason + ".";
     return t;
 }
 

@@ -64,7 +64,7 @@ TEST_CASE("With few events the analytic or exact interval is reported and the bo
     CHECK(*oe.estimate.lower == *oe.analytic->lower);
     CHECK(*oe.estimate.upper == *oe.analytic->upper);
     REQUIRE(oe.bootstrap);
-    CHECK(oe.intervalNote.find("fewer than 20 of one class") != std::string::npos);
+    CHECK(oe.intervalNote.find("too few of one class for the bootstrap (1 event, 39 non-events") != std::string::npos);
     const MetricEntry& slope = entryOf(result, CalibrationSlope);
     REQUIRE(slope.estimate.value);
     CHECK(slope.estimate.ciMethod == CiMethod::Wald);
