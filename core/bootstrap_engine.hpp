@@ -48,7 +48,7 @@ struct BootstrapResult {
 // the bootstrap's worker threads (a GUI must forward it to its own thread).
 using BootstrapProgress = std::function<void(std::size_t done, std::size_t total)>;
 
-// Nonparametric bootstrap of the whole panel (methods reference §5). Replicate r draws its
+// Nonparametric bootstrap of the whole panel (docs/methods.md §15). Replicate r draws its
 // multinomial counts from RandomStream(seed, r + 1), so the result does not depend on the number
 // of threads. A replicate is a count vector over the original rows; every metric is a weighted
 // sweep over each model's scores sorted once; the fits start from the full-sample estimates.

@@ -8,7 +8,7 @@
 
 namespace plumbline {
 
-// The three likelihood-ratio tests of the calibration framework (methods reference §3.2;
+// The three likelihood-ratio tests of the calibration framework (docs/methods.md §7;
 // Cox 1958, Miller, Hui & Tierney 1991): joint a = 0, b = 1 (2 df); calibration-in-the-large
 // (1 df); slope given calibration-in-the-large (1 df). Statistics are 2·ΔLL, p from χ².
 struct LikelihoodRatioTest {

@@ -28,7 +28,8 @@ Placements delongPlacements(std::span<const std::uint8_t> outcome, std::span<con
                             const ScoreOrder& order);
 Placements delongPlacements(std::span<const std::uint8_t> outcome, std::span<const double> score);
 
-// DeLong variance of one C from its placements (n−1 denominators, as in DeLong 1988).
+// DeLong variance of one C from its placements (n−1 denominators, as in DeLong 1988; the S10/S01
+// components from memory, docs/methods.md §4).
 double delongVariance(const Placements& placements);
 // DeLong covariance of two Cs on the same patients.
 double delongCovariance(const Placements& a, const Placements& b);

@@ -13,7 +13,8 @@ namespace plumbline {
 // trusted where it is known to mislead: with few patients of one class its intervals come out
 // too narrow (40 patients with one event: O/E BCa 0.08–0.28 against exact Poisson 0.0025–0.55),
 // and a lopsided replicate distribution can put the estimate outside its own interval. The rule
-// (a choice of this project, from common practice; README "Which interval is reported"):
+// (a choice of this project, from common practice; README "Which interval is reported";
+// docs/methods.md §17):
 //   1. fewer than 20 events or 20 non-events, or more than 1 % of draws redrawn for lack of one
 //      class: the analytic or exact interval where the metric has one;
 //   2. otherwise the bootstrap interval asked for (BCa or percentile), unless BCa's bias

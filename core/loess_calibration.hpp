@@ -39,7 +39,7 @@ struct LoessOptions {
 // ICI (mean), E50 (median), E90 (0.9 quantile, R type 7), Emax.
 //
 // Tied risks form one weighted point, which reproduces loess on the expanded data exactly (the
-// neighbourhood is counted in patients; methods reference §3.9). Above `exactUpTo` patients with
+// neighbourhood is counted in patients; docs/methods.md §12). Above `exactUpTo` patients with
 // more than `maxSupportPoints` distinct risks, risks are pooled into that many equal-width bins
 // (placed at their mean risk), the local fit is made at up to `maxVertices` of them and the
 // curve interpolated linearly in between: the "binned" approximation, whose ICI stays within

@@ -45,13 +45,13 @@ struct ModelComparison {
 // Every pair of models (a before b in the cohort's order), with analytic intervals where they
 // exist: ΔC with the paired DeLong test (DeLong et al. 1988); ΔBrier with the paired normal SE of
 // the per-patient differences; NRI at the cut-points and category-free, with their event and
-// non-event components (Pencina et al. 2008; p from SE0, interval from SE1 — methods §6.2); IDI
-// with its SE (Pencina et al. 2008); Δ calibration slope, ΔICI and ΔNB as point estimates
-// (their intervals come from the paired bootstrap).
+// non-event components (Pencina et al. 2008; p from SE0, interval from SE1, both from memory —
+// docs/methods.md §18); IDI with its SE (Pencina et al. 2008, from memory); Δ calibration slope,
+// ΔICI and ΔNB as point estimates (their intervals come from the paired bootstrap).
 std::vector<ModelComparison> compareModels(const Cohort& cohort, const struct ValidationResult& result,
                                            const PanelSettings& settings, const std::vector<double>& cutPoints);
 
-// What a reader must keep in mind about these comparisons (methods reference §6.1, §6.4).
+// What a reader must keep in mind about these comparisons (docs/methods.md §18).
 std::vector<std::string> comparisonCautions();
 
 // Category of a risk among the cut-points: the number of cut-points ≤ risk.

@@ -20,7 +20,7 @@ struct OperatingPoint {
 std::vector<OperatingPoint> operatingPoints(std::span<const std::uint8_t> outcome, std::span<const double> risk,
                                             const ScoreOrder& order, double step);
 
-// What a threshold means for the care team, from its counts (methods reference §7): sensitivity,
+// What a threshold means for the care team, from its counts (docs/methods.md §14): sensitivity,
 // specificity, PPV, NPV, flag rate and net benefit beside treating everyone. Undefined → empty.
 struct OperatingPointSummary {
     std::optional<double> sensitivity, specificity, ppv, npv;

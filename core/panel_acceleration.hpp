@@ -10,7 +10,7 @@
 namespace plumbline {
 
 // The BCa acceleration of each panel metric, from jackknife-type values in O(n) total — never
-// n refits (methods reference §5.1):
+// n refits (docs/methods.md §16):
 // - closed-form jackknife: the exact leave-one-out values of C,
 //   Brier, scaled Brier, log loss, Nagelkerke R², O/E and the discrimination slope, one value per
 //   support point and outcome class;

@@ -27,14 +27,15 @@ struct RiskGroup {
 
 // Groups of about N/g patients by ascending risk; a block of equal risks is never split across
 // groups, and a last group smaller than half the target is merged into the previous one
-// (tie-aware grouping as documented for general-purpose packages; methods reference §3.6).
+// (tie-aware grouping as documented for general-purpose packages; docs/methods.md §10).
 std::vector<RiskGroup> riskGroups(std::span<const std::uint8_t> outcome, std::span<const double> risk,
                                   const ScoreOrder& order, std::size_t groups, double confidence, CiMethod method);
 std::vector<RiskGroup> riskGroups(std::span<const std::uint8_t> outcome, std::span<const double> risk,
                                   std::size_t groups, double confidence, CiMethod method);
 
 // Hosmer–Lemeshow Ĉ over those groups (Hosmer & Lemeshow 1980) with df = number of groups
-// formed (external validation: no parameter was estimated on these data). nullopt when a
+// formed (external validation: no parameter was estimated on these data; Hosmer, Lemeshow &
+// Sturdivant 2013, from memory; docs/methods.md §10). nullopt when a
 // group's mean risk is 0 or 1 or fewer than two groups could be formed.
 struct HosmerLemeshowTest {
     double statistic;

@@ -138,7 +138,7 @@ std::optional<SampleSizePlan> planSampleSize(double phi, double c, const SampleS
     }
     const double seSlope = targets.slopeWidth / (2.0 * z);
     add("calibration slope", seSlope, ia / (seSlope * seSlope * (ia * ib - iab * iab)));
-    // 3. C: the Newcombe (2006) form of Hanley & McNeil's SE with N/2 − 1; solve for N.
+    // 3. C: the Newcombe (2006) form of Hanley & McNeil's SE with N/2 − 1 (from memory); solve for N.
     const double seC = targets.cWidth / (2.0 * z);
     auto seOfC = [&](double n) {
         const double m = n / 2.0 - 1.0;
@@ -150,7 +150,7 @@ std::optional<SampleSizePlan> planSampleSize(double phi, double c, const SampleS
         (seOfC(mid) > seC ? nLo : nHi) = mid;
     }
     add("C statistic", seC, nHi);
-    // 4. Standardised net benefit at each threshold (methods §7.1): SE from Se and Sp at t.
+    // 4. Standardised net benefit at each threshold (docs/methods.md §22): SE from Se and Sp at t.
     const double seNb = targets.netBenefitWidth / (2.0 * z);
     for (double t : targets.thresholds) {
         double tp = 0.0, fp = 0.0;

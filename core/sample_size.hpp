@@ -7,10 +7,10 @@
 namespace plumbline {
 
 // Minimum sample size for an external validation with a binary outcome (Riley et al. 2021,
-// Stat Med 40:4230, doi 10.1002/sim.9025), each criterion as re-derived in the methods reference
-// §9: precise O/E, calibration slope, C statistic and net benefit. The linear predictor is taken
-// as Normal(μ, σ²) with μ, σ solved so that the mean risk is the prevalence and the C statistic
-// the anticipated one; calibration is assumed perfect.
+// Stat Med 40:4230, doi 10.1002/sim.9025), each criterion as re-derived in docs/methods.md §22
+// (formulas from memory): precise O/E, calibration slope, C statistic and net benefit. The linear
+// predictor is taken as Normal(μ, σ²) with μ, σ solved so that the mean risk is the prevalence and
+// the C statistic the anticipated one; calibration is assumed perfect.
 struct SampleSizeTargets {
     double oeWidth = 0.2;      // CI width of O/E (around 1)
     double slopeWidth = 0.2;   // CI width of the calibration slope

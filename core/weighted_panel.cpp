@@ -63,7 +63,7 @@ Totals totals(const SupportCounts& c)
             std::accumulate(c.nonEvents.begin(), c.nonEvents.end(), 0.0)};
 }
 
-// Mann–Whitney C with half credit for ties (methods §5.2 sweep), and average precision.
+// Mann–Whitney C with half credit for ties (docs/methods.md §15 sweep), and average precision.
 void discrimination(const ModelSupport& s, const SupportCounts& c, const Totals& t, PanelValues& out)
 {
     double belowNonEvents = 0.0, numerator = 0.0;

@@ -14,7 +14,7 @@ namespace plumbline {
 
 // One model's scores collapsed to their distinct values, prepared once: every bootstrap replicate
 // is then a pair of count vectors over these points, and every metric one sweep over them in
-// ascending order (no sorting, no copying of rows). Methods reference §5.2.
+// ascending order (no sorting, no copying of rows). docs/methods.md §15.
 struct ModelSupport {
     std::vector<double> x;                 // distinct scores, ascending
     std::vector<double> lp;                // clamped logits of x (risks only)

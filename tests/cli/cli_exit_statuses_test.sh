@@ -121,7 +121,8 @@ expect 2 "need an id" -- "$cli" validate "$samples/readmission-scores.csv" --out
 printf 'y,p,d\n1,0.2,2025-01-03\n0,0.1,03/04/2025\n' > "$work/ambiguous.csv"
 expect 2 "line 3, column 'd', value '03/04/2025'" -- "$cli" validate "$work/ambiguous.csv" --outcome y --score p --period d --bootstrap 0
 expect 2 "between 0 and 1" -- "$cli" plan --prevalence 1.5 --c-statistic 0.7
-# The worked example of shared/methods.md §9.3 (Riley et al. 2021 criteria): slope-driven.
+# The worked example of docs/methods.md §22 (Riley et al. 2021 criteria, formulas from memory;
+# computed with numpy and scipy 1.10): slope-driven.
 plan=$("$cli" plan --prevalence 0.15 --c-statistic 0.70 --threshold 0.15)
 if [[ $plan == *"driven by the calibration slope criterion"* && $plan == *"2185"* ]]; then echo "ok: plan prints the criteria"
 else echo "FAIL: plan output: $plan"; failures=$((failures+1)); fi

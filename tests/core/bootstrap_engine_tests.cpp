@@ -75,7 +75,7 @@ TEST_CASE("Every metric gets a percentile and a BCa interval around its estimate
         CHECK(*entry.estimate.lower <= *entry.estimate.upper);
         CHECK_FALSE(entry.bootstrap->accelerationMethod.empty());
     }
-    // The bootstrap SE of C is close to DeLong's 0.0173344 (methods §2.3) on 1,000 patients.
+    // The bootstrap SE of C is close to DeLong's 0.0173344 (docs/methods.md §4) on 1,000 patients.
     CHECK_THAT(m.metrics[CStatistic].bootstrap->se, WithinAbs(0.0173344, 0.004));
     CHECK(m.metrics[CStatistic].analytic->ciMethod == CiMethod::DeLongLogit);
     CHECK(m.calibrationBand.x.size() == m.calibrationCurve.size());

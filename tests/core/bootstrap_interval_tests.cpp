@@ -8,8 +8,9 @@ using namespace plumbline;
 using namespace plumbline::test;
 using Catch::Matchers::WithinAbs;
 
-// Check values: shared/methods.md §5.1 [C], the BCa of Efron 1987 as scipy.stats.bootstrap
-// (scipy 1.10) implements it: jackknife acceleration and mid-tie z0.
+// Check values: docs/methods.md §16, computed with numpy and scipy 1.10: the BCa of Efron 1987
+// (from memory) as scipy.stats.bootstrap (scipy 1.10) implements it: jackknife acceleration and
+// mid-tie z0.
 TEST_CASE("Toy-20 leave-one-out C values give the acceleration of the check values", "[bootstrap]")
 {
     const auto a = toy20A();

@@ -11,8 +11,9 @@ using namespace plumbline;
 using namespace plumbline::test;
 using Catch::Matchers::WithinAbs;
 
-// Check values: shared/methods.md §3.4-§3.8, §4 and §7.3, computed there with python3
-// (numpy, scipy 1.10, statsmodels 0.13.5 proportion_confint) and R 4.2.2 [C].
+// Check values: docs/methods.md §8-§11, §13 and §14, computed with python3 (numpy, scipy 1.10,
+// statsmodels 0.13.5 proportion_confint) and R 4.2.2. The O/E SE (Debray et al. 2017) and its
+// exact Poisson limits are from memory; O < 10 for the exact interval is common practice.
 TEST_CASE("O/E and its intervals match the check values", "[calibration]")
 {
     const auto a = toy20A(), gen = gen1000();
@@ -41,11 +42,12 @@ TEST_CASE("O = 0 gives the exact Poisson upper limit chi-square(0.975 2)/(2E)", 
     const Estimate oe = observedExpectedRatio(y, p, 0.95);
     CHECK(*oe.value == 0.0);
     CHECK(*oe.lower == 0.0);
-    CHECK_THAT(*oe.upper, WithinAbs(7.3777589 / 2.0, 1e-6)); // χ²_{0.975}(2) = 7.3777589 (methods §3.4)
+    CHECK_THAT(*oe.upper, WithinAbs(7.3777589 / 2.0, 1e-6)); // χ²_{0.975}(2) = 7.3777589 (scipy 1.10 chi2.ppf; docs/methods.md §8)
 }
 
 TEST_CASE("Spiegelhalter's z matches the check values and is undefined when all p = 0.5", "[calibration]")
 {
+    // Spiegelhalter 1986 (formula from memory), computed with numpy and scipy 1.10 (docs/methods.md §9).
     const auto a = toy20A(), gen = gen1000();
     const auto toy = spiegelhalterTest(a.y, a.p);
     CHECK_THAT(toy->z, WithinAbs(1.3281809, 1e-7));
@@ -58,6 +60,8 @@ TEST_CASE("Spiegelhalter's z matches the check values and is undefined when all 
 
 TEST_CASE("Tie-aware risk groups and Hosmer-Lemeshow match the check values", "[calibration]")
 {
+    // Computed with numpy and scipy 1.10 (docs/methods.md §10); df = g for external validation is
+    // from memory (Hosmer, Lemeshow & Sturdivant 2013).
     const auto a = toy20A(), gen = gen1000();
     const auto toyGroups = riskGroups(a.y, a.p, 5, 0.95, CiMethod::Wilson);
     REQUIRE(toyGroups.size() == 5);
@@ -118,6 +122,7 @@ TEST_CASE("Risk groups on heavily tied data keep every tie block whole", "[calib
 
 TEST_CASE("Wilson and Clopper-Pearson intervals match statsmodels proportion_confint", "[calibration]")
 {
+    // statsmodels 0.13.5 proportion_confint, methods 'wilson' and 'beta' (docs/methods.md §11).
     struct Row { std::size_t x, n; double wl, wu, cl, cu; };
     const Row rows[] = {{0, 4, 0, 0.4898908, 0, 0.6023646},
                         {1, 4, 0.0455873, 0.6993582, 0.0063095, 0.8058796},
@@ -135,6 +140,7 @@ TEST_CASE("Wilson and Clopper-Pearson intervals match statsmodels proportion_con
 
 TEST_CASE("Brier scaled Brier log loss and Nagelkerke R2 match the check values", "[overall]")
 {
+    // Computed with numpy and scikit-learn 1.2.1 (docs/methods.md §13).
     const auto a = toy20A(), gen = gen1000();
     const OverallAccuracy toy = overallAccuracy(a.y, a.p);
     CHECK_THAT(*toy.brier, WithinAbs(0.22629, 1e-9));
@@ -161,7 +167,8 @@ TEST_CASE("A risk of 0 or 1 contradicted by the outcome makes the log loss undef
 
 TEST_CASE("Threshold metrics and net benefit match the Toy-20 check table", "[thresholds]")
 {
-    // shared/methods.md §7.3 [C]; t = 0.2 and 0.3 hit tied risks, so p >= t matters.
+    // Computed with numpy (docs/methods.md §14; net benefit after Vickers & Elkin 2006, formula from
+    // memory); t = 0.2 and 0.3 hit tied risks, so p >= t matters.
     const auto a = toy20A();
     const std::vector<double> t{0.1, 0.2, 0.3, 0.5};
     const auto rows = thresholdMetrics(a.y, a.p, t, 0.95, CiMethod::Wilson);
@@ -184,6 +191,7 @@ TEST_CASE("Threshold metrics and net benefit match the Toy-20 check table", "[th
 
 TEST_CASE("Threshold metrics match the Gen-1000 check values", "[thresholds]")
 {
+    // Computed with numpy (docs/methods.md §14).
     const auto gen = gen1000();
     const std::vector<double> t{0.1, 0.2, 0.3};
     const auto rows = thresholdMetrics(gen.y, gen.p, t, 0.95, CiMethod::Wilson);

@@ -1,6 +1,6 @@
 #pragma once
 
-// The check datasets of the methods reference (shared/methods.md §0.3), defined exactly as there.
+// The check datasets of docs/methods.md §2 (Toy-20, HM-109, Gen-1000), defined exactly as there.
 #include <cmath>
 #include <cstdint>
 #include <vector>
@@ -24,7 +24,8 @@ inline CheckData toy20B()
             {.08, .05, .12, .20, .10, .15, .25, .18, .30, .22, .40, .35, .50, .38, .60, .45, .70, .65, .85, .75}};
 }
 
-// HM-109: Hanley & McNeil (1982, Radiology 143:29) Table 1, ratings 1-5 of 109 CT images.
+// HM-109: Hanley & McNeil (1982, Radiology 143:29) Table 1, ratings 1-5 of 109 CT images; the
+// counts come from a transcription of that table (docs/methods.md §2).
 inline CheckData hm109()
 {
     const int normal[5] = {33, 6, 6, 11, 2};

@@ -8,8 +8,9 @@ using namespace plumbline;
 using namespace plumbline::test;
 using Catch::Matchers::WithinAbs;
 
-// Check values: shared/methods.md §1-§2, computed there with scikit-learn 1.2.1 roc_auc_score,
-// scipy 1.10 and R 4.2.2 (tag [C]); HM-109 data from Hanley & McNeil 1982, Table 1.
+// Check values: docs/methods.md §3-§4, computed with scikit-learn 1.2.1 roc_auc_score, numpy,
+// scipy 1.10 and R 4.2.2; DeLong, DeLong & Clarke-Pearson 1988 (S10/S01 components from memory);
+// HM-109 data from a transcription of Hanley & McNeil 1982, Table 1.
 TEST_CASE("C statistic matches the Toy-20 HM-109 and Gen-1000 check values", "[discrimination]")
 {
     const auto a = toy20A(), b = toy20B(), hm = hm109(), gen = gen1000();
@@ -63,7 +64,8 @@ TEST_CASE("DeLong intervals on the logit and plain scales match the check values
 
 TEST_CASE("The paired DeLong covariance matches the Toy-20 check values", "[discrimination]")
 {
-    // shared/methods.md §6.1 [C]: S = [[0.0155637006, 0.0128968254], [0.0128968254, 0.0122316919]].
+    // DeLong et al. 1988 covariance (from memory), computed with numpy (docs/methods.md §4):
+    // S = [[0.0155637006, 0.0128968254], [0.0128968254, 0.0122316919]].
     const auto a = toy20A(), b = toy20B();
     const Placements pa = delongPlacements(a.y, a.p), pb = delongPlacements(b.y, b.p);
     CHECK_THAT(delongCovariance(pa, pb), WithinAbs(0.0128968254, 1e-10));
@@ -142,7 +144,8 @@ TEST_CASE("The ROC curve's trapezoidal area equals C and thinning keeps it withi
 
 TEST_CASE("Discrimination slope matches the check values", "[discrimination]")
 {
-    // shared/methods.md §4 [C]: Toy-20 A 0.1583333, B 0.2433333, Gen-1000 0.1613398.
+    // Yates 1982 (from memory), computed with numpy (docs/methods.md §5): Toy-20 A 0.1583333,
+    // B 0.2433333, Gen-1000 0.1613398.
     const auto a = toy20A(), b = toy20B(), gen = gen1000();
     CHECK_THAT(*discriminationSlope(a.y, a.p), WithinAbs(0.1583333, 1e-7));
     CHECK_THAT(*discriminationSlope(b.y, b.p), WithinAbs(0.2433333, 1e-7));
@@ -151,7 +154,7 @@ TEST_CASE("Discrimination slope matches the check values", "[discrimination]")
 
 TEST_CASE("Average precision matches the scikit-learn documentation example", "[discrimination]")
 {
-    // scikit-learn 1.2 documentation of average_precision_score: y = [0,0,1,1],
+    // scikit-learn 1.2 documentation of average_precision_score (docs/methods.md §5): y = [0,0,1,1],
     // scores = [0.1,0.4,0.35,0.8] gives 0.83 (exactly (1/2)(1) + (1/2)(2/3) = 5/6).
     const std::vector<std::uint8_t> y{0, 0, 1, 1};
     const std::vector<double> s{0.1, 0.4, 0.35, 0.8};

@@ -8,16 +8,18 @@ using namespace plumbline;
 using namespace plumbline::test;
 using Catch::Matchers::WithinAbs;
 
-// Check values: shared/methods.md §3.1-§3.2 and §5.2, computed there with statsmodels 0.13.5
-// (GLM with offset, Logit) and R 4.2.2 glm, which agree to all printed digits [C].
+// Check values: docs/methods.md §6-§7 and §15, computed with statsmodels 0.13.5 (GLM with offset,
+// Logit, frequency weights) and R 4.2.2 glm, which agree to all printed digits; the models of
+// Van Calster et al. 2016 (offset intercept) and Cox 1958 (slope, from memory).
 TEST_CASE("Calibration-in-the-large matches the offset-GLM check values", "[calibration]")
 {
     const auto a = toy20A(), gen = gen1000();
     const auto toy = fitCalibrationIntercept(a.y, clampedLogits(a.p));
     REQUIRE(toy);
     CHECK_THAT(toy->alpha, WithinAbs(0.2603346, 1e-7));
-    // methods §3.1 prints SE 0.5320226; statsmodels 0.13.5 GLM(offset).fit(tol=1e-14) under
-    // Debian's /usr/bin/python3 gives 0.53202336, as does 1/sqrt(Σπ(1−π)) at the exact root.
+    // An earlier reference printed SE 0.5320226 (docs/methods.md §2); statsmodels 0.13.5
+    // GLM(offset).fit(tol=1e-14) under Debian's /usr/bin/python3 gives 0.53202336, as does
+    // 1/sqrt(Σπ(1−π)) at the exact root.
     CHECK_THAT(toy->se, WithinAbs(0.53202336, 1e-8));
     CHECK_THAT(toy->logLikelihood, WithinAbs(-13.2256309, 1e-7));
     const auto g = fitCalibrationIntercept(gen.y, clampedLogits(gen.p));
@@ -34,7 +36,8 @@ TEST_CASE("Calibration slope and intercept match the logistic-regression check v
     CHECK_THAT(toy->intercept, WithinAbs(-0.0550359, 1e-7));
     CHECK_THAT(toy->interceptSe, WithinAbs(0.5411643, 1e-7));
     CHECK_THAT(toy->slope, WithinAbs(0.5024740, 1e-7));
-    // methods §3.2 prints 0.3853744; statsmodels 0.13.5 Logit(tol=1e-14) gives 0.38537464.
+    // An earlier reference printed 0.3853744 (docs/methods.md §2); statsmodels 0.13.5
+    // Logit(tol=1e-14) gives 0.38537464.
     CHECK_THAT(toy->slopeSe, WithinAbs(0.38537464, 1e-8));
     CHECK_THAT(toy->logLikelihood, WithinAbs(-12.5117291, 1e-7));
     CHECK_THAT(logLikelihoodOfLogits(a.y, clampedLogits(a.p)), WithinAbs(-13.3436788, 1e-7));
@@ -48,7 +51,8 @@ TEST_CASE("Calibration slope and intercept match the logistic-regression check v
 
 TEST_CASE("Frequency-weighted recalibration equals the fit on the expanded rows", "[calibration]")
 {
-    // shared/methods.md §5.2 [C]: Toy-20 with these counts gives (a, b) = (−0.9669542, 0.2015165).
+    // statsmodels 0.13.5 with frequency weights, equal to the expanded rows (docs/methods.md §15):
+    // Toy-20 with these counts gives (a, b) = (−0.9669542, 0.2015165).
     const auto a = toy20A();
     const std::vector<double> c{2, 0, 1, 1, 0, 3, 1, 0, 1, 2, 1, 0, 1, 1, 0, 2, 1, 1, 0, 2};
     const auto fit = fitCalibrationSlope(a.y, clampedLogits(a.p), c);
@@ -72,7 +76,8 @@ TEST_CASE("Separation and constant risks make the slope not estimable", "[calibr
 
 TEST_CASE("The three calibration likelihood-ratio tests match the check values", "[calibration]")
 {
-    // shared/methods.md §3.2 [C; statsmodels 0.13.5 and R 4.2.2 log-likelihoods, scipy 1.10 chi2.sf].
+    // Miller, Hui & Tierney 1991 (from memory); statsmodels 0.13.5 and R 4.2.2 log-likelihoods, scipy
+    // 1.10 chi2.sf (docs/methods.md §7).
     const auto a = toy20A(), gen = gen1000();
     const auto toy = calibrationLikelihoodRatioTests(a.y, clampedLogits(a.p));
     REQUIRE(toy);

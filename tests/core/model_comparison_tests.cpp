@@ -32,7 +32,9 @@ ModelComparison compareToy(const std::vector<double>& cuts)
 
 } // namespace
 
-// Check values: shared/methods.md §6.1-§6.3 [C], Toy-20 with B the new model against A.
+// Check values: docs/methods.md §18, computed with numpy and scipy 1.10, Toy-20 with B the new
+// model against A; paired DeLong (DeLong et al. 1988) and NRI/IDI with their SEs (Pencina et al.
+// 2008), the covariance and the SEs from memory.
 TEST_CASE("The paired DeLong test of B against A matches the Toy-20 check values", "[comparison]")
 {
     const ModelComparison c = compareToy({0.2, 0.5});
@@ -76,7 +78,7 @@ TEST_CASE("The reclassification table counts patients by category under both mod
         }
     CHECK(events == 8);
     CHECK(nonEvents == 12);
-    CHECK(eventsUp == 2); // p_up among events 0.25 (methods §6.2)
+    CHECK(eventsUp == 2); // p_up among events 0.25 (docs/methods.md §18)
 }
 
 TEST_CASE("The paired DeLong variance agrees with a brute-force O(n^2) computation on tied data", "[comparison]")

@@ -43,8 +43,9 @@ CheckData simulate(std::size_t n, double shift, double scale, RandomStream& rand
 
 TEST_CASE("Updated Toy-20 risks match the check values of the methods reference", "[updating]")
 {
-    // shared/methods.md §8 [C]: intercept update p = 0.30 → 0.3573319; logistic recalibration
-    // (a = −0.0550359, b = 0.5024740): 0.30 → 0.3820677, 0.90 → 0.7405852, 0.05 → 0.1773304.
+    // Computed with numpy and statsmodels 0.13.5 (docs/methods.md §19): intercept update
+    // p = 0.30 → 0.3573319; logistic recalibration (a = −0.0550359, b = 0.5024740): 0.30 → 0.3820677,
+    // 0.90 → 0.7405852, 0.05 → 0.1773304.
     const auto intercept = fitRows(toy20A(), UpdateMethod::Intercept);
     REQUIRE(intercept);
     CHECK_THAT(intercept->updatedRisk(0.30), WithinAbs(0.3573319, 1e-7));

@@ -5,8 +5,9 @@
 using namespace plumbline;
 using Catch::Matchers::WithinAbs;
 
-// Check values: shared/methods.md §9.3, computed there for φ = 0.15, C = 0.70 [C] after Riley et
-// al. 2021 (Stat Med, doi 10.1002/sim.9025): LP ~ Normal(−1.928135, 0.770000); N = 2185 (O/E),
+// Check values: docs/methods.md §22, computed with numpy and scipy 1.10 for φ = 0.15, C = 0.70
+// after the criteria of Riley et al. 2021 (Stat Med, doi 10.1002/sim.9025; formulas and the
+// Newcombe 2006 SE of C from memory): LP ~ Normal(−1.928135, 0.770000); N = 2185 (O/E),
 // 6413 (slope), 815 (C), 1074 (sNB at 0.15); slope-driven minimum 6413.
 TEST_CASE("The sample-size planner reproduces the worked example of the methods reference", "[plan]")
 {

@@ -17,7 +17,8 @@ using Catch::Matchers::WithinAbs;
 
 TEST_CASE("The decision curve matches the Toy-20 and Gen-1000 net benefit check values", "[decision]")
 {
-    // shared/methods.md §7.3 [C]: Toy-20 A at 0.1 / 0.2 / 0.3 / 0.5: NB 0.344444, 0.262500, 0.192857,
+    // Computed with numpy (docs/methods.md §14; Vickers & Elkin 2006, formula from memory):
+    // Toy-20 A at 0.1 / 0.2 / 0.3 / 0.5: NB 0.344444, 0.262500, 0.192857,
     // 0.100000; treat all 0.333333, 0.25, 0.142857, −0.2; sNB 0.861111, 0.65625, 0.482143, 0.25;
     // net reduction per 100: 10, 5, 11.6667, 30. Gen-1000: NB 0.220889, 0.154750, 0.103000.
     const auto a = toy20A();
@@ -234,7 +235,7 @@ TEST_CASE("Small subgroup levels are shown and flagged not hidden", "[subgroups]
 TEST_CASE("Funnel limits approach the normal limits for large expected counts", "[subgroups]")
 {
     // For large E, exact Poisson limits tend to 1 ± z/sqrt(E) (normal approximation to the
-    // Poisson; common practice): E = 10,000 gives 0.9804 and 1.0196 at 95 %.
+    // Poisson; common practice; docs/methods.md §20): E = 10,000 gives 0.9804 and 1.0196 at 95 %.
     CHECK_THAT(funnelLimit(10000.0, 0.025, false), WithinAbs(1.0 - 1.959964 / 100.0, 0.0006));
     CHECK_THAT(funnelLimit(10000.0, 0.025, true), WithinAbs(1.0 + 1.959964 / 100.0, 0.0006));
     CHECK(funnelLimit(100.0, 0.001, false) < funnelLimit(100.0, 0.025, false));

@@ -291,7 +291,8 @@ private slots:
 
     void thePlannerShowsTheCoresPlanAndRefusesABadThreshold()
     {
-        // shared/methods.md §9.3 worked example (Riley et al. 2021 criteria): φ 0.15, C 0.70 →
+        // docs/methods.md §22 worked example (Riley et al. 2021 criteria, formulas from memory;
+        // computed with numpy and scipy 1.10): φ 0.15, C 0.70 →
         // 2185 patients for O/E, and the calibration slope drives the minimum.
         PlannerDialog dialog;
         dialog.setInputs(0.15, 0.70, QStringLiteral("0.15"));
