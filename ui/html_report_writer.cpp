@@ -1,6 +1,7 @@
 #include "report_writers.hpp"
 
 #include "atomic_file.hpp"
+#include "report_closing_html.hpp"
 
 #include <QString>
 
@@ -67,6 +68,7 @@ std::expected<void, InputError> writeHtmlReport(const ReportDocument& document, 
             html += QStringLiteral("<div class=\"chart\">%1</div>").arg(inlineSvg(charts.svg(chart)));
         for (const auto& table : section.tables)
             html += tableHtml(table);
+        html += closingHtml(section.closing);
     }
     html += QStringLiteral("</body></html>\n");
     return writeFileAtomically(path, html.toStdString());

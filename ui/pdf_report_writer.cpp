@@ -1,6 +1,7 @@
 #include "report_writers.hpp"
 
 #include "atomic_file.hpp"
+#include "report_closing_html.hpp"
 
 #include <QAbstractTextDocumentLayout>
 #include <QBuffer>
@@ -69,6 +70,16 @@ public:
     }
 
     void finish() { footer(); }
+
+    // The next block starts on a new page (after the one-page decision summary).
+    void newPage()
+    {
+        if (m_y > m_area.top()) {
+            footer();
+            m_writer.newPage();
+            m_y = m_area.top();
+        }
+    }
 
 private:
     double lineHeight() const { return m_writer.resolution() * 0.17; }
@@ -154,6 +165,10 @@ std::expected<void, InputError> writePdfReport(const ReportDocument& document, R
             for (const auto& table : section.tables)
                 for (std::size_t from = 0; from < std::max<std::size_t>(table.rows.size(), 1); from += rowsPerBlock)
                     layout.html(tableHtml(table, from, std::min(table.rows.size(), from + rowsPerBlock)));
+            if (!section.closing.empty())
+                layout.html(closingHtml(section.closing), 0.1);
+            if (section.pageBreakAfter)
+                layout.newPage();
         }
         layout.finish();
     }

@@ -1,6 +1,7 @@
 #include "report_document.hpp"
 
 #include "cautions.hpp"
+#include "decision_summary.hpp"
 #include "metric_definitions.hpp"
 #include "metric_reading.hpp"
 #include "model_comparison.hpp"
@@ -82,24 +83,69 @@ ReportTable metricTable(const std::string& id, const std::string& title, const V
     return t;
 }
 
-ReportSection scopeSection(const AnalysisSnapshot& s, const ReportFields& f, const std::string& created)
+// Page 1: what was validated, on whom, the key numbers per model side by side, the findings in
+// plain words with the section that shows each, every warning and the cautions.
+ReportSection decisionSummarySection(const AnalysisSnapshot& s, const ReportFields& f, const std::string& created)
 {
-    ReportSection section{"1. Title and scope", {}, {}, {}};
-    auto line = [&](const std::string& label, const std::string& value) {
-        section.paragraphs.push_back(label + ": " + (value.empty() ? "(not stated - fill in before sign-off)" : value));
+    ReportSection section{"1. Decision summary", {}, {}, {}, {}, true};
+    auto stated = [](const std::string& value) { return value.empty() ? std::string("(not stated - fill in before sign-off)") : value; };
+    section.paragraphs.push_back("Model and version: " + stated(f.model) + ". Outcome and horizon: " + stated(f.outcome)
+                                 + ". Population: " + stated(f.population) + ". Period: " + stated(f.period) + ".");
+    const ValidationResult& v = s.validation;
+    const double threshold = s.request.panel.decisionThreshold;
+    DecisionSections where{"section 4", "section 6", "section 5"};
+    const DecisionSummary summary = s.cohort ? summariseForDecision(*s.cohort, v, threshold, where) : DecisionSummary{};
+    section.paragraphs.push_back("Cohort: " + std::to_string(summary.patients) + " patients, " + std::to_string(summary.events)
+                                 + " with the event (event rate " + fixed(100.0 * summary.eventRate, 1) + " %). Report created "
+                                 + created + " with Plumbline " + versionString + ".");
+    std::vector<std::string> headers{"Measure"};
+    for (const auto& m : summary.models)
+        headers.push_back(m.name);
+    ReportTable table{"summary", "Key results (" + fixed(v.settings.confidence * 100.0, 0) + " % intervals)", headers, {}, {}};
+    auto row = [&](const std::string& label, auto cell) {
+        std::vector<ReportCell> cells{textCell(label)};
+        for (const auto& m : summary.models)
+            cells.push_back(cell(m));
+        table.rows.push_back(cells);
     };
-    line("Model and version", f.model);
-    line("Outcome and horizon", f.outcome);
-    line("Population", f.population);
-    line("Period", f.period);
-    section.paragraphs.push_back("Report created " + created + " with Plumbline " + versionString + ".");
-    (void)s;
+    auto estimate = [](const Estimate& e, int digits) {
+        return e.value ? ReportCell{estimateText(e, digits), *e.value, false} : ReportCell{"not computed", std::nullopt, false};
+    };
+    row("C statistic", [&](const DecisionSummaryModel& m) { return estimate(m.c, 3); });
+    row("Observed / expected", [&](const DecisionSummaryModel& m) { return estimate(m.oe, 2); });
+    row("Calibration-in-the-large", [&](const DecisionSummaryModel& m) { return estimate(m.calibrationInTheLarge, 2); });
+    row("Calibration slope", [&](const DecisionSummaryModel& m) { return estimate(m.calibrationSlope, 2); });
+    row("Scaled Brier score", [&](const DecisionSummaryModel& m) { return estimate(m.scaledBrier, 3); });
+    row("Mean predicted risk (event rate " + fixed(summary.eventRate, 3) + ")", [&](const DecisionSummaryModel& m) {
+        return m.risks ? ReportCell{fixed(m.meanRisk, 3), m.meanRisk, false} : textCell("not a risk");
+    });
+    row("Net benefit at " + fixed(threshold, 2) + " (treat all)", [&](const DecisionSummaryModel& m) {
+        return m.netBenefit ? ReportCell{fixed(*m.netBenefit, 4) + " (" + fixed(*m.netBenefitTreatAll, 4) + ")", *m.netBenefit, false}
+                            : textCell("not a risk");
+    });
+    table.note = "Net benefit counts patients with risk >= " + fixed(threshold, 2)
+        + " as flagged (the threshold the care team will act on); treating no one has net benefit 0.";
+    section.tables.push_back(table);
+    section.closing.push_back("Findings");
+    std::vector<std::string> told; // a warning already given as a finding is not repeated
+    for (const auto& finding : summary.findings) {
+        section.closing.push_back("- " + finding.text + " (" + finding.section + ")");
+        told.push_back(finding.text);
+    }
+    std::vector<std::string> others;
+    for (const auto* list : {&s.audit.warnings, &v.warnings})
+        for (const auto& w : *list)
+            if (std::find(told.begin(), told.end(), w) == told.end())
+                others.push_back("Warning: " + w);
+    section.closing.push_back(others.empty() ? "No other warning was raised (the cautions are in the box above)"
+                                             : "Every other warning of the run (the cautions are in the box above)");
+    section.closing.insert(section.closing.end(), others.begin(), others.end());
     return section;
 }
 
 ReportSection provenanceSection(const AnalysisSnapshot& s, std::size_t minimumCell)
 {
-    ReportSection section{"2. Data provenance", {}, {}, {}};
+    ReportSection section{"2. Data provenance", {}, {}, {}, {}, false};
     ReportTable inputs{"inputs", "Input files", {"Role", "File", "SHA-256", "Data rows"}, {}, {}};
     for (const auto& input : s.inputs)
         inputs.rows.push_back({textCell(input.role), textCell(std::filesystem::path(input.path).filename().string()),
@@ -130,7 +176,7 @@ ReportSection provenanceSection(const AnalysisSnapshot& s, std::size_t minimumCe
 ReportSection settingsSection(const AnalysisSnapshot& s, std::size_t minimumCell)
 {
     const AnalysisRequest& r = s.request;
-    ReportSection section{"3. Settings", {}, {}, {}};
+    ReportSection section{"3. Settings", {}, {}, {}, {}, false};
     ReportTable t{"settings", "Analysis settings", {"Setting", "Value"}, {}, {}};
     std::string thresholds;
     for (double x : r.panel.thresholds) {
@@ -164,7 +210,7 @@ ReportSection settingsSection(const AnalysisSnapshot& s, std::size_t minimumCell
 ReportSection resultsSection(const AnalysisSnapshot& s, std::size_t minimumCell)
 {
     const ValidationResult& v = s.validation;
-    ReportSection section{"4. Results", {}, {}, {ReportChart::Roc, ReportChart::Calibration}};
+    ReportSection section{"4. Results", {}, {}, {ReportChart::Roc, ReportChart::Calibration}, {}, false};
     section.tables.push_back(metricTable("discrimination", "Discrimination", v, {CStatistic, Auprc, DiscriminationSlope}));
     section.tables.push_back(metricTable("calibration", "Calibration", v,
                                          {CalibrationIntercept, CalibrationSlope, RecalibrationIntercept, OeRatio, Ici, E50, E90, Emax}));
@@ -222,7 +268,7 @@ ReportSection resultsSection(const AnalysisSnapshot& s, std::size_t minimumCell)
 ReportSection subgroupSection(const AnalysisSnapshot& s, std::size_t minimumCell)
 {
     const ValidationResult& v = s.validation;
-    ReportSection section{"6. Subgroups, sites and performance over time", {}, {}, {}};
+    ReportSection section{"6. Subgroups, sites and performance over time", {}, {}, {}, {}, false};
     if (!v.subgroups && !v.periods)
         section.paragraphs.push_back("Not part of this analysis (no subgroup or period column).");
     if (v.subgroups) {
@@ -276,7 +322,7 @@ ReportSection subgroupSection(const AnalysisSnapshot& s, std::size_t minimumCell
 
 ReportSection comparisonSection(const AnalysisSnapshot& s, std::size_t minimumCell)
 {
-    ReportSection section{"5. Comparisons and updating", {}, {}, {}};
+    ReportSection section{"5. Comparisons and updating", {}, {}, {}, {}, false};
     const ValidationResult& v = s.validation;
     if (v.comparisons.empty() && s.updates.empty()) {
         section.paragraphs.push_back("Not part of this analysis: one model, not updated.");
@@ -333,7 +379,7 @@ ReportSection comparisonSection(const AnalysisSnapshot& s, std::size_t minimumCe
 
 ReportSection methodsSection(const AnalysisSnapshot& s)
 {
-    ReportSection section{"7. Methods", {}, {}, {}};
+    ReportSection section{"7. Methods", {}, {}, {}, {}, false};
     for (std::string_view key : panelKeys) {
         const MetricDefinition d = metricDefinition(key);
         section.paragraphs.push_back(metricLabel(key) + ": " + std::string(d.definition) + " Source: " + std::string(d.source) + ".");
@@ -351,7 +397,7 @@ ReportSection methodsSection(const AnalysisSnapshot& s)
 
 ReportSection checklistSection(const AnalysisSnapshot& s)
 {
-    ReportSection section{"8. Reporting checklist (TRIPOD 2015 / TRIPOD+AI 2024, validation items)", {}, {}, {}};
+    ReportSection section{"8. Reporting checklist (TRIPOD 2015 / TRIPOD+AI 2024, validation items)", {}, {}, {}, {}, false};
     ReportTable t{"checklist", "Where this report covers the validation items", {"Topic", "TRIPOD 2015", "TRIPOD+AI 2024", "In this report"}, {}, {}};
     const bool compared = !s.validation.comparisons.empty();
     const bool updated = !s.updates.empty();
@@ -430,7 +476,7 @@ ReportDocument buildReport(const AnalysisSnapshot& s, const ReportFields& fields
     ReportDocument d;
     d.title = fields.title.empty() ? "Validation of a risk model on local data" : fields.title;
     d.subtitle = "Plumbline " + std::string(versionString) + " - " + createdUtc;
-    d.sections.push_back(scopeSection(s, fields, createdUtc));
+    d.sections.push_back(decisionSummarySection(s, fields, createdUtc));
     d.sections.push_back(provenanceSection(s, minimumCell));
     d.sections.push_back(settingsSection(s, minimumCell));
     d.sections.push_back(resultsSection(s, minimumCell));
@@ -438,7 +484,7 @@ ReportDocument buildReport(const AnalysisSnapshot& s, const ReportFields& fields
     d.sections.push_back(subgroupSection(s, minimumCell));
     d.sections.push_back(methodsSection(s));
     d.sections.push_back(checklistSection(s));
-    ReportSection warnings{"9. Warnings and cautions", {}, {}, {}};
+    ReportSection warnings{"9. Warnings and cautions", {}, {}, {}, {}, false};
     for (const auto& w : s.audit.warnings)
         warnings.paragraphs.push_back("Warning: " + w);
     for (const auto& w : s.validation.warnings)
@@ -448,7 +494,7 @@ ReportDocument buildReport(const AnalysisSnapshot& s, const ReportFields& fields
     warnings.paragraphs.push_back("Caution: this report shows aggregates only; counts below " + std::to_string(minimumCell)
                                   + " are suppressed. Keep patient-level files inside your organisation's controls.");
     d.sections.push_back(warnings);
-    ReportSection signOff{"10. Reviewer's notes and sign-off", {}, {}, {}};
+    ReportSection signOff{"10. Reviewer's notes and sign-off", {}, {}, {}, {}, false};
     signOff.paragraphs.push_back("Notes: " + (fields.notes.empty() ? std::string("(none)") : fields.notes));
     signOff.paragraphs.push_back("Reviewed by (name, role): ______________________________");
     signOff.paragraphs.push_back("Decision and conditions: ______________________________");

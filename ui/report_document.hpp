@@ -32,6 +32,8 @@ struct ReportSection {
     std::vector<std::string> paragraphs;
     std::vector<ReportTable> tables;
     std::vector<ReportChart> charts;
+    std::vector<std::string> closing; // paragraphs after the tables
+    bool pageBreakAfter = false;      // the next section starts a new page (printed formats)
 };
 
 // The whole report as content, in a reviewer's order; the PDF, HTML, spreadsheet and CSV

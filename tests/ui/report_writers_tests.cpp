@@ -1,6 +1,7 @@
 #include "analysis_snapshot.hpp"
 #include "report_writers.hpp"
 #include "result_json.hpp"
+#include "value_text.hpp"
 
 #include <QDir>
 #include <QFile>
@@ -135,6 +136,41 @@ private slots:
         }
         QVERIFY(content.contains(QStringLiteral("page 1")));
         QVERIFY(content.contains(QStringLiteral("Reviewed by")));
+    }
+
+    void pageOneIsADecisionSummaryWithTheKeyNumbersAndEveryWarning()
+    {
+        const SnapshotPointer snapshot = snapshotOf(300, 10); // few events: warnings to show
+        const ReportDocument document = buildReport(*snapshot, {}, 11, "2026-01-01T00:00:00Z");
+        ReportCharts charts(snapshot);
+        QTemporaryDir dir;
+        const QString path = dir.filePath(QStringLiteral("r.pdf"));
+        QVERIFY(writeReport(document, charts, path.toStdString()).has_value());
+        QProcess text;
+        text.start(QStringLiteral("pdftotext"), {QStringLiteral("-f"), QStringLiteral("1"), QStringLiteral("-l"), QStringLiteral("1"), path,
+                                                 QStringLiteral("-")});
+        QVERIFY(text.waitForFinished(30000));
+        QString page = QString::fromUtf8(text.readAllStandardOutput()).simplified();
+        page.replace(QChar(0xFB00), QStringLiteral("ff")).replace(QChar(0xFB01), QStringLiteral("fi")).replace(QChar(0xFB02), QStringLiteral("fl"));
+        QVERIFY2(page.contains(QStringLiteral("Decision summary")), qPrintable(page));
+        const ValidationResult& v = snapshot->validation;
+        const double rate = double(snapshot->cohort->events()) / double(snapshot->cohort->rows());
+        QVERIFY(page.contains(QStringLiteral("event rate %1 %").arg(rate * 100.0, 0, 'f', 1)));
+        for (const auto& model : v.models) {
+            auto shows = [&](PanelMetric k, int digits) {
+                const Estimate& e = model.metrics[k].estimate;
+                for (double x : {*e.value, *e.lower, *e.upper})
+                    QVERIFY2(page.contains(QString::fromStdString(fixedText(x, digits))), qPrintable(QString::fromStdString(model.name + " " + model.metrics[k].key)));
+            };
+            shows(CStatistic, 3);
+            shows(OeRatio, 2);
+            shows(CalibrationSlope, 2);
+        }
+        // Every warning, on page 1 (its first words: a long warning wraps).
+        for (const auto* list : {&snapshot->audit.warnings, &v.warnings})
+            for (const auto& warning : *list)
+                QVERIFY2(page.contains(QString::fromStdString(warning).simplified().left(40)), warning.c_str());
+        QVERIFY(!v.warnings.empty() || !snapshot->audit.warnings.empty());
     }
 
     void aFailedWriteLeavesNoPartialFile()
