@@ -60,6 +60,25 @@ QString pythonOutput(const QString& script, const QStringList& arguments)
     return QString::fromUtf8(python.readAllStandardOutput()).trimmed();
 }
 
+// The PDF's text (pdftotext with `options`), whitespace collapsed (a long title may wrap) and
+// typographic ligatures (the font draws "ff" as one glyph, which pdftotext reports as U+FB00)
+// spelled out; empty when the PDF could not be written or read.
+QString pdfText(const SnapshotPointer& snapshot, const ReportDocument& document, const QStringList& options)
+{
+    ReportCharts charts(snapshot);
+    QTemporaryDir dir;
+    const QString path = dir.filePath(QStringLiteral("r.pdf"));
+    if (!writeReport(document, charts, path.toStdString()).has_value())
+        return {};
+    QProcess text;
+    text.start(QStringLiteral("pdftotext"), options + QStringList{path, QStringLiteral("-")});
+    if (!text.waitForFinished(30000))
+        return {};
+    QString content = QString::fromUtf8(text.readAllStandardOutput()).simplified();
+    content.replace(QChar(0xFB00), QStringLiteral("ff")).replace(QChar(0xFB01), QStringLiteral("fi")).replace(QChar(0xFB02), QStringLiteral("fl"));
+    return content;
+}
+
 } // namespace
 
 class ReportWritersTests : public QObject {
@@ -116,17 +135,8 @@ private slots:
     {
         const SnapshotPointer snapshot = snapshotOf(600, 10);
         const ReportDocument document = buildReport(*snapshot, {}, 11, "2026-01-01T00:00:00Z");
-        ReportCharts charts(snapshot);
-        QTemporaryDir dir;
-        const QString path = dir.filePath(QStringLiteral("r.pdf"));
-        QVERIFY(writeReport(document, charts, path.toStdString()).has_value());
-        QProcess text;
-        text.start(QStringLiteral("pdftotext"), {QStringLiteral("-layout"), path, QStringLiteral("-")});
-        QVERIFY(text.waitForFinished(30000));
-        // Whitespace collapsed (a long title may wrap) and typographic ligatures (the font draws
-        // "ff" as one glyph, which pdftotext reports as U+FB00) spelled out.
-        QString content = QString::fromUtf8(text.readAllStandardOutput()).simplified();
-        content.replace(QChar(0xFB00), QStringLiteral("ff")).replace(QChar(0xFB01), QStringLiteral("fi")).replace(QChar(0xFB02), QStringLiteral("fl"));
+        const QString content = pdfText(snapshot, document, {QStringLiteral("-layout")});
+        QVERIFY(!content.isEmpty());
         for (const auto& section : document.sections)
             QVERIFY2(content.contains(QString::fromStdString(section.title).simplified()), section.title.c_str());
         for (const auto& model : snapshot->validation.models) {
@@ -142,16 +152,7 @@ private slots:
     {
         const SnapshotPointer snapshot = snapshotOf(300, 10); // few events: warnings to show
         const ReportDocument document = buildReport(*snapshot, {}, 11, "2026-01-01T00:00:00Z");
-        ReportCharts charts(snapshot);
-        QTemporaryDir dir;
-        const QString path = dir.filePath(QStringLiteral("r.pdf"));
-        QVERIFY(writeReport(document, charts, path.toStdString()).has_value());
-        QProcess text;
-        text.start(QStringLiteral("pdftotext"), {QStringLiteral("-f"), QStringLiteral("1"), QStringLiteral("-l"), QStringLiteral("1"), path,
-                                                 QStringLiteral("-")});
-        QVERIFY(text.waitForFinished(30000));
-        QString page = QString::fromUtf8(text.readAllStandardOutput()).simplified();
-        page.replace(QChar(0xFB00), QStringLiteral("ff")).replace(QChar(0xFB01), QStringLiteral("fi")).replace(QChar(0xFB02), QStringLiteral("fl"));
+        const QString page = pdfText(snapshot, document, {QStringLiteral("-f"), QStringLiteral("1"), QStringLiteral("-l"), QStringLiteral("1")});
         QVERIFY2(page.contains(QStringLiteral("Decision summary")), qPrintable(page));
         const ValidationResult& v = snapshot->validation;
         const double rate = double(snapshot->cohort->events()) / double(snapshot->cohort->rows());
