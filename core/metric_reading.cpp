@@ -84,6 +84,27 @@ std::string readOe(const Estimate& e)
 
 } // namespace
 
+std::string differenceLabel(std::string_view key)
+{
+    static const std::array<std::pair<std::string_view, std::string_view>, 11> labels{{
+        {"c_statistic_difference", "C statistic"},
+        {"brier_difference", "Brier score"},
+        {"calibration_slope_difference", "Calibration slope"},
+        {"ici_difference", "ICI"},
+        {"nri_events", "NRI, events part"},
+        {"nri_non_events", "NRI, non-events part"},
+        {"nri", "NRI at the cut-points"},
+        {"nri_continuous_events", "Category-free NRI, events"},
+        {"nri_continuous_non_events", "Category-free NRI, non-events"},
+        {"nri_continuous", "Category-free NRI"},
+        {"idi", "IDI"},
+    }};
+    for (const auto& [k, label] : labels)
+        if (k == key)
+            return std::string(label);
+    return std::string(key);
+}
+
 std::string metricLabel(std::string_view key)
 {
     static const std::array<std::pair<std::string_view, std::string_view>, 15> labels{{

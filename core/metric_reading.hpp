@@ -14,5 +14,8 @@ std::string metricReading(std::string_view key, const Estimate& estimate);
 
 // The metric's name for people ("Calibration slope").
 std::string metricLabel(std::string_view key);
+// The label of a difference between two models ("c_statistic_difference" → "C statistic");
+// the key itself when unknown.
+std::string differenceLabel(std::string_view key);
 
 } // namespace plumbline

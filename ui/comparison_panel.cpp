@@ -1,5 +1,7 @@
 #include "comparison_panel.hpp"
 
+#include "metric_reading.hpp"
+
 #include "model_comparison.hpp"
 #include "roc_chart_view.hpp"
 #include "value_text.hpp"
@@ -18,22 +20,7 @@ namespace {
 
 QString differenceName(const std::string& key)
 {
-    static const std::pair<const char*, const char*> names[] = {
-        {"c_statistic_difference", QT_TRANSLATE_NOOP("ComparisonPanel", "C statistic")},
-        {"brier_difference", QT_TRANSLATE_NOOP("ComparisonPanel", "Brier score")},
-        {"calibration_slope_difference", QT_TRANSLATE_NOOP("ComparisonPanel", "Calibration slope")},
-        {"ici_difference", QT_TRANSLATE_NOOP("ComparisonPanel", "ICI")},
-        {"nri_events", QT_TRANSLATE_NOOP("ComparisonPanel", "NRI, events part")},
-        {"nri_non_events", QT_TRANSLATE_NOOP("ComparisonPanel", "NRI, non-events part")},
-        {"nri", QT_TRANSLATE_NOOP("ComparisonPanel", "NRI at the cut-points")},
-        {"nri_continuous_events", QT_TRANSLATE_NOOP("ComparisonPanel", "Category-free NRI, events")},
-        {"nri_continuous_non_events", QT_TRANSLATE_NOOP("ComparisonPanel", "Category-free NRI, non-events")},
-        {"nri_continuous", QT_TRANSLATE_NOOP("ComparisonPanel", "Category-free NRI")},
-        {"idi", QT_TRANSLATE_NOOP("ComparisonPanel", "IDI")}};
-    for (const auto& [k, name] : names)
-        if (key == k)
-            return QCoreApplication::translate("ComparisonPanel", name);
-    return QString::fromStdString(key);
+    return QString::fromStdString(differenceLabel(key));
 }
 
 QString number(const std::optional<double>& v, int digits = 4)

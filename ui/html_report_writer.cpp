@@ -67,7 +67,7 @@ std::expected<void, InputError> writeHtmlReport(const ReportDocument& document, 
         for (ReportChart chart : section.charts)
             html += QStringLiteral("<div class=\"chart\">%1</div>").arg(inlineSvg(charts.svg(chart)));
         for (const auto& table : section.tables)
-            html += tableHtml(table);
+            html += tableHtml(printedRows(table));
         html += closingHtml(section.closing);
     }
     html += QStringLiteral("</body></html>\n");

@@ -162,9 +162,11 @@ std::expected<void, InputError> writePdfReport(const ReportDocument& document, R
             for (const auto& paragraph : section.paragraphs)
                 layout.html(QStringLiteral("<p>%1</p>").arg(escaped(paragraph)), 0.1);
             layout.charts(charts, section.charts);
-            for (const auto& table : section.tables)
+            for (const auto& whole : section.tables) {
+                const ReportTable table = printedRows(whole);
                 for (std::size_t from = 0; from < std::max<std::size_t>(table.rows.size(), 1); from += rowsPerBlock)
                     layout.html(tableHtml(table, from, std::min(table.rows.size(), from + rowsPerBlock)));
+            }
             if (!section.closing.empty())
                 layout.html(closingHtml(section.closing), 0.1);
             if (section.pageBreakAfter)

@@ -11,6 +11,7 @@
 #include "version.hpp"
 
 #include <algorithm>
+#include <cmath>
 #include <cstdio>
 #include <filesystem>
 
@@ -36,6 +37,15 @@ ReportCell textCell(std::string text)
     return {std::move(text), std::nullopt, false};
 }
 
+// A p-value as people read it ("< 0.001", "= 0.372"); the exact number stays for spreadsheets.
+ReportCell pCell(double p)
+{
+    std::string text = pValueText(p);
+    if (text.starts_with("p "))
+        text.erase(0, 2);
+    return {text, p, false};
+}
+
 // Counts below the small-cell threshold are suppressed (zero is not: it reveals nobody).
 ReportCell countCell(std::size_t count, std::size_t minimumCell)
 {
@@ -57,7 +67,7 @@ std::string intervalText(const Estimate& e, int digits)
 ReportTable metricTable(const std::string& id, const std::string& title, const ValidationResult& v,
                         std::initializer_list<PanelMetric> metrics)
 {
-    ReportTable t{id, title, {"Model", "Metric", "Estimate", "Interval", "Interval from", "Reading"}, {}, {}};
+    ReportTable t{id, title, {"Model", "Metric", "Estimate", "Interval", "Interval from", "Reading"}, {}, {}, {}};
     std::vector<std::pair<std::string, std::string>> notes; // why an interval other than the one asked for is reported: reason, metrics
     for (const auto& model : v.models)
         for (PanelMetric k : metrics) {
@@ -101,7 +111,7 @@ ReportSection decisionSummarySection(const AnalysisSnapshot& s, const ReportFiel
     std::vector<std::string> headers{"Measure"};
     for (const auto& m : summary.models)
         headers.push_back(m.name);
-    ReportTable table{"summary", "Key results (" + fixed(v.settings.confidence * 100.0, 0) + " % intervals)", headers, {}, {}};
+    ReportTable table{"summary", "Key results (" + fixed(v.settings.confidence * 100.0, 0) + " % intervals)", headers, {}, {}, {}};
     auto row = [&](const std::string& label, auto cell) {
         std::vector<ReportCell> cells{textCell(label)};
         for (const auto& m : summary.models)
@@ -146,7 +156,7 @@ ReportSection decisionSummarySection(const AnalysisSnapshot& s, const ReportFiel
 ReportSection provenanceSection(const AnalysisSnapshot& s, std::size_t minimumCell)
 {
     ReportSection section{"2. Data provenance", {}, {}, {}, {}, false};
-    ReportTable inputs{"inputs", "Input files", {"Role", "File", "SHA-256", "Data rows"}, {}, {}};
+    ReportTable inputs{"inputs", "Input files", {"Role", "File", "SHA-256", "Data rows"}, {}, {}, {}};
     for (const auto& input : s.inputs)
         inputs.rows.push_back({textCell(input.role), textCell(std::filesystem::path(input.path).filename().string()),
                                textCell(input.sha256), {std::to_string(input.rows), double(input.rows), false}});
@@ -157,7 +167,7 @@ ReportSection provenanceSection(const AnalysisSnapshot& s, std::size_t minimumCe
     section.paragraphs.push_back("Rows read " + std::to_string(a.rowsRead) + "; used " + std::to_string(a.rowsUsed) + " ("
                                  + std::to_string(a.events) + " with the event, " + std::to_string(a.nonEvents)
                                  + " without); excluded " + std::to_string(a.rowsExcluded()) + ".");
-    ReportTable exclusions{"exclusions", "Rows excluded, by reason", {"Reason", "Column", "Rows"}, {}, {}};
+    ReportTable exclusions{"exclusions", "Rows excluded, by reason", {"Reason", "Column", "Rows"}, {}, {}, {}};
     for (const auto& tally : a.exclusions)
         exclusions.rows.push_back({textCell(exclusionReasonText(tally.reason)), textCell(tally.column.empty() ? "-" : tally.column),
                                    countCell(tally.rows, minimumCell)});
@@ -177,7 +187,7 @@ ReportSection settingsSection(const AnalysisSnapshot& s, std::size_t minimumCell
 {
     const AnalysisRequest& r = s.request;
     ReportSection section{"3. Settings", {}, {}, {}, {}, false};
-    ReportTable t{"settings", "Analysis settings", {"Setting", "Value"}, {}, {}};
+    ReportTable t{"settings", "Analysis settings", {"Setting", "Value"}, {}, {}, {}};
     std::string thresholds;
     for (double x : r.panel.thresholds) {
         if (!thresholds.empty())
@@ -215,22 +225,22 @@ ReportSection resultsSection(const AnalysisSnapshot& s, std::size_t minimumCell)
     section.tables.push_back(metricTable("calibration", "Calibration", v,
                                          {CalibrationIntercept, CalibrationSlope, RecalibrationIntercept, OeRatio, Ici, E50, E90, Emax}));
     section.tables.push_back(metricTable("overall_accuracy", "Overall accuracy", v, {Brier, ScaledBrier, LogLoss, NagelkerkeR2}));
-    ReportTable tests{"calibration_tests", "Calibration tests", {"Model", "Test", "Statistic", "df", "p-value"}, {}, {}};
+    ReportTable tests{"calibration_tests", "Calibration tests", {"Model", "Test", "Statistic", "df", "p-value"}, {}, {}, {}};
     for (const auto& m : v.models) {
         if (m.hosmerLemeshow)
             tests.rows.push_back({textCell(m.name), textCell("Hosmer-Lemeshow (df = groups: external validation)"),
                                   numberCell(m.hosmerLemeshow->statistic, 2), {std::to_string(m.hosmerLemeshow->df), double(m.hosmerLemeshow->df), false},
-                                  numberCell(m.hosmerLemeshow->pValue, 4)});
+                                  pCell(m.hosmerLemeshow->pValue)});
         if (m.spiegelhalter)
             tests.rows.push_back({textCell(m.name), textCell("Spiegelhalter z"), numberCell(m.spiegelhalter->z, 3), textCell("-"),
-                                  numberCell(m.spiegelhalter->pValue, 4)});
+                                  pCell(m.spiegelhalter->pValue)});
         if (m.likelihoodRatio && m.likelihoodRatio->joint)
             tests.rows.push_back({textCell(m.name), textCell("Likelihood ratio: intercept 0 and slope 1"),
-                                  numberCell(m.likelihoodRatio->joint->statistic, 2), textCell("2"), numberCell(m.likelihoodRatio->joint->pValue, 4)});
+                                  numberCell(m.likelihoodRatio->joint->statistic, 2), textCell("2"), pCell(m.likelihoodRatio->joint->pValue)});
     }
     tests.note = "Large cohorts reject clinically unimportant miscalibration: read the risk-group table and the curve.";
     section.tables.push_back(tests);
-    ReportTable groups{"risk_groups", "Risk groups", {"Model", "Group", "Patients", "Events", "Expected", "Mean predicted", "Observed", "Interval"}, {}, {}};
+    ReportTable groups{"risk_groups", "Risk groups", {"Model", "Group", "Patients", "Events", "Expected", "Mean predicted", "Observed", "Interval"}, {}, {}, {}};
     for (const auto& m : v.models)
         for (const auto& g : m.riskGroups) {
             const bool small = g.n < minimumCell || g.events < minimumCell || g.n - g.events < minimumCell;
@@ -244,7 +254,7 @@ ReportSection resultsSection(const AnalysisSnapshot& s, std::size_t minimumCell)
     section.tables.push_back(groups);
     ReportTable thresholds{"thresholds", "Decision thresholds and net benefit (positive if risk >= threshold)",
                            {"Model", "Threshold", "TP", "FP", "TN", "FN", "Sensitivity", "Specificity", "PPV", "NPV", "Flagged",
-                            "Net benefit", "Treat all"}, {}, {}};
+                            "Net benefit", "Treat all"}, {}, {}, {}};
     for (const auto& m : v.models)
         for (const auto& t : m.thresholds)
             thresholds.rows.push_back({textCell(m.name), numberCell(t.threshold, 3), countCell(t.tp, minimumCell), countCell(t.fp, minimumCell),
@@ -253,14 +263,20 @@ ReportSection resultsSection(const AnalysisSnapshot& s, std::size_t minimumCell)
                                        numberCell(t.flagRate.value, 3), numberCell(t.netBenefit, 4), numberCell(t.netBenefitTreatAll, 4)});
     section.tables.push_back(thresholds);
     ReportTable decision{"net_benefit", "Decision curve: net benefit by threshold (treat none = 0)",
-                         {"Model", "Threshold", "Net benefit", "Interval", "Treat all", "Standardised", "Net reduction per 100"}, {}, {}};
+                         {"Model", "Threshold", "Net benefit", "Interval", "Treat all", "Standardised", "Net reduction per 100"}, {}, {}, {}};
     for (const auto& m : v.models)
-        for (const auto& p : m.decisionCurve)
+        for (const auto& p : m.decisionCurve) {
+            // A net reduction in interventions means something only where the model does some good.
             decision.rows.push_back({textCell(m.name), numberCell(p.threshold, 2), numberCell(p.netBenefit, 4),
                                      textCell(p.lower ? fixed(*p.lower, 4) + " to " + fixed(*p.upper, 4) : "-"), numberCell(p.treatAll, 4),
-                                     numberCell(p.standardized, 4), numberCell(p.netReductionPer100, 2)});
-    decision.note = "Net reduction in interventions per 100 patients against treating everyone (Vickers et al. 2008). Read only "
-                    "the thresholds the care team would use.";
+                                     numberCell(p.standardized, 4),
+                                     p.netBenefit > 0.0 ? numberCell(p.netReductionPer100, 2) : textCell("-")});
+            const double twentieths = p.threshold * 20.0;
+            decision.onlyInData.push_back(std::abs(twentieths - std::round(twentieths)) > 1e-9);
+        }
+    decision.note = "Net reduction in interventions per 100 patients against treating everyone (Vickers et al. 2008), shown where "
+                    "the model's net benefit is positive. Read only the thresholds the care team would use. Printed every 0.05; "
+                    "the workbook and CSV hold the whole grid.";
     section.tables.push_back(decision);
     return section;
 }
@@ -273,7 +289,7 @@ ReportSection subgroupSection(const AnalysisSnapshot& s, std::size_t minimumCell
         section.paragraphs.push_back("Not part of this analysis (no subgroup or period column).");
     if (v.subgroups) {
         ReportTable groups{"subgroups", "Performance within subgroups",
-                           {"Column", "Level", "Model", "Patients", "Events", "C statistic", "C interval", "O/E", "O/E interval", "Note"}, {}, {}};
+                           {"Column", "Level", "Model", "Patients", "Events", "C statistic", "C interval", "O/E", "O/E interval", "Note"}, {}, {}, {}};
         for (const auto& r : v.subgroups->results) {
             const Estimate& c = r.panel.metrics[CStatistic].estimate;
             const Estimate& oe = r.panel.metrics[OeRatio].estimate;
@@ -284,13 +300,13 @@ ReportSection subgroupSection(const AnalysisSnapshot& s, std::size_t minimumCell
         }
         groups.note = "Levels with fewer than " + std::to_string(minimumCell) + " patients, events or non-events are flagged and their estimates withheld.";
         section.tables.push_back(groups);
-        ReportTable het{"heterogeneity", "Do levels differ? Cochran's Q across levels", {"Column", "Model", "Metric", "Q", "df", "p-value"}, {}, {}};
+        ReportTable het{"heterogeneity", "Do levels differ? Cochran's Q across levels", {"Column", "Model", "Metric", "Q", "df", "p-value"}, {}, {}, {}};
         for (const auto& h : v.subgroups->heterogeneity)
             het.rows.push_back({textCell(h.column), textCell(h.model), textCell(metricLabel(h.metric)), numberCell(h.q, 2),
-                                {std::to_string(h.df), double(h.df), false}, h.df > 0 ? numberCell(h.pValue, 4) : textCell("-")});
+                                {std::to_string(h.df), double(h.df), false}, h.df > 0 ? pCell(h.pValue) : textCell("-")});
         section.tables.push_back(het);
         ReportTable funnel{"funnel", "Funnel: observed/expected by level against control limits (Spiegelhalter 2005)",
-                           {"Column", "Level", "Model", "Expected events", "O/E", "95 % limits", "99.8 % limits", "Signal"}, {}, {}};
+                           {"Column", "Level", "Model", "Expected events", "O/E", "95 % limits", "99.8 % limits", "Signal"}, {}, {}, {}};
         for (const auto& f : v.subgroups->funnel) {
             const bool out95 = f.oe < f.lower95 || f.oe > f.upper95, out998 = f.oe < f.lower998 || f.oe > f.upper998;
             funnel.rows.push_back({textCell(f.column), textCell(f.level), textCell(f.model), numberCell(f.expected, 1), numberCell(f.oe, 3),
@@ -302,7 +318,7 @@ ReportSection subgroupSection(const AnalysisSnapshot& s, std::size_t minimumCell
     }
     if (v.periods) {
         ReportTable periods{"periods", "Performance over time", {"Period", "Model", "Patients", "Events", "C statistic", "O/E", "O/E interval",
-                                                                 "Calibration-in-the-large", "Against the first year"}, {}, {}};
+                                                                 "Calibration-in-the-large", "Against the first year"}, {}, {}, {}};
         for (const auto& p : v.periods->results)
             periods.rows.push_back({textCell(p.period), textCell(p.model), countCell(p.n, minimumCell), countCell(p.events, minimumCell),
                                     numberCell(p.c.value, 3), numberCell(p.oe.value, 3), textCell(intervalText(p.oe, 3)),
@@ -310,7 +326,7 @@ ReportSection subgroupSection(const AnalysisSnapshot& s, std::size_t minimumCell
         periods.note = v.periods->note;
         section.tables.push_back(periods);
     }
-    ReportTable precision{"precision", "Precision achieved", {"Model", "Metric", "Interval width", "Common target", "Met"}, {}, {}};
+    ReportTable precision{"precision", "Precision achieved", {"Model", "Metric", "Interval width", "Common target", "Met"}, {}, {}, {}};
     for (const auto& p : v.precision)
         precision.rows.push_back({textCell(p.model), textCell(metricLabel(p.metric)), numberCell(p.width, 3), numberCell(p.target, 2),
                                   textCell(p.width <= p.target ? "yes" : "no")});
@@ -329,12 +345,12 @@ ReportSection comparisonSection(const AnalysisSnapshot& s, std::size_t minimumCe
         return section;
     }
     ReportTable differences{"comparisons", "Differences between models on the same patients (B - A)",
-                            {"Model A", "Model B", "Difference", "Estimate", "Interval", "Interval from", "p (test)"}, {}, {}};
+                            {"Model A", "Model B", "Difference", "Estimate", "Interval", "Interval from", "p-value"}, {}, {}, {}};
     for (const auto& c : v.comparisons) {
         auto add = [&](const std::string& label, const DifferenceEstimate& d) {
             differences.rows.push_back({textCell(c.modelA), textCell(c.modelB), textCell(label), numberCell(d.estimate.value, 4),
                                         textCell(intervalText(d.estimate, 4)), textCell(d.estimate.lower ? ciMethodLabel(d.estimate.ciMethod) : "-"),
-                                        d.pValue ? numberCell(*d.pValue, 4) : textCell("-")});
+                                        d.pValue ? pCell(*d.pValue) : textCell("-")});
             if (d.estimate.value && !d.intervalNote.empty())
                 differences.note += (differences.note.empty() ? "" : " ") + c.modelB + " - " + c.modelA + ", " + label + ": " + d.intervalNote + ".";
             else if (d.truncated)
@@ -342,11 +358,11 @@ ReportSection comparisonSection(const AnalysisSnapshot& s, std::size_t minimumCe
                                     + ": the Wald interval is cut at the quantity's range.";
         };
         for (const auto& d : c.differences)
-            add(d.key, d);
+            add(differenceLabel(d.key), d);
         for (std::size_t t = 0; t < c.netBenefitDifferences.size(); ++t)
-            add("net_benefit_difference at " + fixed(c.netBenefitThresholds[t], 3), c.netBenefitDifferences[t]);
+            add("Net benefit at " + fixed(c.netBenefitThresholds[t], 2), c.netBenefitDifferences[t]);
         ReportTable reclass{"reclassification", "Reclassification of " + c.modelB + " against " + c.modelA,
-                            {"Outcome", "Category under A", "Category under B", "Patients"}, {}, {}};
+                            {"Outcome", "Category under A", "Category under B", "Patients"}, {}, {}, {}};
         const auto& r = c.reclassification;
         auto category = [&](std::size_t k) {
             const std::string lo = k == 0 ? "0" : fixed(r.cutPoints[k - 1], 3);
@@ -366,7 +382,7 @@ ReportSection comparisonSection(const AnalysisSnapshot& s, std::size_t minimumCe
         section.tables.insert(section.tables.begin(), differences);
     if (!s.updates.empty()) {
         ReportTable updating{"updating", "Updating for the local population: apparent and optimism-corrected performance",
-                             {"Model", "Choice", "Formula", "Metric", "Apparent", "Optimism", "Corrected"}, {}, {}};
+                             {"Model", "Choice", "Formula", "Metric", "Apparent", "Optimism", "Corrected"}, {}, {}, {}};
         for (const auto& u : s.updates)
             for (const auto& row : u.optimism)
                 updating.rows.push_back({textCell(u.model), textCell(std::string(updateChoiceName(u.fit.choice))), textCell(u.fit.formula()),
@@ -398,7 +414,7 @@ ReportSection methodsSection(const AnalysisSnapshot& s)
 ReportSection checklistSection(const AnalysisSnapshot& s)
 {
     ReportSection section{"8. Reporting checklist (TRIPOD 2015 / TRIPOD+AI 2024, validation items)", {}, {}, {}, {}, false};
-    ReportTable t{"checklist", "Where this report covers the validation items", {"Topic", "TRIPOD 2015", "TRIPOD+AI 2024", "In this report"}, {}, {}};
+    ReportTable t{"checklist", "Where this report covers the validation items", {"Topic", "TRIPOD 2015", "TRIPOD+AI 2024", "In this report"}, {}, {}, {}};
     const bool compared = !s.validation.comparisons.empty();
     const bool updated = !s.updates.empty();
     const std::vector<std::array<std::string, 4>> items{{
@@ -502,6 +518,19 @@ ReportDocument buildReport(const AnalysisSnapshot& s, const ReportFields& fields
     d.sections.push_back(signOff);
     makeBidiControlsVisible(d);
     return d;
+}
+
+ReportTable printedRows(const ReportTable& table)
+{
+    if (table.onlyInData.empty())
+        return table;
+    ReportTable out = table;
+    out.rows.clear();
+    out.onlyInData.clear();
+    for (std::size_t r = 0; r < table.rows.size(); ++r)
+        if (r >= table.onlyInData.size() || !table.onlyInData[r])
+            out.rows.push_back(table.rows[r]);
+    return out;
 }
 
 std::string neutralisedForSpreadsheet(const std::string& text)

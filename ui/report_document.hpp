@@ -23,7 +23,13 @@ struct ReportTable {
     std::vector<std::string> headers;
     std::vector<std::vector<ReportCell>> rows;
     std::string note;
+    // Rows left out of the printed formats (PDF, HTML) but kept in the workbook and CSV, e.g. the
+    // decision curve's full grid; empty: every row is printed.
+    std::vector<bool> onlyInData;
 };
+
+// The table as the printed formats show it: without the rows marked `onlyInData`.
+ReportTable printedRows(const ReportTable& table);
 
 enum class ReportChart { Roc, Calibration };
 
