@@ -407,8 +407,8 @@ void applyBootstrap(ValidationResult& result, const BootstrapResult& bootstrap)
             entry.intervalNote = chosen.note;
             if (chosen.note.starts_with("no interval"))
                 result.warnings.push_back("Model '" + model.name + "': " + metricLabel(entry.key) + ": " + chosen.note + ".");
-            entry.reading = metricReading(entry.key, entry.estimate);
         }
+        readMetrics(model.metrics);
         if (evidence.sparse())
             result.warnings.push_back("Model '" + model.name + "': the cohort is small for the bootstrap (" + std::to_string(evidence.events)
                                       + " events, " + std::to_string(evidence.nonEvents) + " non-events, " + std::to_string(evidence.redrawn)

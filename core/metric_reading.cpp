@@ -30,6 +30,23 @@ std::string percentPoints(double value)
     return buffer;
 }
 
+// Verbal labels of discrimination (Hosmer & Lemeshow, Applied Logistic Regression, from memory,
+// for 0.7 and above; "poor" and "modest" below 0.7 are this project's words).
+std::string discriminationBand(double c)
+{
+    if (c < 0.6)
+        return "poor";
+    if (c < 0.7)
+        return "modest";
+    if (c < 0.8)
+        return "acceptable";
+    if (c < 0.9)
+        return "excellent";
+    return "outstanding";
+}
+
+// Judged on the interval, like the other readings: when its ends fall in different bands, the
+// reading names both ("acceptable to excellent").
 std::string readC(const Estimate& e)
 {
     const double c = *e.value;
@@ -37,16 +54,13 @@ std::string readC(const Estimate& e)
         return "not clearly better than chance (the interval includes 0.5)";
     if (c < 0.5)
         return "ranks patients in the wrong order more often than not";
-    // Verbal labels of Hosmer & Lemeshow, Applied Logistic Regression (from memory).
-    if (c < 0.6)
-        return "poor discrimination";
-    if (c < 0.7)
-        return "modest discrimination";
-    if (c < 0.8)
-        return "acceptable discrimination";
-    if (c < 0.9)
-        return "excellent discrimination";
-    return "outstanding discrimination; check for information from after the time of prediction";
+    std::string band = discriminationBand(c);
+    if (e.lower && e.upper && discriminationBand(*e.lower) != discriminationBand(*e.upper))
+        band = discriminationBand(std::max(0.5, *e.lower)) + " to " + discriminationBand(*e.upper);
+    std::string out = band + " discrimination";
+    if (c >= 0.9)
+        out += "; check for information from after the time of prediction";
+    return out;
 }
 
 std::string readIntercept(const Estimate& e)
@@ -60,11 +74,14 @@ std::string readIntercept(const Estimate& e)
     return {};
 }
 
+// How far from 1: below 0.8 or above 1.25 "clearly", otherwise "slightly" (common practice).
 std::string readSlope(const Estimate& e)
 {
+    const double slope = *e.value;
+    const std::string how = slope < 0.8 || slope > 1.25 ? "clearly" : "slightly";
     switch (sideOf(e, 1.0)) {
-    case Side::Below: return "predictions too extreme (high risks too high, low risks too low)";
-    case Side::Above: return "predictions too moderate (risks not spread out enough)";
+    case Side::Below: return "predictions " + how + " too extreme (high risks too high, low risks too low)";
+    case Side::Above: return "predictions " + how + " too moderate (risks not spread out enough)";
     case Side::Inside: return "spread of risks consistent with the outcomes";
     case Side::Unknown: return *e.value < 1 ? "predictions look too extreme" : "predictions look too moderate";
     }
@@ -128,6 +145,17 @@ std::string metricLabel(std::string_view key)
         if (k == key)
             return std::string(label);
     return std::string(key);
+}
+
+std::string overallAccuracyAgreementNote(const Estimate& scaledBrier, const Estimate& nagelkerkeR2)
+{
+    if (!scaledBrier.value || !nagelkerkeR2.value)
+        return {};
+    const Side brier = sideOf(scaledBrier, 0.0), r2 = sideOf(nagelkerkeR2, 0.0);
+    if (brier == r2 || brier == Side::Unknown || r2 == Side::Unknown)
+        return {};
+    return "; the scaled Brier score and Nagelkerke R2 read differently here because they weigh errors differently (squared "
+           "errors against the log-likelihood, which punishes confident wrong risks far more)";
 }
 
 std::string metricReading(std::string_view key, const Estimate& e)

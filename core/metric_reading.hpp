@@ -14,6 +14,11 @@ std::string metricReading(std::string_view key, const Estimate& estimate);
 
 // The metric's name for people ("Calibration slope").
 std::string metricLabel(std::string_view key);
+
+// Said after both readings when the scaled Brier score and Nagelkerke R2 disagree on whether the
+// model beats the observed rate (one interval above 0, the other not): why they can. Empty when
+// they agree.
+std::string overallAccuracyAgreementNote(const Estimate& scaledBrier, const Estimate& nagelkerkeR2);
 // The label of a difference between two models ("c_statistic_difference" → "C statistic");
 // the key itself when unknown.
 std::string differenceLabel(std::string_view key);

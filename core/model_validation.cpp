@@ -140,8 +140,7 @@ public:
 
     ModelValidation take()
     {
-        for (auto& entry : m_result.metrics)
-            entry.reading = metricReading(entry.key, entry.estimate);
+        readMetrics(m_result.metrics);
         return std::move(m_result);
     }
 
@@ -219,6 +218,17 @@ const Estimate* ModelValidation::metric(std::string_view key) const
         if (entry.key == key)
             return &entry.estimate;
     return nullptr;
+}
+
+void readMetrics(std::vector<MetricEntry>& metrics)
+{
+    for (auto& entry : metrics)
+        entry.reading = metricReading(entry.key, entry.estimate);
+    if (metrics.size() == PanelMetricCount) {
+        const std::string note = overallAccuracyAgreementNote(metrics[ScaledBrier].estimate, metrics[NagelkerkeR2].estimate);
+        metrics[ScaledBrier].reading += note;
+        metrics[NagelkerkeR2].reading += note;
+    }
 }
 
 ModelValidation validateModel(const std::vector<std::uint8_t>& outcome, const ModelScores& model, ScoreScale scale,

@@ -62,6 +62,10 @@ struct ModelValidation {
 // The metric panel for one model (discrimination, calibration, overall accuracy, thresholds),
 // with analytic intervals. A points-scale score gets discrimination only.
 // `sourceLines` (each row's line in the file, may be empty) lets warnings name patients.
+// Every metric's plain-words reading, from its reported interval, and the note that explains
+// two readings that seem to disagree (scaled Brier and Nagelkerke R2).
+void readMetrics(std::vector<MetricEntry>& metrics);
+
 ModelValidation validateModel(const std::vector<std::uint8_t>& outcome, const ModelScores& model, ScoreScale scale,
                               const PanelSettings& settings, std::span<const std::uint32_t> sourceLines = {});
 

@@ -67,7 +67,7 @@ expect 2 "strictly between 0 and 1" -- "$cli" validate "$sample" --outcome readm
 expect 2 "" -- "$cli" validate "$sample" --outcome readmitted_30d --score supplier_score --groups 1
 # The printed panel names its metrics, intervals and readings, and the cautions close it.
 out=$("$cli" validate "$sample" --outcome readmitted_30d --score supplier_score --bootstrap 0)
-for needle in "C statistic" "Calibration slope" "predictions too extreme" "positive if risk >= t" "Cautions:"; do
+for needle in "C statistic" "Calibration slope" "predictions clearly too extreme" "positive if risk >= t" "Cautions:"; do
   [[ $out == *"$needle"* ]] && echo "ok: table shows '$needle'" || { echo "FAIL: table lacks '$needle'"; failures=$((failures+1)); }
 done
 # Edge cases give nulls and warnings, never a crash or a NaN.
