@@ -393,9 +393,45 @@ ReportSection comparisonSection(const AnalysisSnapshot& s, std::size_t minimumCe
     return section;
 }
 
+// The usual limits of a retrospective validation on one organisation's records, each said for
+// this analysis where the run knows the numbers.
+ReportSection limitsSection(const AnalysisSnapshot& s, const ReportFields& f)
+{
+    ReportSection section{"7. What these data cannot show", {}, {}, {}, {}, false};
+    const IntakeAudit& a = s.audit;
+    std::size_t missingOutcome = 0, missingScore = 0;
+    for (const auto& tally : a.exclusions) {
+        if (tally.reason == ExclusionReason::MissingOutcome)
+            missingOutcome += tally.rows;
+        if (tally.reason == ExclusionReason::MissingScore || tally.reason == ExclusionReason::ScoreNotANumber
+            || tally.reason == ExclusionReason::ScoreNotFinite || tally.reason == ExclusionReason::ScoreOutOfRange)
+            missingScore += tally.rows;
+    }
+    const std::string outcome = f.outcome.empty() ? "the outcome" : "the outcome (" + f.outcome + ")";
+    section.paragraphs.push_back("Outcomes recorded elsewhere: " + outcome + " is known only as these records hold it; events "
+                                 "recorded by other organisations (a readmission to another hospital, say) are missing, so the "
+                                 "observed rate and O/E may be too low.");
+    section.paragraphs.push_back("Competing events: patients who died or moved before the outcome could occur are counted as "
+                                 "without the event; where such events are common, risks will look too high.");
+    section.paragraphs.push_back("Interventions triggered by the score: if the score was already in use, patients flagged at high "
+                                 "risk may have been treated and avoided the event, which makes the model look miscalibrated at "
+                                 "high risk and less discriminating than it is.");
+    section.paragraphs.push_back("Complete cases only: " + std::to_string(a.rowsExcluded()) + " of " + std::to_string(a.rowsRead)
+                                 + " rows were left out (" + std::to_string(missingOutcome) + " without an outcome, "
+                                 + std::to_string(missingScore) + " without a usable score, the rest for other reasons in section 2); "
+                                 "if those patients differ from the rest, the results may not hold for them.");
+    if (s.validation.periods && !s.validation.periods->results.empty())
+        section.paragraphs.push_back("Time: the results describe patients from " + s.validation.periods->results.front().period + " to "
+                                     + s.validation.periods->results.back().period + "; practice, coding and case mix change.");
+    section.paragraphs.push_back("No evidence of clinical impact: good discrimination, calibration and net benefit show that the "
+                                 "model could help at the stated threshold, not that using it improves care; that needs a study of "
+                                 "its use.");
+    return section;
+}
+
 ReportSection methodsSection(const AnalysisSnapshot& s)
 {
-    ReportSection section{"7. Methods", {}, {}, {}, {}, false};
+    ReportSection section{"8. Methods", {}, {}, {}, {}, false};
     for (std::string_view key : panelKeys) {
         const MetricDefinition d = metricDefinition(key);
         section.paragraphs.push_back(metricLabel(key) + ": " + std::string(d.definition) + " Source: " + std::string(d.source) + ".");
@@ -413,7 +449,7 @@ ReportSection methodsSection(const AnalysisSnapshot& s)
 
 ReportSection checklistSection(const AnalysisSnapshot& s)
 {
-    ReportSection section{"8. Reporting checklist (TRIPOD 2015 / TRIPOD+AI 2024, validation items)", {}, {}, {}, {}, false};
+    ReportSection section{"9. Reporting checklist (TRIPOD 2015 / TRIPOD+AI 2024, validation items)", {}, {}, {}, {}, false};
     ReportTable t{"checklist", "Where this report covers the validation items", {"Topic", "TRIPOD 2015", "TRIPOD+AI 2024", "In this report"}, {}, {}, {}};
     const bool compared = !s.validation.comparisons.empty();
     const bool updated = !s.updates.empty();
@@ -426,7 +462,7 @@ ReportSection checklistSection(const AnalysisSnapshot& s)
         {"Sample size", "8", "10", "Section 6: precision achieved; plan with plumbline-cli plan"},
         {"Missing data", "9", "11", "Section 2: missing outcome and scores excluded and counted"},
         {"How predictions were calculated", "10c", "12g, 22", "Section 3: score column and scale"},
-        {"Performance measures", "10d", "12e", "Sections 4 and 7"},
+        {"Performance measures", "10d", "12e", "Sections 4 and 8"},
         {"Model updating", "10e", "12f", updated ? "Section 5" : "Not done"},
         {"Risk groups, thresholds", "11", "15", "Section 4: risk groups and thresholds"},
         {"Differences from the development data", "12", "16", "NOT COVERED: compare with the development study"},
@@ -437,7 +473,7 @@ ReportSection checklistSection(const AnalysisSnapshot& s)
         {"Performance in subgroups, heterogeneity", "-", "23a, 23b", s.validation.subgroups ? "Section 6" : "NOT COVERED: no subgroup column given"},
         {"Updated model performance", "17", "24", updated ? "Section 5 (optimism-corrected)" : "Not done"},
         {"Comparison of models", "-", "-", compared ? "Section 5" : "One model"},
-        {"Limitations, interpretation", "18, 19", "25, 26", "Section 9 cautions; reviewer's notes"},
+        {"Limitations, interpretation", "18, 19", "25, 26", "Section 7 (what the data cannot show), section 10 cautions; reviewer's notes"},
         {"Fairness", "-", "14", s.validation.subgroups ? "Section 6 (performance by group)" : "NOT COVERED: no subgroup column given"},
         {"Code and settings for reproduction", "21", "18e, 18f", "Section 3; save the analysis file"},
     }};
@@ -498,9 +534,10 @@ ReportDocument buildReport(const AnalysisSnapshot& s, const ReportFields& fields
     d.sections.push_back(resultsSection(s, minimumCell));
     d.sections.push_back(comparisonSection(s, minimumCell));
     d.sections.push_back(subgroupSection(s, minimumCell));
+    d.sections.push_back(limitsSection(s, fields));
     d.sections.push_back(methodsSection(s));
     d.sections.push_back(checklistSection(s));
-    ReportSection warnings{"9. Warnings and cautions", {}, {}, {}, {}, false};
+    ReportSection warnings{"10. Warnings and cautions", {}, {}, {}, {}, false};
     for (const auto& w : s.audit.warnings)
         warnings.paragraphs.push_back("Warning: " + w);
     for (const auto& w : s.validation.warnings)
@@ -510,7 +547,7 @@ ReportDocument buildReport(const AnalysisSnapshot& s, const ReportFields& fields
     warnings.paragraphs.push_back("Caution: this report shows aggregates only; counts below " + std::to_string(minimumCell)
                                   + " are suppressed. Keep patient-level files inside your organisation's controls.");
     d.sections.push_back(warnings);
-    ReportSection signOff{"10. Reviewer's notes and sign-off", {}, {}, {}, {}, false};
+    ReportSection signOff{"11. Reviewer's notes and sign-off", {}, {}, {}, {}, false};
     signOff.paragraphs.push_back("Notes: " + (fields.notes.empty() ? std::string("(none)") : fields.notes));
     signOff.paragraphs.push_back("Reviewed by (name, role): ______________________________");
     signOff.paragraphs.push_back("Decision and conditions: ______________________________");

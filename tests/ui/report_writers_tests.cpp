@@ -174,6 +174,25 @@ private slots:
         QVERIFY(!v.warnings.empty() || !snapshot->audit.warnings.empty());
     }
 
+    void theLimitsSectionSaysWhatTheseDataCannotShowWithThisRunsNumbers()
+    {
+        const SnapshotPointer snapshot = snapshotOf(300, 10);
+        const ReportDocument document = buildReport(*snapshot, {}, 11, "2026-01-01T00:00:00Z");
+        const ReportSection* limits = nullptr;
+        for (const auto& section : document.sections)
+            if (section.title.find("What these data cannot show") != std::string::npos)
+                limits = &section;
+        QVERIFY(limits);
+        std::string text;
+        for (const auto& p : limits->paragraphs)
+            text += p + "\n";
+        for (const char* topic : {"Outcomes recorded elsewhere", "Competing events", "Interventions triggered by the score",
+                                  "Complete cases only", "No evidence of clinical impact"})
+            QVERIFY2(text.find(topic) != std::string::npos, topic);
+        const IntakeAudit& a = snapshot->audit;
+        QVERIFY(text.find(std::to_string(a.rowsExcluded()) + " of " + std::to_string(a.rowsRead) + " rows were left out") != std::string::npos);
+    }
+
     void aFailedWriteLeavesNoPartialFile()
     {
         const SnapshotPointer snapshot = snapshotOf(300, 10);
