@@ -70,7 +70,8 @@ SubgroupAnalysis analyseSubgroups(const Cohort& cohort, const PanelSettings& set
 {
     SubgroupAnalysis out;
     for (const CategoricalColumn& column : cohort.groups) {
-        std::vector<std::vector<std::pair<double, double>>> citl(cohort.models.size()), logitC(cohort.models.size());
+        std::vector<std::vector<std::pair<double, double>>> citl(cohort.models.size()), logitC(cohort.models.size()),
+            slope(cohort.models.size());
         // Levels in name order (age bands, sites), not in the order they first appear in the file.
         std::vector<std::uint32_t> codes(column.levels.size());
         std::iota(codes.begin(), codes.end(), 0u);
@@ -88,6 +89,9 @@ SubgroupAnalysis analyseSubgroups(const Cohort& cohort, const PanelSettings& set
                 const Estimate& a = panel.metrics[CalibrationIntercept].estimate;
                 if (a.value && a.se)
                     citl[m].emplace_back(*a.value, *a.se);
+                const Estimate& b = panel.metrics[CalibrationSlope].estimate;
+                if (b.value && b.se && *b.se > 0.0)
+                    slope[m].emplace_back(*b.value, *b.se);
                 const Estimate& c = panel.metrics[CStatistic].estimate;
                 if (c.value && c.se && *c.value > 0.0 && *c.value < 1.0)
                     logitC[m].emplace_back(std::log(*c.value / (1.0 - *c.value)), *c.se / (*c.value * (1.0 - *c.value)));
@@ -124,8 +128,10 @@ SubgroupAnalysis analyseSubgroups(const Cohort& cohort, const PanelSettings& set
             out.funnelLimits.push_back(std::move(limits));
         }
         for (std::size_t m = 0; m < cohort.models.size(); ++m) {
-            if (scaleIsProbabilistic(cohort.scale))
+            if (scaleIsProbabilistic(cohort.scale)) {
                 out.heterogeneity.push_back(cochranQ(column.name, cohort.models[m].name, "calibration_intercept", citl[m]));
+                out.heterogeneity.push_back(cochranQ(column.name, cohort.models[m].name, "calibration_slope", slope[m]));
+            }
             out.heterogeneity.push_back(cochranQ(column.name, cohort.models[m].name, "c_statistic", logitC[m]));
         }
     }

@@ -22,11 +22,11 @@ struct SubgroupResult {
 };
 
 // Cochran's Q for equal values across levels (inverse-variance weights; χ² with k−1 df): on the
-// calibration-in-the-large, and on the C statistic's logit.
+// calibration-in-the-large, the calibration slope (Wald SEs), and the C statistic's logit.
 struct HeterogeneityTest {
     std::string column;
     std::string model;
-    std::string metric;         // "calibration_intercept" or "c_statistic"
+    std::string metric;         // "calibration_intercept", "calibration_slope" or "c_statistic"
     double q = 0.0;
     int df = 0;
     double pValue = 1.0;

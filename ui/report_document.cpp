@@ -289,14 +289,19 @@ ReportSection subgroupSection(const AnalysisSnapshot& s, std::size_t minimumCell
         section.paragraphs.push_back("Not part of this analysis (no subgroup or period column).");
     if (v.subgroups) {
         ReportTable groups{"subgroups", "Performance within subgroups",
-                           {"Column", "Level", "Model", "Patients", "Events", "C statistic", "C interval", "O/E", "O/E interval", "Note"}, {}, {}, {}};
+                           {"Column", "Level", "Model", "Patients", "Events", "C statistic", "C interval", "O/E", "O/E interval",
+                            "Calibration slope", "Slope interval", "Scaled Brier", "Note"}, {}, {}, {}};
         for (const auto& r : v.subgroups->results) {
             const Estimate& c = r.panel.metrics[CStatistic].estimate;
             const Estimate& oe = r.panel.metrics[OeRatio].estimate;
+            const Estimate& slope = r.panel.metrics[CalibrationSlope].estimate;
+            const Estimate& brier = r.panel.metrics[ScaledBrier].estimate;
+            auto value = [&](const Estimate& e, int digits) { return numberCell(r.tooSmall ? std::nullopt : e.value, digits); };
+            auto interval = [&](const Estimate& e, int digits) { return textCell(r.tooSmall ? "-" : intervalText(e, digits)); };
             groups.rows.push_back({textCell(r.column), textCell(r.level), textCell(r.model), countCell(r.n, minimumCell),
-                                   countCell(r.events, minimumCell), numberCell(r.tooSmall ? std::nullopt : c.value, 3),
-                                   textCell(r.tooSmall ? "-" : intervalText(c, 3)), numberCell(r.tooSmall ? std::nullopt : oe.value, 3),
-                                   textCell(r.tooSmall ? "-" : intervalText(oe, 3)), textCell(r.tooSmall ? "too small to estimate (shown, not hidden)" : "")});
+                                   countCell(r.events, minimumCell), value(c, 3), interval(c, 3), value(oe, 3), interval(oe, 3),
+                                   value(slope, 2), interval(slope, 2), value(brier, 3),
+                                   textCell(r.tooSmall ? "too small to estimate (shown, not hidden)" : "")});
         }
         groups.note = "Levels with fewer than " + std::to_string(minimumCell) + " patients, events or non-events are flagged and their estimates withheld.";
         section.tables.push_back(groups);
@@ -324,6 +329,17 @@ ReportSection subgroupSection(const AnalysisSnapshot& s, std::size_t minimumCell
                                     numberCell(p.c.value, 3), numberCell(p.oe.value, 3), textCell(intervalText(p.oe, 3)),
                                     numberCell(p.calibrationIntercept.value, 3), textCell(p.outsideFirstYear ? "outside its interval" : "")});
         periods.note = v.periods->note;
+        // The values every later period is compared with, so a reader can check each flag.
+        ReportTable reference{"first_year", "First year's reference values (" + std::to_string(v.periods->firstYearPeriods.size())
+                                                + " periods), which later periods are compared with",
+                              {"Model", "C statistic", "C interval", "O/E", "O/E interval", "Calibration-in-the-large", "Interval"}, {}, {}, {}};
+        for (const auto& r : v.periods->firstYear)
+            reference.rows.push_back({textCell(r.model), numberCell(r.c.value, 3), textCell(intervalText(r.c, 3)), numberCell(r.oe.value, 3),
+                                      textCell(intervalText(r.oe, 3)), numberCell(r.calibrationIntercept.value, 3),
+                                      textCell(intervalText(r.calibrationIntercept, 3))});
+        reference.note = "A later period is flagged when the interval of its O/E or calibration-in-the-large does not overlap "
+                         "the first year's.";
+        section.tables.push_back(reference);
         section.tables.push_back(periods);
     }
     ReportTable precision{"precision", "Precision achieved", {"Model", "Metric", "Interval width", "Common target", "Met"}, {}, {}, {}};

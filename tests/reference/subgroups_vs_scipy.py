@@ -3,12 +3,13 @@
 Reference: Debian 12's numpy 1.24, scipy 1.10, statsmodels 0.13 and pandas 1.5 under
 /usr/bin/python3. plumbline-cli validates the bundled sample cohort by hospital and by age band;
 this script recomputes from the same rows, level by level:
-- calibration-in-the-large and its SE (statsmodels GLM, binomial, logit(p) as offset) and the C
-  statistic (scikit-learn roc_auc_score) of every level;
+- calibration-in-the-large and its SE (statsmodels GLM, binomial, logit(p) as offset), the
+  calibration slope and its SE (statsmodels Logit on logit(p)) and the C statistic (scikit-learn
+  roc_auc_score) of every level;
 - Cochran's Q, Q = sum w_i (x_i - x_w)^2 with w_i = 1/SE_i^2 and x_w the inverse-variance mean,
   and its p-value from chi-square with k - 1 df (Cochran 1954, Biometrics 10:101; the usual
   meta-analysis form, e.g. Borenstein et al. 2009, Introduction to Meta-Analysis, ch. 16), on the
-  calibration-in-the-large (SE from statsmodels) and on logit(C) (SE by the delta method from the
+  calibration-in-the-large and the calibration slope (SEs from statsmodels) and on logit(C) (SE by the delta method from the
   program's DeLong SE, which no general library computes);
 - the funnel plot's exact Poisson control limits for O/E (Spiegelhalter 2005, Stat Med 24:1185,
   appendix: the p-quantile r of Poisson(E) from scipy.stats.poisson.ppf, interpolated as
@@ -79,15 +80,19 @@ for row in result["subgroups"]:
     fit = sm.GLM(y, np.ones((len(y), 1)), family=sm.families.Binomial(), offset=np.log(p / (1 - p))).fit(tol=1e-12)
     close(f"{tag} calibration-in-the-large", m["calibration_intercept"]["estimate"], fit.params[0], FITTED)
     close(f"{tag} calibration-in-the-large SE", m["calibration_intercept"]["se"], fit.bse[0], FITTED)
+    slope = sm.Logit(y, sm.add_constant(np.log(p / (1 - p)))).fit(disp=0, tol=1e-12)
+    close(f"{tag} calibration slope", m["calibration_slope"]["estimate"], slope.params[1], FITTED)
+    close(f"{tag} calibration slope SE", m["calibration_slope"]["se"], slope.bse[1], FITTED)
     c = roc_auc_score(y, p)
     close(f"{tag} C", m["c_statistic"]["estimate"], c, EXACT)
     if not row["too_small"]:
         key = (row["column"], row["model"])
         per_level.setdefault((key, "calibration_intercept"), []).append((fit.params[0], fit.bse[0]))
+        per_level.setdefault((key, "calibration_slope"), []).append((slope.params[1], slope.bse[1]))
         per_level.setdefault((key, "c_statistic"), []).append(
             (np.log(c / (1 - c)), m["c_statistic"]["se"] / (c * (1 - c))))
 
-close("heterogeneity tests made", len(result["heterogeneity"]), 2 * len(columns) * len(scores), EXACT)
+close("heterogeneity tests made", len(result["heterogeneity"]), 3 * len(columns) * len(scores), EXACT)
 for h in result["heterogeneity"]:
     tag = f"{h['column']}/{h['model']}/{h['metric']}"
     estimates = per_level[((h["column"], h["model"]), h["metric"])]
