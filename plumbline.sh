@@ -5,6 +5,9 @@
 #   ./plumbline.sh bench   install what is missing, build, run the benchmark harness
 #   ./plumbline.sh sanitize   the core and CLI tests on an ASan + UBSan build (part of test)
 #   ./plumbline.sh fuzz [S]   the libFuzzer harnesses, S seconds each (part of test, 60 s)
+#   ./plumbline.sh mutants [--only ID,...] [--check]   mutation score of the tests (not part of
+#                  test): each mutation of tests/mutants/mutations.txt in a scratch copy
+#                  (build-mutants/), rebuilt and tested; result in build-mutants/mutants-result.txt
 # A second call is quick: installed packages are skipped and the build is incremental.
 set -euo pipefail
 cd "$(dirname "$(readlink -f "$0")")"
@@ -13,7 +16,7 @@ BUILD_PACKAGES=(g++ cmake ninja-build pkg-config libssl-dev
   qt6-base-dev qt6-charts-dev qt6-svg-dev libqt6opengl6-dev libgl-dev
   libeigen3-dev libboost-dev nlohmann-json3-dev libcli11-dev libxlsxwriter-dev catch2)
 # Reference libraries for the cross-check tests and the benchmark peers (Debian's, not pip's).
-TEST_PACKAGES=(python3 python3-pandas python3-sklearn python3-statsmodels python3-scipy python3-jsonschema dpkg-dev poppler-utils time)
+TEST_PACKAGES=(python3 python3-pandas python3-sklearn python3-statsmodels python3-scipy python3-jsonschema python3-openpyxl dpkg-dev poppler-utils time)
 # The fuzzing build needs clang with libFuzzer; clang 19 is the first of Debian 12's that
 # compiles libstdc++ 12's <expected>.
 CHECK_PACKAGES=(clang-19 libclang-rt-19-dev)
@@ -111,13 +114,18 @@ case "$cmd" in
     install_missing "${BUILD_PACKAGES[@]}" "${CHECK_PACKAGES[@]}"
     fuzz "${2:-60}"
     ;;
+  mutants)
+    install_missing "${BUILD_PACKAGES[@]}" "${TEST_PACKAGES[@]}"
+    shift
+    exec python3 tests/mutants/run_mutants.py "$@"
+    ;;
   bench)
     install_missing "${BUILD_PACKAGES[@]}" "${TEST_PACKAGES[@]}"
     build
     tests/benchmarks/run_benchmarks.sh build
     ;;
   *)
-    echo "usage: ./plumbline.sh run | test | bench | sanitize | fuzz [SECONDS]" >&2
+    echo "usage: ./plumbline.sh run | test | bench | sanitize | fuzz [SECONDS] | mutants [--only ID,...] [--check]" >&2
     exit 2
     ;;
 esac

@@ -45,14 +45,15 @@ std::expected<void, InputError> writeCsvTables(const ReportDocument& document, c
     const auto paths = csvTablePaths(document, folder);
     std::vector<OutputFile> files;
     for (std::size_t t = 0; t < tables.size(); ++t) {
+        const ReportTable table = dataColumns(*tables[t]);
         std::string csv;
-        for (std::size_t c = 0; c < tables[t]->headers.size(); ++c) {
+        for (std::size_t c = 0; c < table.headers.size(); ++c) {
             if (c > 0)
                 csv.push_back(',');
-            csv.append(csvField({tables[t]->headers[c], std::nullopt, false}));
+            csv.append(csvField({table.headers[c], std::nullopt, false}));
         }
         csv.push_back('\n');
-        for (const auto& row : tables[t]->rows) {
+        for (const auto& row : table.rows) {
             for (std::size_t c = 0; c < row.size(); ++c) {
                 if (c > 0)
                     csv.push_back(',');

@@ -59,9 +59,15 @@ int digitsFor(const std::string& key)
     return key == "ici" || key == "e50" || key == "e90" || key == "emax" || key == "brier" ? 4 : 3;
 }
 
-std::string intervalText(const Estimate& e, int digits)
+// "0.700 to 0.740" with its ends kept as numbers for the workbook and CSV.
+ReportCell rangeCell(double lower, double upper, int digits)
 {
-    return e.lower && e.upper ? fixed(*e.lower, digits) + " to " + fixed(*e.upper, digits) : "-";
+    return {fixed(lower, digits) + " to " + fixed(upper, digits), std::nullopt, false, std::pair{lower, upper}};
+}
+
+ReportCell intervalCell(const Estimate& e, int digits)
+{
+    return e.lower && e.upper ? rangeCell(*e.lower, *e.upper, digits) : ReportCell{"-"};
 }
 
 ReportTable metricTable(const std::string& id, const std::string& title, const ValidationResult& v,
@@ -74,7 +80,7 @@ ReportTable metricTable(const std::string& id, const std::string& title, const V
             const MetricEntry& e = model.metrics[k];
             const int digits = digitsFor(e.key);
             t.rows.push_back({textCell(model.name), textCell(metricLabel(e.key)), numberCell(e.estimate.value, digits),
-                              textCell(e.estimate.value ? intervalText(e.estimate, digits) : "-"),
+                              e.estimate.value ? intervalCell(e.estimate, digits) : textCell("-"),
                               textCell(e.estimate.lower ? ciMethodLabel(e.estimate.ciMethod) : "-"),
                               textCell(e.estimate.value ? e.reading : "not computed: see the warnings")});
             if (e.estimate.value && !e.intervalNote.empty()) {
@@ -119,7 +125,12 @@ ReportSection decisionSummarySection(const AnalysisSnapshot& s, const ReportFiel
         table.rows.push_back(cells);
     };
     auto estimate = [](const Estimate& e, int digits) {
-        return e.value ? ReportCell{estimateText(e, digits), *e.value, false} : ReportCell{"not computed", std::nullopt, false};
+        if (!e.value)
+            return ReportCell{"not computed"};
+        std::optional<std::pair<double, double>> interval;
+        if (e.lower && e.upper)
+            interval = std::pair{*e.lower, *e.upper};
+        return ReportCell{estimateText(e, digits), *e.value, false, interval};
     };
     row("C statistic", [&](const DecisionSummaryModel& m) { return estimate(m.c, 3); });
     row("Observed / expected", [&](const DecisionSummaryModel& m) { return estimate(m.oe, 2); });
@@ -247,7 +258,7 @@ ReportSection resultsSection(const AnalysisSnapshot& s, std::size_t minimumCell)
             groups.rows.push_back({textCell(m.name), {std::to_string(g.group), double(g.group), false}, countCell(g.n, minimumCell),
                                    countCell(g.events, minimumCell), numberCell(g.expected, 1), numberCell(g.meanPredicted, 4),
                                    small ? ReportCell{"suppressed", std::nullopt, true} : numberCell(g.observedRate, 4),
-                                   small ? ReportCell{"suppressed", std::nullopt, true} : textCell(fixed(g.ciLower, 4) + " to " + fixed(g.ciUpper, 4))});
+                                   small ? ReportCell{"suppressed", std::nullopt, true} : rangeCell(g.ciLower, g.ciUpper, 4)});
         }
     groups.note = "Groups of about equal size by predicted risk; equal risks are never split. Counts below "
         + std::to_string(minimumCell) + " (and proportions built on them) are suppressed.";
@@ -268,7 +279,7 @@ ReportSection resultsSection(const AnalysisSnapshot& s, std::size_t minimumCell)
         for (const auto& p : m.decisionCurve) {
             // A net reduction in interventions means something only where the model does some good.
             decision.rows.push_back({textCell(m.name), numberCell(p.threshold, 2), numberCell(p.netBenefit, 4),
-                                     textCell(p.lower ? fixed(*p.lower, 4) + " to " + fixed(*p.upper, 4) : "-"), numberCell(p.treatAll, 4),
+                                     p.lower ? rangeCell(*p.lower, *p.upper, 4) : textCell("-"), numberCell(p.treatAll, 4),
                                      numberCell(p.standardized, 4),
                                      p.netBenefit > 0.0 ? numberCell(p.netReductionPer100, 2) : textCell("-")});
             const double twentieths = p.threshold * 20.0;
@@ -297,7 +308,7 @@ ReportSection subgroupSection(const AnalysisSnapshot& s, std::size_t minimumCell
             const Estimate& slope = r.panel.metrics[CalibrationSlope].estimate;
             const Estimate& brier = r.panel.metrics[ScaledBrier].estimate;
             auto value = [&](const Estimate& e, int digits) { return numberCell(r.tooSmall ? std::nullopt : e.value, digits); };
-            auto interval = [&](const Estimate& e, int digits) { return textCell(r.tooSmall ? "-" : intervalText(e, digits)); };
+            auto interval = [&](const Estimate& e, int digits) { return r.tooSmall ? textCell("-") : intervalCell(e, digits); };
             groups.rows.push_back({textCell(r.column), textCell(r.level), textCell(r.model), countCell(r.n, minimumCell),
                                    countCell(r.events, minimumCell), value(c, 3), interval(c, 3), value(oe, 3), interval(oe, 3),
                                    value(slope, 2), interval(slope, 2), value(brier, 3),
@@ -315,8 +326,8 @@ ReportSection subgroupSection(const AnalysisSnapshot& s, std::size_t minimumCell
         for (const auto& f : v.subgroups->funnel) {
             const bool out95 = f.oe < f.lower95 || f.oe > f.upper95, out998 = f.oe < f.lower998 || f.oe > f.upper998;
             funnel.rows.push_back({textCell(f.column), textCell(f.level), textCell(f.model), numberCell(f.expected, 1), numberCell(f.oe, 3),
-                                   textCell(fixed(f.lower95, 3) + " to " + fixed(f.upper95, 3)),
-                                   textCell(fixed(f.lower998, 3) + " to " + fixed(f.upper998, 3)),
+                                   rangeCell(f.lower95, f.upper95, 3),
+                                   rangeCell(f.lower998, f.upper998, 3),
                                    textCell(out998 ? "outside 99.8 %" : out95 ? "outside 95 %" : "within")});
         }
         section.tables.push_back(funnel);
@@ -326,7 +337,7 @@ ReportSection subgroupSection(const AnalysisSnapshot& s, std::size_t minimumCell
                                                                  "Calibration-in-the-large", "Against the first year"}, {}, {}, {}};
         for (const auto& p : v.periods->results)
             periods.rows.push_back({textCell(p.period), textCell(p.model), countCell(p.n, minimumCell), countCell(p.events, minimumCell),
-                                    numberCell(p.c.value, 3), numberCell(p.oe.value, 3), textCell(intervalText(p.oe, 3)),
+                                    numberCell(p.c.value, 3), numberCell(p.oe.value, 3), intervalCell(p.oe, 3),
                                     numberCell(p.calibrationIntercept.value, 3), textCell(p.outsideFirstYear ? "outside its interval" : "")});
         periods.note = v.periods->note;
         // The values every later period is compared with, so a reader can check each flag.
@@ -334,9 +345,9 @@ ReportSection subgroupSection(const AnalysisSnapshot& s, std::size_t minimumCell
                                                 + " periods), which later periods are compared with",
                               {"Model", "C statistic", "C interval", "O/E", "O/E interval", "Calibration-in-the-large", "Interval"}, {}, {}, {}};
         for (const auto& r : v.periods->firstYear)
-            reference.rows.push_back({textCell(r.model), numberCell(r.c.value, 3), textCell(intervalText(r.c, 3)), numberCell(r.oe.value, 3),
-                                      textCell(intervalText(r.oe, 3)), numberCell(r.calibrationIntercept.value, 3),
-                                      textCell(intervalText(r.calibrationIntercept, 3))});
+            reference.rows.push_back({textCell(r.model), numberCell(r.c.value, 3), intervalCell(r.c, 3), numberCell(r.oe.value, 3),
+                                      intervalCell(r.oe, 3), numberCell(r.calibrationIntercept.value, 3),
+                                      intervalCell(r.calibrationIntercept, 3)});
         reference.note = "A later period is flagged when the interval of its O/E or calibration-in-the-large does not overlap "
                          "the first year's.";
         section.tables.push_back(reference);
@@ -365,7 +376,7 @@ ReportSection comparisonSection(const AnalysisSnapshot& s, std::size_t minimumCe
     for (const auto& c : v.comparisons) {
         auto add = [&](const std::string& label, const DifferenceEstimate& d) {
             differences.rows.push_back({textCell(c.modelA), textCell(c.modelB), textCell(label), numberCell(d.estimate.value, 4),
-                                        textCell(intervalText(d.estimate, 4)), textCell(d.estimate.lower ? ciMethodLabel(d.estimate.ciMethod) : "-"),
+                                        intervalCell(d.estimate, 4), textCell(d.estimate.lower ? ciMethodLabel(d.estimate.ciMethod) : "-"),
                                         d.pValue ? pCell(*d.pValue) : textCell("-")});
             if (d.estimate.value && !d.intervalNote.empty())
                 differences.note += (differences.note.empty() ? "" : " ") + c.modelB + " - " + c.modelA + ", " + label + ": " + d.intervalNote + ".";
@@ -583,6 +594,59 @@ ReportTable printedRows(const ReportTable& table)
     for (std::size_t r = 0; r < table.rows.size(); ++r)
         if (r >= table.onlyInData.size() || !table.onlyInData[r])
             out.rows.push_back(table.rows[r]);
+    return out;
+}
+
+ReportTable dataColumns(const ReportTable& table)
+{
+    const std::size_t columns = table.headers.size();
+    std::vector<bool> hasInterval(columns, false), hasEstimate(columns, false);
+    for (const auto& row : table.rows)
+        for (std::size_t c = 0; c < row.size() && c < columns; ++c) {
+            hasInterval[c] = hasInterval[c] || row[c].interval.has_value();
+            hasEstimate[c] = hasEstimate[c] || row[c].number.has_value();
+        }
+    ReportTable out = table;
+    out.headers.clear();
+    out.rows.assign(table.rows.size(), {});
+    out.onlyInData.clear();
+    for (std::size_t c = 0; c < columns; ++c) {
+        const bool keep = !hasInterval[c] || hasEstimate[c];
+        // A column of intervals alone is named for what it bounds ("Interval lower").
+        if (keep)
+            out.headers.push_back(table.headers[c]);
+        if (hasInterval[c]) {
+            out.headers.push_back(table.headers[c] + " lower");
+            out.headers.push_back(table.headers[c] + " upper");
+        }
+        for (std::size_t r = 0; r < table.rows.size(); ++r) {
+            const ReportCell cell = c < table.rows[r].size() ? table.rows[r][c] : ReportCell{};
+            auto& row = out.rows[r];
+            if (keep) {
+                ReportCell data = cell;
+                data.interval.reset();
+                if (data.number && !data.suppressed) {
+                    char buffer[32];
+                    std::snprintf(buffer, sizeof buffer, "%.10g", *data.number);
+                    // A number shown in words ("< 0.001", "0.72 (0.70 to 0.74)") is written as itself.
+                    if (data.text.find_first_not_of("-0123456789.") != std::string::npos)
+                        data.text = buffer;
+                }
+                if (!data.number && data.text == "-")
+                    data.text.clear();
+                row.push_back(data);
+            }
+            if (hasInterval[c]) {
+                if (cell.interval) {
+                    row.push_back({fixed(cell.interval->first, 6), cell.interval->first});
+                    row.push_back({fixed(cell.interval->second, 6), cell.interval->second});
+                } else {
+                    row.push_back({});
+                    row.push_back({});
+                }
+            }
+        }
+    }
     return out;
 }
 

@@ -4,6 +4,7 @@
 #include "analysis_snapshot.hpp"
 
 #include <optional>
+#include <utility>
 #include <string>
 #include <vector>
 
@@ -15,6 +16,15 @@ struct ReportCell {
     std::string text;
     std::optional<double> number;
     bool suppressed = false;
+    // An interval's ends as numbers: the printed formats show `text` ("0.70 to 0.74"), the
+    // workbook and CSV two numeric columns.
+    std::optional<std::pair<double, double>> interval;
+
+    ReportCell(std::string shown = {}, std::optional<double> value = std::nullopt, bool withheld = false,
+               std::optional<std::pair<double, double>> ends = std::nullopt)
+        : text(std::move(shown)), number(value), suppressed(withheld), interval(ends)
+    {
+    }
 };
 
 struct ReportTable {
@@ -30,6 +40,12 @@ struct ReportTable {
 
 // The table as the printed formats show it: without the rows marked `onlyInData`.
 ReportTable printedRows(const ReportTable& table);
+
+// The table as the workbook and CSV hold it, for analysts: every interval as two numeric columns
+// ("… lower", "… upper") after its column (which keeps the estimate, or goes when it held only the
+// interval), p-values and other numbers shown in words as their numbers, and "-" placeholders
+// empty.
+ReportTable dataColumns(const ReportTable& table);
 
 enum class ReportChart { Roc, Calibration };
 
