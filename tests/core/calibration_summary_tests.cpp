@@ -205,3 +205,17 @@ TEST_CASE("Threshold metrics match the Gen-1000 check values", "[thresholds]")
     CHECK(rows[2].fp == 259);
     CHECK_THAT(rows[2].netBenefitTreatAll, WithinAbs(-0.001429, 5e-7));
 }
+
+TEST_CASE("The exact Poisson O/E interval is used below 10 events and the log-normal one from 10", "[calibration]")
+{
+    // The cut-off: fewer than 10 observed events (common practice; docs/methods.md §8).
+    auto methodWith = [](int events) {
+        std::vector<std::uint8_t> y(100, 0);
+        for (int i = 0; i < events; ++i)
+            y[std::size_t(i)] = 1;
+        const std::vector<double> p(100, 0.1);
+        return observedExpectedRatio(y, p, 0.95).ciMethod;
+    };
+    CHECK(methodWith(9) == CiMethod::ExactPoisson);
+    CHECK(methodWith(10) == CiMethod::LogNormal);
+}

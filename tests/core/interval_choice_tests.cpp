@@ -217,3 +217,14 @@ TEST_CASE("Every documented test key is present and null when it cannot be compu
     for (const char* key : {"nri", "nri_events", "idi", "ici_difference"})
         CHECK(comparisons.at(0).at("metrics").contains(key));
 }
+
+TEST_CASE("The bootstrap counts as unreliable when either class is small or too many draws were redrawn", "[bootstrap][intervals]")
+{
+    // The rule's edges (IntervalRule: 20 of each class, 1 % of draws redrawn; common practice).
+    CHECK(BootstrapEvidence{1, 39, 0, 1000}.sparse());
+    CHECK(BootstrapEvidence{39, 1, 0, 1000}.sparse());
+    CHECK(BootstrapEvidence{19, 500, 0, 1000}.sparse());
+    CHECK_FALSE(BootstrapEvidence{20, 20, 0, 1000}.sparse());
+    CHECK_FALSE(BootstrapEvidence{100, 100, 10, 1000}.sparse());
+    CHECK(BootstrapEvidence{100, 100, 11, 1000}.sparse());
+}

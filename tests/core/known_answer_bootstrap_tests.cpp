@@ -328,3 +328,50 @@ TEST_CASE("Grouped jackknife accelerations of the loess metrics equal a brute-fo
     }
     CHECK(someSkewed); // a sign error would show: at least one acceleration is far from 0
 }
+
+TEST_CASE("Draws that lack a class are redrawn from the same stream and counted", "[bootstrap][known-answer]")
+{
+    // Four patients, three with the event: a draw of four rows has no non-event with probability
+    // (3/4)^4 = 0.32, so about a third of the draws must be redrawn. The engine's Brier replicates
+    // and its redraw count equal those of the protocol written out here.
+    Cohort cohort;
+    cohort.outcome = {1, 1, 1, 0};
+    cohort.models.push_back({"model", {0.9, 0.6, 0.3, 0.2}});
+    const ValidationResult full = runValidation(cohort, PanelSettings{});
+    BootstrapSettings settings;
+    settings.replicates = 300;
+    settings.seed = 5;
+    settings.smoothedCurve = false;
+    const auto engine = runBootstrap(cohort, full, settings, {}, {});
+    REQUIRE(engine);
+    std::size_t redrawn = 0;
+    std::vector<double> brier;
+    for (std::size_t r = 0; r < settings.replicates; ++r) {
+        RandomStream random(settings.seed, r + 1);
+        for (;;) {
+            std::vector<std::size_t> rows;
+            std::size_t events = 0;
+            for (std::size_t k = 0; k < 4; ++k) {
+                rows.push_back(random.below(4));
+                events += cohort.outcome[rows.back()];
+            }
+            if (events > 0 && events < 4) {
+                double squares = 0.0;
+                for (std::size_t row : rows)
+                    squares += std::pow(cohort.models[0].values[row] - cohort.outcome[row], 2.0);
+                brier.push_back(squares / 4.0);
+                break;
+            }
+            ++redrawn;
+        }
+    }
+    CHECK(redrawn > 50);
+    CHECK(engine->redrawn == redrawn);
+    REQUIRE(engine->models[0].metrics[Brier]);
+    CHECK_THAT(engine->models[0].metrics[Brier]->se, WithinRel(sampleSd(brier), 1e-9));
+    // The ROC band is read at false-positive rates 0, 0.01, ..., 1 (BootstrapSettings::rocBandPoints).
+    const CurveBand& band = engine->models[0].rocBand;
+    REQUIRE(band.x.size() == 101);
+    for (std::size_t j = 0; j < band.x.size(); ++j)
+        CHECK_THAT(band.x[j], WithinAbs(double(j) / 100.0, 1e-15));
+}
