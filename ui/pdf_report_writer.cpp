@@ -9,6 +9,7 @@
 #include <QPainter>
 #include <QPdfWriter>
 #include <QTextDocument>
+#include <QTextOption>
 
 namespace plumbline {
 
@@ -44,8 +45,20 @@ public:
         document.documentLayout()->setPaintDevice(&m_writer);
         document.setDefaultFont(QFont(QStringLiteral("DejaVu Sans"), 9));
         document.setDefaultStyleSheet(QStringLiteral("table{border-collapse:collapse} th{background:#eeeeee}"));
+        // Wrap only at spaces: "supplier_score" or "0.574" never breaks mid-token (a column then
+        // grows to its longest word instead).
+        QTextOption wrapAtSpaces;
+        wrapAtSpaces.setWrapMode(QTextOption::WordWrap);
+        document.setDefaultTextOption(wrapAtSpaces);
         document.setHtml(html);
         document.setTextWidth(m_area.width());
+        // A wide table whose words do not fit at 9 pt is set smaller, down to 6 pt, rather than
+        // broken mid-word or run off the page.
+        for (int points = 8; points >= 6 && document.idealWidth() > m_area.width(); --points) {
+            document.setDefaultFont(QFont(QStringLiteral("DejaVu Sans"), points));
+            document.setHtml(html);
+            document.setTextWidth(m_area.width());
+        }
         const double height = document.size().height();
         fit(height);
         m_painter.save();

@@ -189,6 +189,24 @@ private slots:
         QVERIFY(!v.warnings.empty() || !snapshot->audit.warnings.empty());
     }
 
+    void longNamesNeverBreakMidWordInThePdf()
+    {
+        // A long column (model) name in every table, the widest ones included.
+        SnapshotPointer base = snapshotOf(300, 10);
+        auto snapshot = std::make_shared<AnalysisSnapshot>(*base);
+        const std::string longName = "readmission_score_version_2024_recalibrated";
+        snapshot->validation.models.at(0).name = longName;
+        const ReportDocument document = buildReport(*snapshot, {}, 11, "2026-01-01T00:00:00Z");
+        const QString content = pdfText(snapshot, document, {});
+        QVERIFY(!content.isEmpty());
+        // Every occurrence is whole (a chart legend may elide it with "...", never break it): as
+        // many as the word appears, no piece of it on its own.
+        const QString name = QString::fromStdString(longName);
+        QVERIFY(content.count(name) >= 5);
+        const qsizetype elided = content.count(QRegularExpression(QStringLiteral("readmission_score_version\\S*\\.\\.\\.")));
+        QCOMPARE(content.count(QStringLiteral("readmission_score_version")) - elided, content.count(name));
+    }
+
     void theLimitsSectionSaysWhatTheseDataCannotShowWithThisRunsNumbers()
     {
         const SnapshotPointer snapshot = snapshotOf(300, 10);
