@@ -57,7 +57,8 @@ std::expected<void, InputError> writeHtmlReport(const ReportDocument& document, 
     // Well-formed XHTML-style markup: every element closed, every text escaped.
     QString html = QStringLiteral("<!DOCTYPE html>\n<html lang=\"en\"><head><meta charset=\"utf-8\"/><title>%1</title><style>%2</style></head><body>")
                        .arg(escaped(document.title), QString::fromLatin1(style));
-    html += QStringLiteral("<h1>%1</h1><p class=\"subtitle\">%2</p>").arg(escaped(document.title), escaped(document.subtitle));
+    html += QStringLiteral("<h1>%1</h1><p class=\"subtitle\">%2<br/>Document %3</p>")
+                .arg(escaped(document.title), escaped(document.subtitle), escaped(document.documentId));
     html += QStringLiteral("<p class=\"caution\">A validation supports, and does not replace, clinical and governance review; "
                            "results depend on local data quality and outcome definitions; follow local policy and regulation.</p>");
     for (const auto& section : document.sections) {

@@ -24,13 +24,19 @@ QString escaped(const std::string& text)
 // carries its number and the short caution in the footer.
 class PdfLayout {
 public:
-    PdfLayout(QPdfWriter& writer, QPainter& painter)
+    // `totalPages` is 0 on the first (measuring) pass; `header` runs along the top of every page
+    // after the first.
+    PdfLayout(QPdfWriter& writer, QPainter& painter, int totalPages, QString header)
         : m_writer(writer)
         , m_painter(painter)
-        , m_area(QRectF(QPointF(0, 0), QSizeF(writer.width(), writer.height())).adjusted(0, 0, 0, -footerHeight()))
+        , m_area(QRectF(QPointF(0, 0), QSizeF(writer.width(), writer.height())).adjusted(0, headerHeight(), 0, -footerHeight()))
+        , m_total(totalPages)
+        , m_header(std::move(header))
     {
         m_y = m_area.top();
     }
+
+    int page() const { return m_page + 1; }
 
     // A heading never ends a page: it needs room for itself and a fair part of what follows.
     void heading(const QString& html)
@@ -97,6 +103,7 @@ public:
 private:
     double lineHeight() const { return m_writer.resolution() * 0.17; }
     double footerHeight() const { return m_writer.resolution() * 0.45; }
+    double headerHeight() const { return m_writer.resolution() * 0.3; }
 
     void fit(double height)
     {
@@ -117,7 +124,11 @@ private:
         const QRectF box(0, m_writer.height() - footerHeight() * 0.8, m_writer.width(), footerHeight() * 0.8);
         m_painter.drawText(box, Qt::AlignLeft | Qt::AlignVCenter | Qt::TextWordWrap,
                            QStringLiteral("Supports, does not replace, clinical and governance review. Aggregates only."));
-        m_painter.drawText(box, Qt::AlignRight | Qt::AlignVCenter, QStringLiteral("page %1").arg(++m_page));
+        ++m_page;
+        m_painter.drawText(box, Qt::AlignRight | Qt::AlignVCenter,
+                           m_total > 0 ? QStringLiteral("page %1 of %2").arg(m_page).arg(m_total) : QStringLiteral("page %1 of 00").arg(m_page));
+        if (m_page > 1) // the running header: which document this page belongs to
+            m_painter.drawText(QRectF(0, 0, m_writer.width(), headerHeight() * 0.7), Qt::AlignLeft | Qt::AlignVCenter, m_header);
         m_painter.restore();
     }
 
@@ -126,6 +137,8 @@ private:
     QRectF m_area;
     double m_y = 0;
     int m_page = 0;
+    int m_total = 0;
+    QString m_header;
 };
 
 QString tableHtml(const ReportTable& table, std::size_t from, std::size_t to)
@@ -151,41 +164,86 @@ QString tableHtml(const ReportTable& table, std::size_t from, std::size_t to)
 
 } // namespace
 
+namespace {
+
+// Lays the whole report out on `writer`. `sectionPages` (the page each section starts on) and
+// `totalPages` come from a first pass; on that pass they are empty and 0, and the contents list
+// and footers take the same room with placeholder numbers, so both passes break pages alike.
+void layOut(QPdfWriter& writer, const ReportDocument& document, ReportCharts& charts, const std::vector<int>& sectionPages,
+            int totalPages, std::vector<int>& startsOut, int& pagesOut)
+{
+    QPainter painter(&writer);
+    PdfLayout layout(writer, painter, totalPages, QString::fromStdString(document.title) + QStringLiteral(" - document ")
+                                                      + QString::fromStdString(document.documentId));
+    layout.html(QStringLiteral("<h1>%1</h1><p>%2<br/>Document %3</p><p style=\"background:#fff4d6\"><b>Caution:</b> a validation supports, "
+                               "and does not replace, clinical and governance review; results depend on local data quality and outcome "
+                               "definitions; follow local policy and regulation.</p>")
+                    .arg(escaped(document.title), escaped(document.subtitle), QString::fromStdString(document.documentId)));
+    constexpr std::size_t rowsPerBlock = 24; // a table block never outgrows a page
+    startsOut.clear();
+    for (std::size_t k = 0; k < document.sections.size(); ++k) {
+        const ReportSection& section = document.sections[k];
+        layout.heading(QStringLiteral("<h2>%1</h2>").arg(escaped(section.title)));
+        startsOut.push_back(layout.page());
+        for (const auto& paragraph : section.paragraphs)
+            layout.html(QStringLiteral("<p>%1</p>").arg(escaped(paragraph)), 0.1);
+        layout.charts(charts, section.charts);
+        for (const auto& whole : section.tables) {
+            const ReportTable table = printedRows(whole);
+            for (std::size_t from = 0; from < std::max<std::size_t>(table.rows.size(), 1); from += rowsPerBlock)
+                layout.html(tableHtml(table, from, std::min(table.rows.size(), from + rowsPerBlock)));
+        }
+        if (!section.closing.empty())
+            layout.html(closingHtml(section.closing), 0.1);
+        if (section.pageBreakAfter) {
+            layout.newPage();
+            if (k == 0) { // after the decision summary: the contents
+                QString contents = QStringLiteral("<h2>Contents</h2><table cellpadding=\"2\" width=\"100%\">");
+                for (std::size_t j = 0; j < document.sections.size(); ++j)
+                    contents += QStringLiteral("<tr><td>%1</td><td align=\"right\">page %2</td></tr>")
+                                    .arg(escaped(document.sections[j].title),
+                                         j < sectionPages.size() ? QString::number(sectionPages[j]) : QStringLiteral("00"));
+                layout.html(contents + QStringLiteral("</table>"));
+            }
+        }
+    }
+    layout.finish();
+    pagesOut = layout.page() - 1;
+}
+
+void setUp(QPdfWriter& writer, const ReportDocument& document)
+{
+    writer.setPageSize(QPageSize(QPageSize::A4));
+    writer.setPageMargins(QMarginsF(18, 16, 18, 14), QPageLayout::Millimeter);
+    writer.setResolution(300);
+    writer.setTitle(QString::fromStdString(document.title));
+    writer.setCreator(QStringLiteral("Plumbline"));
+}
+
+} // namespace
+
 std::expected<void, InputError> writePdfReport(const ReportDocument& document, ReportCharts& charts, const std::string& path)
 {
+    // First pass: where each section starts and how many pages there are.
+    std::vector<int> starts;
+    int pages = 0;
+    {
+        QByteArray scratch;
+        QBuffer buffer(&scratch);
+        buffer.open(QIODevice::WriteOnly);
+        QPdfWriter writer(&buffer);
+        setUp(writer, document);
+        layOut(writer, document, charts, {}, 0, starts, pages);
+    }
     QByteArray bytes;
     QBuffer buffer(&bytes);
     buffer.open(QIODevice::WriteOnly);
     {
         QPdfWriter writer(&buffer);
-        writer.setPageSize(QPageSize(QPageSize::A4));
-        writer.setPageMargins(QMarginsF(18, 16, 18, 14), QPageLayout::Millimeter);
-        writer.setResolution(300);
-        writer.setTitle(QString::fromStdString(document.title));
-        writer.setCreator(QStringLiteral("Plumbline"));
-        QPainter painter(&writer);
-        PdfLayout layout(writer, painter);
-        layout.html(QStringLiteral("<h1>%1</h1><p>%2</p><p style=\"background:#fff4d6\"><b>Caution:</b> a validation supports, and "
-                                   "does not replace, clinical and governance review; results depend on local data quality and outcome "
-                                   "definitions; follow local policy and regulation.</p>")
-                        .arg(escaped(document.title), escaped(document.subtitle)));
-        constexpr std::size_t rowsPerBlock = 24; // a table block never outgrows a page
-        for (const auto& section : document.sections) {
-            layout.heading(QStringLiteral("<h2>%1</h2>").arg(escaped(section.title)));
-            for (const auto& paragraph : section.paragraphs)
-                layout.html(QStringLiteral("<p>%1</p>").arg(escaped(paragraph)), 0.1);
-            layout.charts(charts, section.charts);
-            for (const auto& whole : section.tables) {
-                const ReportTable table = printedRows(whole);
-                for (std::size_t from = 0; from < std::max<std::size_t>(table.rows.size(), 1); from += rowsPerBlock)
-                    layout.html(tableHtml(table, from, std::min(table.rows.size(), from + rowsPerBlock)));
-            }
-            if (!section.closing.empty())
-                layout.html(closingHtml(section.closing), 0.1);
-            if (section.pageBreakAfter)
-                layout.newPage();
-        }
-        layout.finish();
+        setUp(writer, document);
+        std::vector<int> again;
+        int total = 0;
+        layOut(writer, document, charts, starts, pages, again, total);
     }
     return writeFileAtomically(path, std::string_view(bytes.constData(), std::size_t(bytes.size())));
 }

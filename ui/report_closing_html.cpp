@@ -20,7 +20,7 @@ QString closingHtml(const std::vector<std::string>& paragraphs)
             close();
             if (!kind.isEmpty()) {
                 html += kind == QStringLiteral("warnings") ? QStringLiteral("<ul class=\"warnings\" style=\"font-size:small\">")
-                                                           : QStringLiteral("<ul class=\"findings\">");
+                                                           : QStringLiteral("<ul class=\"findings\" style=\"font-size:small\">");
                 openList = kind;
             }
         }

@@ -7,6 +7,7 @@
 #include "model_comparison.hpp"
 #include "printable_text.hpp"
 #include "panel_keys.hpp"
+#include "sha256.hpp"
 #include "value_text.hpp"
 #include "version.hpp"
 
@@ -97,6 +98,29 @@ ReportTable metricTable(const std::string& id, const std::string& title, const V
     for (const auto& [reason, who] : notes)
         t.note += " " + who + ": " + reason + ".";
     return t;
+}
+
+// The inputs' fingerprints and every setting that changes a number, hashed.
+std::string documentIdOf(const AnalysisSnapshot& s)
+{
+    const AnalysisRequest& r = s.request;
+    std::string basis;
+    for (const auto& input : s.inputs)
+        basis += input.role + ":" + input.sha256 + ";";
+    basis += "outcome=" + r.intake.outcomeColumn + ";scale=" + std::string(scaleName(r.intake.scale)) + ";scores=";
+    for (const auto& score : r.intake.scoreColumns)
+        basis += score + ",";
+    basis += ";groups=";
+    for (const auto& group : r.intake.groupColumns)
+        basis += group + ",";
+    basis += ";period=" + r.intake.periodColumn.value_or("") + ";thresholds=";
+    for (double t : r.panel.thresholds)
+        basis += fixedText(t, 6) + ",";
+    basis += ";confidence=" + fixedText(r.panel.confidence, 6) + ";groups=" + std::to_string(r.panel.riskGroups)
+        + ";decision=" + fixedText(r.panel.decisionThreshold, 6) + ";replicates=" + std::to_string(r.bootstrap.replicates)
+        + ";seed=" + std::to_string(r.bootstrap.seed) + ";method=" + std::string(bootstrapCiName(r.bootstrap.method))
+        + ";stratified=" + (r.bootstrap.stratified ? "1" : "0") + ";version=" + versionString;
+    return "PL-" + sha256Hex(basis).substr(0, 12);
 }
 
 // Page 1: what was validated, on whom, the key numbers per model side by side, the findings in
@@ -224,6 +248,7 @@ ReportSection settingsSection(const AnalysisSnapshot& s, std::size_t minimumCell
     row("Bootstrap interval", r.bootstrap.replicates > 0 ? std::string(bootstrapCiName(r.bootstrap.method)) : "none (analytic only)");
     row("Small-cell rule", "counts below " + std::to_string(minimumCell) + " suppressed");
     row("Software", std::string("Plumbline ") + versionString);
+    row("Document id (inputs' SHA-256 and these settings)", documentIdOf(s));
     section.tables.push_back(t);
     return section;
 }
@@ -555,6 +580,7 @@ ReportDocument buildReport(const AnalysisSnapshot& s, const ReportFields& fields
     ReportDocument d;
     d.title = fields.title.empty() ? "Validation of a risk model on local data" : fields.title;
     d.subtitle = "Plumbline " + std::string(versionString) + " - " + createdUtc;
+    d.documentId = documentIdOf(s);
     d.sections.push_back(decisionSummarySection(s, fields, createdUtc));
     d.sections.push_back(provenanceSection(s, minimumCell));
     d.sections.push_back(settingsSection(s, minimumCell));

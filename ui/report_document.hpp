@@ -64,6 +64,9 @@ struct ReportSection {
 struct ReportDocument {
     std::string title;
     std::string subtitle;
+    // Names this analysis: derived from the inputs' SHA-256 and the settings, so the same data and
+    // settings give the same id and any change gives another ("PL-" and 12 hex digits).
+    std::string documentId;
     std::vector<ReportSection> sections;
 
     std::vector<const ReportTable*> tables() const;

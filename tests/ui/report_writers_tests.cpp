@@ -159,7 +159,13 @@ private slots:
             QVERIFY(content.contains(QString::number(c, 'f', 3)));
             QVERIFY(content.contains(QString::number(*model.metrics[CalibrationSlope].estimate.value, 'f', 3)));
         }
-        QVERIFY(content.contains(QStringLiteral("page 1")));
+        // Document control: page N of M, a contents list and the document id on every page after the first.
+        const int pages = int(content.count(QRegularExpression(QStringLiteral("page \\d+ of \\d+"))));
+        QVERIFY(pages > 3);
+        QVERIFY(content.contains(QStringLiteral("page 1 of %1").arg(pages)));
+        QVERIFY(content.contains(QStringLiteral("Contents")));
+        QVERIFY(!document.documentId.empty());
+        QCOMPARE(int(content.count(QString::fromStdString(document.documentId))), pages + 1); // header of pages 2..M, title block, settings
         QVERIFY(content.contains(QStringLiteral("Reviewed by")));
     }
 
