@@ -28,7 +28,7 @@ namespace {
 struct ValidateOptions {
     AnalysisOptions analysis;
     std::string jsonFile;
-    std::string reportFile;
+    std::vector<std::string> reportFiles; // --report, repeatable: PDF and HTML from one run, one timestamp
     std::string xlsxFile;
     std::string csvFolder;
     std::string chartFolder;
@@ -62,7 +62,7 @@ nlohmann::ordered_json resultJson(const AnalysisSnapshot& s)
 // offscreen, so it never needs a display.
 bool wantsReports(const ValidateOptions& options)
 {
-    return !options.reportFile.empty() || !options.xlsxFile.empty() || !options.csvFolder.empty() || !options.chartFolder.empty();
+    return !options.reportFiles.empty() || !options.xlsxFile.empty() || !options.csvFolder.empty() || !options.chartFolder.empty();
 }
 
 // The CSV tables' names depend on the results (one per subgroup column, say): checked once the
@@ -94,7 +94,7 @@ int writeReports(const ValidateOptions& options, const ReportDocument& document,
             return reportError(written.error());
         std::cout << "Workbook: " << options.xlsxFile << '\n';
     }
-    if (!options.reportFile.empty() || !options.chartFolder.empty()) {
+    if (!options.reportFiles.empty() || !options.chartFolder.empty()) {
         static int argc = 1;
         static char name[] = "plumbline-cli";
         static char* argv[] = {name, nullptr};
@@ -104,10 +104,10 @@ int writeReports(const ValidateOptions& options, const ReportDocument& document,
         if (!QApplication::instance())
             application = std::make_unique<QApplication>(argc, argv);
         ReportCharts charts(snapshot);
-        if (!options.reportFile.empty()) {
-            if (auto written = writeReport(document, charts, options.reportFile); !written)
+        for (const auto& reportFile : options.reportFiles) {
+            if (auto written = writeReport(document, charts, reportFile); !written)
                 return reportError(written.error());
-            std::cout << "Report: " << options.reportFile << '\n';
+            std::cout << "Report: " << reportFile << '\n';
         }
         if (!options.chartFolder.empty()) {
             QString error;
@@ -134,8 +134,9 @@ std::expected<void, InputError> checkOutputs(const ValidateOptions& options, con
     if (auto ok = refuseInputAsOutput(options.analysis.saveSettingsFile, inputs, "--save-settings"); !ok)
         return ok;
     inputs.push_back(options.analysis.settingsFile);
-    const std::pair<const std::string*, const char*> outputs[] = {
-        {&options.jsonFile, "--json"}, {&options.reportFile, "--report"}, {&options.xlsxFile, "--xlsx"}};
+    std::vector<std::pair<const std::string*, const char*>> outputs{{&options.jsonFile, "--json"}, {&options.xlsxFile, "--xlsx"}};
+    for (const auto& reportFile : options.reportFiles)
+        outputs.emplace_back(&reportFile, "--report");
     for (const auto& [path, option] : outputs)
         if (auto ok = refuseInputAsOutput(*path, inputs, option); !ok)
             return ok;
@@ -215,7 +216,7 @@ void addValidateCommand(CLI::App& app, int& exitStatus)
     CLI::App* command = app.add_subcommand("validate", "Validate one or more risk models on a cohort.");
     options->analysis.addTo(*command);
     command->add_option("--json", options->jsonFile, "Write the full result as JSON");
-    command->add_option("--report", options->reportFile, "Write the validation report (.pdf or .html)");
+    command->add_option("--report", options->reportFiles, "Write the validation report (.pdf or .html); repeat for both from one run");
     command->add_option("--xlsx", options->xlsxFile, "Write every table of the report to a workbook");
     command->add_option("--csv-dir", options->csvFolder, "Write every table of the report as CSV into this folder");
     command->add_option("--chart-dir", options->chartFolder, "Write the ROC and calibration charts as PNG and SVG into this folder");

@@ -48,7 +48,8 @@ h1{font-size:1.6em;margin-bottom:0}h2{font-size:1.25em;border-bottom:1px solid #
 table{border-collapse:collapse;margin:1em 0;font-size:.85em}caption{text-align:left;font-weight:bold;padding:.3em 0}
 th,td{border:1px solid #ccc;padding:.2em .5em}th{background:#f0f0f0}td.number{text-align:right}
 td.suppressed{text-align:right;color:#888;font-style:italic}.note{font-size:.8em;color:#555}
-.chart{display:inline-block;margin:.5em}.chart svg{width:520px;height:auto})";
+.chart{display:inline-block;margin:.5em;width:520px;vertical-align:top}.chart svg{width:520px;height:auto}
+figcaption{font-size:.8em;color:#444})";
 
 } // namespace
 
@@ -66,7 +67,8 @@ std::expected<void, InputError> writeHtmlReport(const ReportDocument& document, 
         for (const auto& paragraph : section.paragraphs)
             html += QStringLiteral("<p>%1</p>").arg(escaped(paragraph));
         for (ReportChart chart : section.charts)
-            html += QStringLiteral("<div class=\"chart\">%1</div>").arg(inlineSvg(charts.svg(chart)));
+            html += QStringLiteral("<figure class=\"chart\">%1<figcaption>%2</figcaption></figure>")
+                        .arg(inlineSvg(charts.svg(chart)), charts.caption(chart).toHtmlEscaped());
         for (const auto& table : section.tables)
             html += tableHtml(printedRows(table));
         html += closingHtml(section.closing);

@@ -74,18 +74,29 @@ public:
         m_y += height + gapAfter * lineHeight();
     }
 
+    // Two charts a row, each with its caption beneath.
     void charts(ReportCharts& charts, const std::vector<ReportChart>& which)
     {
-        if (which.empty())
-            return;
         const double gap = lineHeight();
         const double width = (m_area.width() - gap) / 2.0;
         const QSize logical = ReportCharts::logicalSize();
         const double height = width * logical.height() / logical.width();
-        fit(height);
-        for (std::size_t i = 0; i < which.size(); ++i)
-            charts.draw(which[i], &m_painter, QRectF(m_area.left() + double(i % 2) * (width + gap), m_y, width, height));
-        m_y += height + gap;
+        const double captionHeight = 3.2 * lineHeight();
+        for (std::size_t row = 0; row < which.size(); row += 2) {
+            fit(height + captionHeight);
+            for (std::size_t i = row; i < std::min(which.size(), row + 2); ++i) {
+                const QRectF box(m_area.left() + double(i % 2) * (width + gap), m_y, width, height);
+                charts.draw(which[i], &m_painter, box);
+                m_painter.save();
+                QFont font(QStringLiteral("DejaVu Sans"));
+                font.setPixelSize(int(m_writer.resolution() * 8.0 / 72.0)); // 8 pt
+                m_painter.setFont(font);
+                m_painter.drawText(QRectF(box.left(), box.bottom() + gap * 0.2, width, captionHeight), Qt::AlignLeft | Qt::TextWordWrap,
+                                   charts.caption(which[i]));
+                m_painter.restore();
+            }
+            m_y += height + captionHeight + gap;
+        }
     }
 
     void finish() { footer(); }

@@ -16,7 +16,11 @@ class QPainter;
 namespace plumbline {
 
 class CalibrationChartView;
+class DecisionCurveView;
+class ExportableChartView;
+class PeriodPanel;
 class RocChartView;
+class SubgroupPanel;
 
 // The report's charts, built from the snapshot with the window's own chart classes so that a
 // report and the window draw the same thing. Needs a QApplication (Qt Charts are widgets).
@@ -32,12 +36,21 @@ public:
     static QSize logicalSize() { return {700, 430}; } // small, so its text reads well when scaled to half a page
     void draw(ReportChart chart, QPainter* painter, const QRectF& target);
     QByteArray svg(ReportChart chart);
+    // What the chart shows and the threshold it marks, printed under it.
+    QString caption(ReportChart chart) const;
     // roc.png, roc.svg, calibration.png, calibration.svg into a folder (created if needed).
     bool exportAll(const QString& folder, QString* error);
 
 private:
+    ExportableChartView* view(ReportChart chart) const;
+
+    SnapshotPointer m_snapshot;
+    double m_threshold = 0.2;
     std::unique_ptr<RocChartView> m_roc;
     std::unique_ptr<CalibrationChartView> m_calibration;
+    std::unique_ptr<DecisionCurveView> m_decision;
+    std::unique_ptr<SubgroupPanel> m_subgroups;
+    std::unique_ptr<PeriodPanel> m_periods;
 };
 
 } // namespace plumbline

@@ -256,7 +256,7 @@ ReportSection settingsSection(const AnalysisSnapshot& s, std::size_t minimumCell
 ReportSection resultsSection(const AnalysisSnapshot& s, std::size_t minimumCell)
 {
     const ValidationResult& v = s.validation;
-    ReportSection section{"4. Results", {}, {}, {ReportChart::Roc, ReportChart::Calibration}, {}, false};
+    ReportSection section{"4. Results", {}, {}, {ReportChart::Roc, ReportChart::Calibration, ReportChart::DecisionCurve}, {}, false};
     section.tables.push_back(metricTable("discrimination", "Discrimination", v, {CStatistic, Auprc, DiscriminationSlope}));
     section.tables.push_back(metricTable("calibration", "Calibration", v,
                                          {CalibrationIntercept, CalibrationSlope, RecalibrationIntercept, OeRatio, Ici, E50, E90, Emax}));
@@ -323,6 +323,10 @@ ReportSection subgroupSection(const AnalysisSnapshot& s, std::size_t minimumCell
     ReportSection section{"6. Subgroups, sites and performance over time", {}, {}, {}, {}, false};
     if (!v.subgroups && !v.periods)
         section.paragraphs.push_back("Not part of this analysis (no subgroup or period column).");
+    if (v.subgroups)
+        section.charts.insert(section.charts.end(), {ReportChart::SubgroupSlope, ReportChart::SubgroupFunnel});
+    if (v.periods)
+        section.charts.push_back(ReportChart::OverTime);
     if (v.subgroups) {
         ReportTable groups{"subgroups", "Performance within subgroups",
                            {"Column", "Level", "Model", "Patients", "Events", "C statistic", "C interval", "O/E", "O/E interval",

@@ -47,7 +47,9 @@ ReportTable printedRows(const ReportTable& table);
 // empty.
 ReportTable dataColumns(const ReportTable& table);
 
-enum class ReportChart { Roc, Calibration };
+// The charts a report can hold, drawn by the window's own views. The subgroup charts show the
+// first subgroup column and model, the drift chart the first model (their captions say which).
+enum class ReportChart { Roc, Calibration, DecisionCurve, SubgroupSlope, SubgroupFunnel, OverTime };
 
 struct ReportSection {
     std::string title;
