@@ -503,40 +503,56 @@ ReportSection methodsSection(const AnalysisSnapshot& s)
     return section;
 }
 
-ReportSection checklistSection(const AnalysisSnapshot& s)
+// Every TRIPOD 2015 item that applies to a validation, none dropped: covered (with the section),
+// partly covered (what is missing), or for the authors to supply. Item numbers are recalled, and
+// the report says so.
+ReportSection checklistSection(const AnalysisSnapshot& s, const ReportFields& f)
 {
-    ReportSection section{"9. Reporting checklist (TRIPOD 2015 / TRIPOD+AI 2024, validation items)", {}, {}, {}, {}, false};
-    ReportTable t{"checklist", "Where this report covers the validation items", {"Topic", "TRIPOD 2015", "TRIPOD+AI 2024", "In this report"}, {}, {}, {}};
-    const bool compared = !s.validation.comparisons.empty();
+    ReportSection section{"9. Reporting checklist (TRIPOD, validation items)", {}, {}, {}, {}, false};
+    ReportTable t{"checklist", "Every validation item and where this report covers it", {"Item", "Topic", "Status", "Where, or what to add"}, {}, {}, {}};
     const bool updated = !s.updates.empty();
+    const bool subgroups = s.validation.subgroups.has_value();
+    const bool periods = s.validation.periods.has_value();
+    const std::string covered = "covered", partly = "partly covered", authors = "for the authors to supply";
     const std::vector<std::array<std::string, 4>> items{{
-        {"Title (validation, population, outcome)", "1", "1", "Section 1 (free text)"},
-        {"Data source and dates", "4a, 4b", "5a, 5b", "Sections 1-2; dates: free text"},
-        {"Participants, eligibility", "5a-5c", "6a-6c", "Section 2: exclusions by reason"},
-        {"Outcome definition and horizon", "6a, 6b", "8a-8c", "Section 1 (free text)"},
-        {"Predictors", "7a, 7b", "9a-9c", "NOT COVERED: describe the model's inputs"},
-        {"Sample size", "8", "10", "Section 6: precision achieved; plan with plumbline-cli plan"},
-        {"Missing data", "9", "11", "Section 2: missing outcome and scores excluded and counted"},
-        {"How predictions were calculated", "10c", "12g, 22", "Section 3: score column and scale"},
-        {"Performance measures", "10d", "12e", "Sections 4 and 8"},
-        {"Model updating", "10e", "12f", updated ? "Section 5" : "Not done"},
-        {"Risk groups, thresholds", "11", "15", "Section 4: risk groups and thresholds"},
-        {"Differences from the development data", "12", "16", "NOT COVERED: compare with the development study"},
-        {"Participant flow", "13a", "20a", "Section 2"},
-        {"Participant characteristics", "13b", "20b", "NOT COVERED: describe the cohort"},
-        {"Comparison with development data (case-mix)", "13c", "20c", "NOT COVERED"},
-        {"Performance with intervals", "16", "23a", "Section 4"},
-        {"Performance in subgroups, heterogeneity", "-", "23a, 23b", s.validation.subgroups ? "Section 6" : "NOT COVERED: no subgroup column given"},
-        {"Updated model performance", "17", "24", updated ? "Section 5 (optimism-corrected)" : "Not done"},
-        {"Comparison of models", "-", "-", compared ? "Section 5" : "One model"},
-        {"Limitations, interpretation", "18, 19", "25, 26", "Section 7 (what the data cannot show), section 10 cautions; reviewer's notes"},
-        {"Fairness", "-", "14", s.validation.subgroups ? "Section 6 (performance by group)" : "NOT COVERED: no subgroup column given"},
-        {"Code and settings for reproduction", "21", "18e, 18f", "Section 3; save the analysis file"},
+        {"1", "Title", f.title.empty() ? partly : covered, f.title.empty() ? "a generic title: give --report-title" : "title block"},
+        {"2", "Abstract", partly, "section 1 summarises the results; the abstract itself is for the authors"},
+        {"3a", "Background and rationale", authors, "why this model is validated here"},
+        {"3b", "Objectives", authors, "state that this is an external validation and of what"},
+        {"4a", "Source of data", partly, "section 2 (files and their SHA-256); describe the study design"},
+        {"4b", "Key dates", periods ? covered : partly, periods ? "section 6 (periods)" : "the period is free text in section 1"},
+        {"5a", "Setting and participants", f.population.empty() ? authors : partly, "section 1 (population, free text)"},
+        {"5b", "Eligibility criteria", partly, "section 2 (rows excluded by reason); add the clinical criteria"},
+        {"5c", "Treatments received", authors, "treatments that may change the outcome"},
+        {"6a", "Outcome definition", f.outcome.empty() ? partly : covered, "section 1 (free text) and section 3 (column and event value)"},
+        {"6b", "Blinding of outcome assessment", authors, "whether outcome assessors knew the score"},
+        {"7a", "Predictors", authors, "the model's inputs and how they were measured"},
+        {"7b", "Blinding of predictor assessment", authors, "whether predictors were assessed knowing the outcome"},
+        {"8", "Sample size", partly, "section 6 (precision achieved); plan a study with plumbline-cli plan"},
+        {"9", "Missing data", covered, "section 2 (complete cases, exclusions counted) and section 7"},
+        {"10c", "How predictions were calculated", covered, "section 3 (score column and scale)"},
+        {"10d", "Performance measures", covered, "sections 4 and 8"},
+        {"10e", "Model updating", updated ? covered : partly, updated ? "section 5" : "no update was made in this run"},
+        {"11", "Risk groups", covered, "section 4 (risk groups, thresholds)"},
+        {"12", "Differences from the development data", authors, "setting, eligibility, outcome and predictors against the development study"},
+        {"13a", "Participant flow", covered, "section 2 (rows read, used, excluded)"},
+        {"13b", "Participant characteristics", partly, "section 1 (patients, events, event rate); describe the cohort"},
+        {"13c", "Comparison with the development data", authors, "case mix against the development study"},
+        {"16", "Model performance with intervals", covered, "section 4" + std::string(subgroups ? " and section 6 (by subgroup)" : "")},
+        {"17", "Results of model updating", updated ? covered : partly, updated ? "section 5 (optimism-corrected)" : "no update was made in this run"},
+        {"18", "Limitations", partly, "section 7 (what these data cannot show); add the study's own"},
+        {"19a", "Interpretation against the development results", authors, "compare with the published performance"},
+        {"19b", "Overall interpretation", partly, "section 1 (findings); the interpretation is for the authors"},
+        {"20", "Implications", authors, "clinical use and further research"},
+        {"21", "Supplementary information", partly, "section 3 (settings, document id); keep the analysis file"},
+        {"22", "Funding", authors, "sources of funding and their role"},
+        {"-", "Fairness across groups (TRIPOD+AI)", subgroups ? covered : authors, subgroups ? "section 6 (performance by group)" : "give --group"},
     }};
     for (const auto& item : items)
         t.rows.push_back({textCell(item[0]), textCell(item[1]), textCell(item[2]), textCell(item[3])});
-    t.note = "Item numbers: Collins et al. 2015 (TRIPOD) and Collins et al. 2024 (TRIPOD+AI); numbering beyond items 1-9 "
-             "and 1-6c recalled, check against the published checklists.";
+    t.note = "Items of the TRIPOD statement (Collins et al. 2015) that apply to validation; the numbers are recalled, not checked "
+             "against the published checklist (from memory): check them, and the corresponding TRIPOD+AI (Collins et al. 2024) "
+             "items, before submission.";
     section.tables.push_back(t);
     return section;
 }
@@ -593,7 +609,7 @@ ReportDocument buildReport(const AnalysisSnapshot& s, const ReportFields& fields
     d.sections.push_back(subgroupSection(s, minimumCell));
     d.sections.push_back(limitsSection(s, fields));
     d.sections.push_back(methodsSection(s));
-    d.sections.push_back(checklistSection(s));
+    d.sections.push_back(checklistSection(s, fields));
     ReportSection warnings{"10. Warnings and cautions", {}, {}, {}, {}, false};
     for (const auto& w : s.audit.warnings)
         warnings.paragraphs.push_back("Warning: " + w);

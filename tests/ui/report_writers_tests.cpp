@@ -232,6 +232,28 @@ private slots:
         QVERIFY(text.find(std::to_string(a.rowsExcluded()) + " of " + std::to_string(a.rowsRead) + " rows were left out") != std::string::npos);
     }
 
+    void theChecklistListsEveryValidationItemWithAStatus()
+    {
+        const SnapshotPointer snapshot = snapshotOf(300, 10);
+        const ReportDocument document = buildReport(*snapshot, {}, 11, "2026-01-01T00:00:00Z");
+        const ReportTable* checklist = nullptr;
+        for (const ReportTable* table : document.tables())
+            if (table->id == "checklist")
+                checklist = table;
+        QVERIFY(checklist);
+        // TRIPOD 2015's validation items (from memory): 1-9, 10c-10e, 11, 12, 13a-13c, 16-22.
+        QStringList items;
+        for (const auto& row : checklist->rows) {
+            items << QString::fromStdString(row.at(0).text);
+            const std::string& status = row.at(2).text;
+            QVERIFY2(status == "covered" || status == "partly covered" || status == "for the authors to supply", status.c_str());
+        }
+        for (const char* item : {"1", "2", "3a", "3b", "4a", "4b", "5a", "5b", "5c", "6a", "6b", "7a", "7b", "8", "9", "10c", "10d",
+                                 "10e", "11", "12", "13a", "13b", "13c", "16", "17", "18", "19a", "19b", "20", "21", "22"})
+            QVERIFY2(items.contains(QString::fromLatin1(item)), item);
+        QVERIFY(checklist->note.find("from memory") != std::string::npos);
+    }
+
     void aFailedWriteLeavesNoPartialFile()
     {
         const SnapshotPointer snapshot = snapshotOf(300, 10);
