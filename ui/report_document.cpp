@@ -2,6 +2,7 @@
 
 #include "cautions.hpp"
 #include "decision_summary.hpp"
+#include "interval_choice.hpp"
 #include "metric_definitions.hpp"
 #include "metric_reading.hpp"
 #include "model_comparison.hpp"
@@ -240,12 +241,37 @@ ReportSection settingsSection(const AnalysisSnapshot& s, std::size_t minimumCell
     row("Score columns", scores);
     row("Score scale", std::string(scaleName(r.intake.scale)));
     row("Decision thresholds (positive if risk >= t)", thresholds);
+    auto list = [](const std::vector<double>& values, int digits) {
+        std::string out;
+        for (double x : values)
+            out += (out.empty() ? "" : ", ") + fixed(x, digits);
+        return out;
+    };
+    auto names = [](const std::vector<std::string>& values) {
+        std::string out;
+        for (const auto& x : values)
+            out += (out.empty() ? "" : ", ") + x;
+        return out.empty() ? std::string("none") : out;
+    };
+    row("Decision threshold the care team will act on", fixed(r.panel.decisionThreshold, 3));
+    row("Decision curve thresholds (from, to, step)",
+        fixed(r.panel.decisionFrom, 3) + ", " + fixed(r.panel.decisionTo, 3) + ", " + fixed(r.panel.decisionStep, 3));
+    row("NRI cut-points", list(r.panel.cutPoints(), 3) + (r.panel.nriCutPoints.empty() ? " (the thresholds)" : ""));
+    row("Subgroup columns", names(r.intake.groupColumns));
+    row("Period column and unit", r.intake.periodColumn ? *r.intake.periodColumn + ", by "
+                                        + (r.panel.periodUnit == PeriodUnit::Month ? "month" : "quarter") : "none");
+    row("Interval methods", std::string("C: DeLong (") + (r.panel.cStatisticScale == CStatisticScale::Logit ? "logit" : "plain")
+                                + " scale); calibration intercept and slope: Wald; O/E: log-normal, exact Poisson below 10 events; "
+                                  "proportions: " + ciMethodLabel(r.panel.binomialInterval)
+                                + (r.bootstrap.replicates > 0 ? "; with the bootstrap: " + bootstrapCiLabel(r.bootstrap.method)
+                                                                    + " under the rule of section 8" : ""));
     row("Risk groups", std::to_string(r.panel.riskGroups));
     row("Confidence level", fixed(r.panel.confidence, 3));
     row("C statistic interval", r.panel.cStatisticScale == CStatisticScale::Logit ? "DeLong, logit scale" : "DeLong, plain scale");
     row("Bootstrap replicates", std::to_string(r.bootstrap.replicates));
     row("Bootstrap seed", std::to_string(r.bootstrap.seed));
-    row("Bootstrap interval", r.bootstrap.replicates > 0 ? std::string(bootstrapCiName(r.bootstrap.method)) : "none (analytic only)");
+    row("Bootstrap interval", r.bootstrap.replicates > 0 ? bootstrapCiLabel(r.bootstrap.method) + (r.bootstrap.stratified ? ", stratified" : "")
+                                                          : "none (analytic only)");
     row("Small-cell rule", "counts below " + std::to_string(minimumCell) + " suppressed");
     row("Software", std::string("Plumbline ") + versionString);
     row("Document id (inputs' SHA-256 and these settings)", documentIdOf(s));
@@ -497,7 +523,8 @@ ReportSection methodsSection(const AnalysisSnapshot& s)
     if (s.request.bootstrap.replicates > 0)
         section.paragraphs.push_back("Bootstrap: " + std::to_string(s.request.bootstrap.replicates) + " nonparametric replicates (seed "
                                      + std::to_string(s.request.bootstrap.seed) + "), " + std::string(bootstrapCiName(s.request.bootstrap.method))
-                                     + " intervals (Efron 1987); differences between models from paired resamples.");
+                                     + " intervals (Efron 1987); differences between models from paired resamples. Interval "
+                                       "reported: " + intervalRuleText());
     section.paragraphs.push_back("Net benefit: Vickers & Elkin 2006; NRI and IDI: Pencina et al. 2008; model updating: Steyerberg et al. "
                                  "2004, Vergouwe et al. 2017; optimism correction: Harrell, Lee & Mark 1996.");
     return section;
