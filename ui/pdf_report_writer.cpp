@@ -38,11 +38,18 @@ public:
 
     int page() const { return m_page + 1; }
 
-    // A heading never ends a page: it needs room for itself and a fair part of what follows.
-    void heading(const QString& html)
+    // A heading never ends a page: it needs room for itself and a fair part of what follows (a
+    // whole chart when a chart comes next).
+    void heading(const QString& html, bool chartNext = false)
     {
-        fit(m_area.height() * 0.3);
+        fit(chartNext ? chartBlockHeight() + 2.0 * lineHeight() : m_area.height() * 0.3);
         this->html(html, 0.1);
+    }
+
+    double chartBlockHeight() const
+    {
+        const QSize logical = ReportCharts::logicalSize();
+        return m_area.width() * logical.height() / logical.width() + 2.2 * lineHeight();
     }
 
     void html(const QString& html, double gapAfter = 0.4)
@@ -74,27 +81,26 @@ public:
         m_y += height + gapAfter * lineHeight();
     }
 
-    // Two charts a row, each with its caption beneath.
+    // One chart a row at the full text width, so that its text prints at about 8 pt or more
+    // (the chart is drawn at ReportCharts::logicalSize() and scaled), each with its caption.
     void charts(ReportCharts& charts, const std::vector<ReportChart>& which)
     {
         const double gap = lineHeight();
-        const double width = (m_area.width() - gap) / 2.0;
+        const double width = m_area.width();
         const QSize logical = ReportCharts::logicalSize();
         const double height = width * logical.height() / logical.width();
-        const double captionHeight = 3.2 * lineHeight();
-        for (std::size_t row = 0; row < which.size(); row += 2) {
+        const double captionHeight = 2.2 * lineHeight();
+        for (ReportChart chart : which) {
             fit(height + captionHeight);
-            for (std::size_t i = row; i < std::min(which.size(), row + 2); ++i) {
-                const QRectF box(m_area.left() + double(i % 2) * (width + gap), m_y, width, height);
-                charts.draw(which[i], &m_painter, box);
-                m_painter.save();
-                QFont font(QStringLiteral("DejaVu Sans"));
-                font.setPixelSize(int(m_writer.resolution() * 8.0 / 72.0)); // 8 pt
-                m_painter.setFont(font);
-                m_painter.drawText(QRectF(box.left(), box.bottom() + gap * 0.2, width, captionHeight), Qt::AlignLeft | Qt::TextWordWrap,
-                                   charts.caption(which[i]));
-                m_painter.restore();
-            }
+            const QRectF box(m_area.left(), m_y, width, height);
+            charts.draw(chart, &m_painter, box);
+            m_painter.save();
+            QFont font(QStringLiteral("DejaVu Sans"));
+            font.setPixelSize(int(m_writer.resolution() * 8.0 / 72.0)); // 8 pt
+            m_painter.setFont(font);
+            m_painter.drawText(QRectF(box.left(), box.bottom() + gap * 0.2, width, captionHeight), Qt::AlignLeft | Qt::TextWordWrap,
+                               charts.caption(chart));
+            m_painter.restore();
             m_y += height + captionHeight + gap;
         }
     }
@@ -194,7 +200,7 @@ void layOut(QPdfWriter& writer, const ReportDocument& document, ReportCharts& ch
     startsOut.clear();
     for (std::size_t k = 0; k < document.sections.size(); ++k) {
         const ReportSection& section = document.sections[k];
-        layout.heading(QStringLiteral("<h2>%1</h2>").arg(escaped(section.title)));
+        layout.heading(QStringLiteral("<h2>%1</h2>").arg(escaped(section.title)), section.paragraphs.empty() && !section.charts.empty());
         startsOut.push_back(layout.page());
         for (const auto& paragraph : section.paragraphs)
             layout.html(QStringLiteral("<p>%1</p>").arg(escaped(paragraph)), 0.1);

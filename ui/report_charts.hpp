@@ -33,7 +33,9 @@ public:
 
     // The threshold the charts mark (read back from the calibration plot's line).
     double markedThreshold() const;
-    static QSize logicalSize() { return {700, 430}; } // small, so its text reads well when scaled to half a page
+    // Drawn at this size and scaled to the page's text width (about 170 mm), Qt's default chart
+    // fonts print at about 8 pt.
+    static QSize logicalSize() { return {620, 380}; }
     void draw(ReportChart chart, QPainter* painter, const QRectF& target);
     QByteArray svg(ReportChart chart);
     // What the chart shows and the threshold it marks, printed under it.
