@@ -5,9 +5,10 @@
 #   ./plumbline.sh bench   install what is missing, build, run the benchmark harness
 #   ./plumbline.sh sanitize   the core and CLI tests on an ASan + UBSan build (part of test)
 #   ./plumbline.sh fuzz [S]   the libFuzzer harnesses, S seconds each (part of test, 60 s)
-#   ./plumbline.sh mutants [--only ID,...] [--check]   mutation score of the tests (not part of
-#                  test): each mutation of tests/mutants/mutations.txt in a scratch copy
-#                  (build-mutants/), rebuilt and tested; result in build-mutants/mutants-result.txt
+#   ./plumbline.sh mutants [--only ID,...] [--skip RE] [--check]
+#                  mutation score of the tests (not part of test): each mutation of
+#                  tests/mutants/mutations.txt applied in a scratch copy (build-mutants/), rebuilt
+#                  and tested; the table and score also go to build-mutants/mutants-result.txt
 # A second call is quick: installed packages are skipped and the build is incremental.
 set -euo pipefail
 cd "$(dirname "$(readlink -f "$0")")"
@@ -125,7 +126,7 @@ case "$cmd" in
     tests/benchmarks/run_benchmarks.sh build
     ;;
   *)
-    echo "usage: ./plumbline.sh run | test | bench | sanitize | fuzz [SECONDS] | mutants [--only ID,...] [--check]" >&2
+    echo "usage: ./plumbline.sh run | test | bench | sanitize | fuzz [SECONDS] | mutants [--only ID,...] [--skip RE] [--check]" >&2
     exit 2
     ;;
 esac
