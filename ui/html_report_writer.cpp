@@ -1,6 +1,7 @@
 #include "report_writers.hpp"
 
 #include "atomic_file.hpp"
+#include "printable_text.hpp"
 #include "report_closing_html.hpp"
 
 #include <QString>
@@ -19,7 +20,15 @@ QString inlineSvg(const QByteArray& svg)
 {
     QString text = QString::fromUtf8(svg);
     const qsizetype start = text.indexOf(QStringLiteral("<svg"));
-    return start >= 0 ? text.mid(start) : QString();
+    text = start >= 0 ? text.mid(start) : QString();
+    // Labels from the data (subgroup levels) may carry bidirectional controls: shown, not obeyed.
+    QString out;
+    for (const QChar c : text) {
+        const char16_t u = c.unicode();
+        const bool bidi = (u >= 0x202A && u <= 0x202E) || (u >= 0x2066 && u <= 0x2069) || u == 0x200E || u == 0x200F || u == 0x061C;
+        out += bidi ? QStringLiteral("&lt;U+%1&gt;").arg(int(u), 4, 16, QLatin1Char('0')).toUpper().replace(QStringLiteral("&LT;"), QStringLiteral("&lt;")).replace(QStringLiteral("&GT;"), QStringLiteral("&gt;")) : QString(c);
+    }
+    return out;
 }
 
 QString tableHtml(const ReportTable& table)
@@ -68,7 +77,8 @@ std::expected<void, InputError> writeHtmlReport(const ReportDocument& document, 
             html += QStringLiteral("<p>%1</p>").arg(escaped(paragraph));
         for (ReportChart chart : section.charts)
             html += QStringLiteral("<figure class=\"chart\">%1<figcaption>%2</figcaption></figure>")
-                        .arg(inlineSvg(charts.svg(chart)), charts.caption(chart).toHtmlEscaped());
+                        .arg(inlineSvg(charts.svg(chart)),
+                             QString::fromStdString(withVisibleBidiControls(charts.caption(chart).toStdString())).toHtmlEscaped());
         for (const auto& table : section.tables)
             html += tableHtml(printedRows(table));
         html += closingHtml(section.closing);

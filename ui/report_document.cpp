@@ -606,8 +606,9 @@ void makeBidiControlsVisible(ReportDocument& d)
     visible(d.subtitle);
     for (auto& section : d.sections) {
         visible(section.title);
-        for (auto& paragraph : section.paragraphs)
-            visible(paragraph);
+        for (auto* paragraphs : {&section.paragraphs, &section.closing})
+            for (auto& paragraph : *paragraphs)
+                visible(paragraph);
         for (auto& table : section.tables) {
             visible(table.title);
             visible(table.note);
