@@ -25,7 +25,8 @@ inline CheckData toy20B()
 }
 
 // HM-109: Hanley & McNeil (1982, Radiology 143:29) Table 1, ratings 1-5 of 109 CT images; the
-// counts come from a transcription of that table (docs/methods.md §2).
+// counts are as commonly reprinted from that table, not re-checked against the printed paper
+// (docs/methods.md §2).
 inline CheckData hm109()
 {
     const int normal[5] = {33, 6, 6, 11, 2};

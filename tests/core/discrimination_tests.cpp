@@ -10,7 +10,7 @@ using Catch::Matchers::WithinAbs;
 
 // Check values: docs/methods.md §3-§4, computed with scikit-learn 1.2.1 roc_auc_score, numpy,
 // scipy 1.10 and R 4.2.2; DeLong, DeLong & Clarke-Pearson 1988 (S10/S01 components from memory);
-// HM-109 data from a transcription of Hanley & McNeil 1982, Table 1.
+// HM-109 data: Hanley & McNeil 1982, Table 1, as commonly reprinted (not re-checked against the paper).
 TEST_CASE("C statistic matches the Toy-20 HM-109 and Gen-1000 check values", "[discrimination]")
 {
     const auto a = toy20A(), b = toy20B(), hm = hm109(), gen = gen1000();
