@@ -103,7 +103,8 @@ int writeReports(const ValidateOptions& options, const ReportDocument& document,
         std::unique_ptr<QApplication> application;
         if (!QApplication::instance())
             application = std::make_unique<QApplication>(argc, argv);
-        ReportCharts charts(snapshot);
+        // Charts drawn from what the report may show: nothing the small-cell rule withholds.
+        ReportCharts charts(snapshotForReport(*snapshot, snapshot->request.minimumCell));
         for (const auto& reportFile : options.reportFiles) {
             if (auto written = writeReport(document, charts, reportFile); !written)
                 return reportError(written.error());

@@ -156,7 +156,7 @@ void comparisonFindings(const ValidationResult& r, const std::string& section, s
 } // namespace
 
 DecisionSummary summariseForDecision(const Cohort& cohort, const ValidationResult& result, double decisionThreshold,
-                                     const DecisionSections& sections)
+                                     const DecisionSections& sections, const std::vector<bool>& netBenefitWithheld)
 {
     DecisionSummary out;
     out.patients = cohort.rows();
@@ -165,12 +165,20 @@ DecisionSummary summariseForDecision(const Cohort& cohort, const ValidationResul
     out.decisionThreshold = decisionThreshold;
     for (std::size_t m = 0; m < result.models.size() && m < cohort.models.size(); ++m)
         out.models.push_back(summariseModel(cohort, m, result.models[m], decisionThreshold));
+    for (std::size_t m = 0; m < out.models.size() && m < netBenefitWithheld.size(); ++m)
+        if (netBenefitWithheld[m] && out.models[m].netBenefit) {
+            out.models[m].netBenefit.reset();
+            out.models[m].netBenefitWithheld = true;
+        }
     for (const auto& m : out.models) {
         if (m.c.value)
             out.findings.push_back({m.name + ": " + metricReading("c_statistic", m.c) + " (" + stated("C", m.c, 3) + ").", sections.results});
         if (m.risks) {
             calibrationFindings(m, sections.results, out.findings);
             usefulnessFinding(m, decisionThreshold, sections.results, out.findings);
+            if (m.netBenefitWithheld)
+                out.findings.push_back({"At the decision threshold " + fixedText(decisionThreshold, 2) + ", the net benefit of " + m.name
+                                            + " is withheld: a count behind it is below the small-cell minimum.", sections.results});
         }
     }
     comparisonFindings(result, sections.comparisons, out.findings);

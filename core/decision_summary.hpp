@@ -21,6 +21,7 @@ struct DecisionSummaryModel {
     std::optional<double> netBenefit;      // at the decision threshold, risk >= t flagged
     std::optional<double> netBenefitTreatAll;
     double flagged = 0.0;                  // share of patients flagged at the decision threshold
+    bool netBenefitWithheld = false;       // a count behind it is suppressed in the report
 };
 
 // A finding in plain words and the report section that shows it.
@@ -39,13 +40,15 @@ struct DecisionSummary {
 
 // The findings are judged on the reported intervals, as the readings are: a difference is a
 // finding only when its interval excludes no difference. `sections` name where each kind of
-// result is shown (results, subgroups, comparisons), so each finding can point to it.
+// result is shown (results, subgroups, comparisons), so each finding can point to it. Where
+// `netBenefitWithheld[m]`, model m's net benefit (and share flagged) at the threshold is left out
+// and the findings say so: a report's small-cell rule withholds it.
 struct DecisionSections {
     std::string results = "Results";
     std::string subgroups = "Subgroups";
     std::string comparisons = "Comparisons";
 };
 DecisionSummary summariseForDecision(const Cohort& cohort, const ValidationResult& result, double decisionThreshold,
-                                     const DecisionSections& sections = {});
+                                     const DecisionSections& sections = {}, const std::vector<bool>& netBenefitWithheld = {});
 
 } // namespace plumbline

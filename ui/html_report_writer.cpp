@@ -75,7 +75,7 @@ std::expected<void, InputError> writeHtmlReport(const ReportDocument& document, 
         html += QStringLiteral("<h2>%1</h2>").arg(escaped(section.title));
         for (const auto& paragraph : section.paragraphs)
             html += QStringLiteral("<p>%1</p>").arg(escaped(paragraph));
-        for (ReportChart chart : section.charts)
+        for (const ReportChartRef& chart : section.charts)
             html += QStringLiteral("<figure class=\"chart\">%1<figcaption>%2</figcaption></figure>")
                         .arg(inlineSvg(charts.svg(chart)),
                              QString::fromStdString(withVisibleBidiControls(charts.caption(chart).toStdString())).toHtmlEscaped());

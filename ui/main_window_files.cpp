@@ -133,7 +133,7 @@ bool MainWindow::exportReport(const QString& path, QString* error)
     if (!refuseInputs(path, error))
         return false;
     const ReportDocument document = buildReport(*m_snapshot, m_snapshot->request.report, m_snapshot->request.minimumCell, utcTimestamp());
-    ReportCharts charts(m_snapshot, m_threshold->threshold());
+    ReportCharts charts(snapshotForReport(*m_snapshot, m_snapshot->request.minimumCell), m_threshold->threshold());
     return reportResult(writeReport(document, charts, path.toStdString()), error);
 }
 

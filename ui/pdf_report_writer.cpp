@@ -83,14 +83,14 @@ public:
 
     // One chart a row at the full text width, so that its text prints at about 8 pt or more
     // (the chart is drawn at ReportCharts::logicalSize() and scaled), each with its caption.
-    void charts(ReportCharts& charts, const std::vector<ReportChart>& which)
+    void charts(ReportCharts& charts, const std::vector<ReportChartRef>& which)
     {
         const double gap = lineHeight();
         const double width = m_area.width();
         const QSize logical = ReportCharts::logicalSize();
         const double height = width * logical.height() / logical.width();
         const double captionHeight = 2.2 * lineHeight();
-        for (ReportChart chart : which) {
+        for (const ReportChartRef& chart : which) {
             fit(height + captionHeight);
             const QRectF box(m_area.left(), m_y, width, height);
             charts.draw(chart, &m_painter, box);

@@ -22,7 +22,9 @@ public:
 
     void setSnapshot(SnapshotPointer snapshot);
     QString noteText() const;
+    PeriodChartView* cChart() const { return m_c; }
     PeriodChartView* oeChart() const { return m_oe; }
+    QComboBox* modelPicker() const { return m_model; }
     void resetLayout();
 
 private:

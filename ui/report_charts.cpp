@@ -4,12 +4,15 @@
 #include "decision_curve_view.hpp"
 #include "funnel_chart_view.hpp"
 #include "forest_chart_view.hpp"
+#include "level_calibration_view.hpp"
 #include "period_chart_view.hpp"
 #include "period_panel.hpp"
 #include "subgroup_panel.hpp"
 #include "roc_chart_view.hpp"
 
 #include <QComboBox>
+#include <QCoreApplication>
+#include <QEvent>
 #include <QDir>
 
 #include <utility>
@@ -35,39 +38,74 @@ ReportCharts::ReportCharts(const SnapshotPointer& snapshot, std::optional<double
     m_decision->setThreshold(m_threshold);
 }
 
-ExportableChartView* ReportCharts::view(ReportChart chart) const
+ExportableChartView* ReportCharts::view(const ReportChartRef& chart) const
 {
-    switch (chart) {
+    // Qt Charts deletes the old axes' drawing items later: without letting it, a chart drawn
+    // again for another column keeps the previous column's labels.
+    auto settled = [](ExportableChartView* v) {
+        QCoreApplication::sendPostedEvents(nullptr, QEvent::DeferredDelete);
+        return v;
+    };
+    auto subgroup = [&](auto* v) -> ExportableChartView* {
+        m_subgroups->picker()->setCurrentIndex(chart.choice);
+        return settled(v);
+    };
+    auto overTime = [&](auto* v) -> ExportableChartView* {
+        m_periods->modelPicker()->setCurrentIndex(chart.choice);
+        return settled(v);
+    };
+    switch (chart.kind) {
     case ReportChart::Roc: return m_roc.get();
     case ReportChart::Calibration: return m_calibration.get();
     case ReportChart::DecisionCurve: return m_decision.get();
-    case ReportChart::SubgroupSlope: return m_subgroups->slopeChart();
-    case ReportChart::SubgroupFunnel: return m_subgroups->funnelChart();
-    case ReportChart::OverTime: return m_periods->oeChart();
+    case ReportChart::SubgroupC: return subgroup(m_subgroups->cChart());
+    case ReportChart::SubgroupOe: return subgroup(m_subgroups->oeChart());
+    case ReportChart::SubgroupSlope: return subgroup(m_subgroups->slopeChart());
+    case ReportChart::SubgroupCalibration: return subgroup(m_subgroups->levelCalibrationChart());
+    case ReportChart::SubgroupFunnel: return subgroup(m_subgroups->funnelChart());
+    case ReportChart::OverTimeC: return overTime(m_periods->cChart());
+    case ReportChart::OverTimeOe: return overTime(m_periods->oeChart());
     }
     return m_roc.get();
 }
 
-QString ReportCharts::caption(ReportChart chart) const
+QString ReportCharts::caption(const ReportChartRef& chart) const
 {
     const QString t = QString::number(m_threshold, 'f', 2);
-    const QString subgroup = m_subgroups->picker()->count() > 0 ? m_subgroups->picker()->itemText(0) : QString();
-    const QString model = m_snapshot && !m_snapshot->validation.models.empty()
-        ? QString::fromStdString(m_snapshot->validation.models.front().name) : QString();
-    switch (chart) {
+    // "hospital - supplier_score": the column and model the subgroup chart shows.
+    const QString subgroup = chart.choice < m_subgroups->picker()->count()
+        ? m_subgroups->picker()->itemText(chart.choice).replace(QStringLiteral(" — "), QStringLiteral(", model "))
+        : QString();
+    const QString model = m_snapshot && chart.choice < int(m_snapshot->validation.models.size())
+        ? QString::fromStdString(m_snapshot->validation.models[std::size_t(chart.choice)].name) : QString();
+    const QString withheld = QStringLiteral(" Levels too small to estimate, or whose counts are suppressed, are drawn without a value.");
+    switch (chart.kind) {
     case ReportChart::Roc: return QStringLiteral("ROC curve of each model; the dots mark the decision threshold %1.").arg(t);
     case ReportChart::Calibration:
         return QStringLiteral("Observed against predicted risk: smoothed curve, risk groups with intervals and the risk "
-                              "distribution beneath; the line marks the decision threshold %1.").arg(t);
+                              "distribution beneath; the line marks the decision threshold %1. Risk groups whose counts are "
+                              "suppressed are not drawn.").arg(t);
     case ReportChart::DecisionCurve:
         return QStringLiteral("Net benefit by threshold against treating everyone and no one; the line marks the decision "
-                              "threshold %1.").arg(t);
+                              "threshold %1. Thresholds where a count behind the net benefit is suppressed are left out.").arg(t);
+    case ReportChart::SubgroupC:
+        return QStringLiteral("C statistic per level (%1) with intervals; the dashed line is the whole cohort's.").arg(subgroup) + withheld;
+    case ReportChart::SubgroupOe:
+        return QStringLiteral("Observed / expected per level (%1) with intervals; 1 is ideal, the dashed line is the whole "
+                              "cohort's.").arg(subgroup) + withheld;
     case ReportChart::SubgroupSlope:
-        return QStringLiteral("Calibration slope per level (%1) with intervals; 1 is ideal, the band is the whole cohort's.").arg(subgroup);
+        return QStringLiteral("Calibration slope per level (%1) with intervals; 1 is ideal, the dashed line is the whole "
+                              "cohort's.").arg(subgroup) + withheld;
+    case ReportChart::SubgroupCalibration:
+        return QStringLiteral("Smoothed calibration curve of each level (%1); the dashed diagonal is perfect calibration.").arg(subgroup)
+            + withheld;
     case ReportChart::SubgroupFunnel:
         return QStringLiteral("O/E per level (%1) against expected events, with 95 % and 99.8 % control limits.").arg(subgroup);
-    case ReportChart::OverTime:
-        return QStringLiteral("O/E by period for %1, oldest first; the band is the first year's interval.").arg(model);
+    case ReportChart::OverTimeC:
+        return QStringLiteral("C statistic by period for %1, oldest first; the band is the first year's interval.").arg(model);
+    case ReportChart::OverTimeOe:
+        return QStringLiteral("O/E by period for %1, oldest first; the band is the first year's interval. Periods whose counts "
+                              "are suppressed are drawn without a value.").arg(model);
     }
     return {};
 }
@@ -79,12 +117,12 @@ double ReportCharts::markedThreshold() const
     return m_calibration->thresholdLineX();
 }
 
-void ReportCharts::draw(ReportChart chart, QPainter* painter, const QRectF& target)
+void ReportCharts::draw(const ReportChartRef& chart, QPainter* painter, const QRectF& target)
 {
     view(chart)->renderInto(painter, target, logicalSize());
 }
 
-QByteArray ReportCharts::svg(ReportChart chart)
+QByteArray ReportCharts::svg(const ReportChartRef& chart)
 {
     return view(chart)->svg(logicalSize());
 }

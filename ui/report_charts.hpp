@@ -36,15 +36,16 @@ public:
     // Drawn at this size and scaled to the page's text width (about 170 mm), Qt's default chart
     // fonts print at about 8 pt.
     static QSize logicalSize() { return {620, 380}; }
-    void draw(ReportChart chart, QPainter* painter, const QRectF& target);
-    QByteArray svg(ReportChart chart);
-    // What the chart shows and the threshold it marks, printed under it.
-    QString caption(ReportChart chart) const;
+    void draw(const ReportChartRef& chart, QPainter* painter, const QRectF& target);
+    QByteArray svg(const ReportChartRef& chart);
+    // What the chart shows (which column and model) and the threshold it marks, printed under it.
+    QString caption(const ReportChartRef& chart) const;
     // roc.png, roc.svg, calibration.png, calibration.svg into a folder (created if needed).
     bool exportAll(const QString& folder, QString* error);
 
 private:
-    ExportableChartView* view(ReportChart chart) const;
+    // The view showing the chart, switched to its column and model.
+    ExportableChartView* view(const ReportChartRef& chart) const;
 
     SnapshotPointer m_snapshot;
     double m_threshold = 0.2;

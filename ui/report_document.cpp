@@ -2,6 +2,7 @@
 
 #include "cautions.hpp"
 #include "decision_summary.hpp"
+#include "disclosure_plan.hpp"
 #include "interval_choice.hpp"
 #include "metric_definitions.hpp"
 #include "metric_reading.hpp"
@@ -48,12 +49,27 @@ ReportCell pCell(double p)
     return {text, p, false};
 }
 
-// Counts below the small-cell threshold are suppressed (zero is not: it reveals nobody).
-ReportCell countCell(std::size_t count, std::size_t minimumCell)
+// A count as the disclosure plan shows it: "<11" when it is small, "suppressed" when it would
+// reveal a small one, else itself (zero is shown: it reveals nobody).
+ReportCell countCell(const CountShown& count, std::size_t minimumCell)
 {
-    if (count > 0 && count < minimumCell)
+    if (count.primary)
         return {"<" + std::to_string(minimumCell), std::nullopt, true};
+    if (count.suppressed)
+        return {"suppressed", std::nullopt, true};
+    return {std::to_string(count.value), double(count.value), false};
+}
+
+// A count the small-cell rule publishes as it is (data-quality exclusions).
+ReportCell plainCount(std::size_t count)
+{
     return {std::to_string(count), double(count), false};
+}
+
+// A number left out because it would reveal a suppressed count.
+ReportCell withheldCell()
+{
+    return {"withheld", std::nullopt, true};
 }
 
 int digitsFor(const std::string& key)
@@ -126,16 +142,17 @@ std::string documentIdOf(const AnalysisSnapshot& s)
 
 // Page 1: what was validated, on whom, the key numbers per model side by side, the findings in
 // plain words with the section that shows each, every warning and the cautions.
-ReportSection decisionSummarySection(const AnalysisSnapshot& s, const ReportFields& f, const std::string& created)
+ReportSection decisionSummarySection(const AnalysisSnapshot& s, const ValidationResult& v, const DisclosurePlan& plan,
+                                     const ReportFields& f, const std::string& created)
 {
     ReportSection section{"1. Decision summary", {}, {}, {}, {}, true};
     auto stated = [](const std::string& value) { return value.empty() ? std::string("(not stated - fill in before sign-off)") : value; };
     section.paragraphs.push_back("Model and version: " + stated(f.model) + ". Outcome and horizon: " + stated(f.outcome)
                                  + ". Population: " + stated(f.population) + ". Period: " + stated(f.period) + ".");
-    const ValidationResult& v = s.validation;
     const double threshold = s.request.panel.decisionThreshold;
     DecisionSections where{"section 4", "section 6", "section 5"};
-    const DecisionSummary summary = s.cohort ? summariseForDecision(*s.cohort, v, threshold, where) : DecisionSummary{};
+    const DecisionSummary summary = s.cohort ? summariseForDecision(*s.cohort, v, threshold, where, plan.decisionThresholdWithheld)
+                                             : DecisionSummary{};
     section.paragraphs.push_back("Cohort: " + std::to_string(summary.patients) + " patients, " + std::to_string(summary.events)
                                  + " with the event (event rate " + fixed(100.0 * summary.eventRate, 1) + " %). Report created "
                                  + created + " with Plumbline " + versionString + ".");
@@ -166,6 +183,8 @@ ReportSection decisionSummarySection(const AnalysisSnapshot& s, const ReportFiel
         return m.risks ? ReportCell{fixed(m.meanRisk, 3), m.meanRisk, false} : textCell("not a risk");
     });
     row("Net benefit at " + fixed(threshold, 2) + " (treat all)", [&](const DecisionSummaryModel& m) {
+        if (m.netBenefitWithheld)
+            return withheldCell();
         return m.netBenefit ? ReportCell{fixed(*m.netBenefit, 4) + " (" + fixed(*m.netBenefitTreatAll, 4) + ")", *m.netBenefit, false}
                             : textCell("not a risk");
     });
@@ -189,7 +208,7 @@ ReportSection decisionSummarySection(const AnalysisSnapshot& s, const ReportFiel
     return section;
 }
 
-ReportSection provenanceSection(const AnalysisSnapshot& s, std::size_t minimumCell)
+ReportSection provenanceSection(const AnalysisSnapshot& s)
 {
     ReportSection section{"2. Data provenance", {}, {}, {}, {}, false};
     ReportTable inputs{"inputs", "Input files", {"Role", "File", "SHA-256", "Data rows"}, {}, {}, {}};
@@ -206,11 +225,11 @@ ReportSection provenanceSection(const AnalysisSnapshot& s, std::size_t minimumCe
     ReportTable exclusions{"exclusions", "Rows excluded, by reason", {"Reason", "Column", "Rows"}, {}, {}, {}};
     for (const auto& tally : a.exclusions)
         exclusions.rows.push_back({textCell(exclusionReasonText(tally.reason)), textCell(tally.column.empty() ? "-" : tally.column),
-                                   countCell(tally.rows, minimumCell)});
+                                   plainCount(tally.rows)});
     if (exclusions.rows.empty())
         exclusions.rows.push_back({textCell("none"), textCell("-"), {"0", 0.0, false}});
-    exclusions.note = "Each excluded row counts once, under the first reason that applies. Counts below "
-        + std::to_string(minimumCell) + " are suppressed.";
+    exclusions.note = "Each excluded row counts once, under the first reason that applies. Data-quality counts, not patient "
+                      "cells: shown as they are.";
     section.tables.push_back(exclusions);
     if (a.join)
         section.paragraphs.push_back("Scores and outcomes joined on the id: " + std::to_string(a.join->matched) + " matched; "
@@ -219,7 +238,7 @@ ReportSection provenanceSection(const AnalysisSnapshot& s, std::size_t minimumCe
     return section;
 }
 
-ReportSection settingsSection(const AnalysisSnapshot& s, std::size_t minimumCell)
+ReportSection settingsSection(const AnalysisSnapshot& s, const DisclosurePlan& plan)
 {
     const AnalysisRequest& r = s.request;
     ReportSection section{"3. Settings", {}, {}, {}, {}, false};
@@ -272,24 +291,30 @@ ReportSection settingsSection(const AnalysisSnapshot& s, std::size_t minimumCell
     row("Bootstrap seed", std::to_string(r.bootstrap.seed));
     row("Bootstrap interval", r.bootstrap.replicates > 0 ? bootstrapCiLabel(r.bootstrap.method) + (r.bootstrap.stratified ? ", stratified" : "")
                                                           : "none (analytic only)");
-    row("Small-cell rule", "counts below " + std::to_string(minimumCell) + " suppressed");
+    row("Small-cell rule", "counts of 1 to " + std::to_string(plan.minimumCell - 1)
+                               + " suppressed, with complementary suppression across the report (section 8)");
     row("Software", std::string("Plumbline ") + versionString);
     row("Document id (inputs' SHA-256 and these settings)", documentIdOf(s));
     section.tables.push_back(t);
     return section;
 }
 
-ReportSection resultsSection(const AnalysisSnapshot& s, std::size_t minimumCell)
+ReportSection resultsSection(const AnalysisSnapshot& s, const ValidationResult& shown, const DisclosurePlan& plan)
 {
     const ValidationResult& v = s.validation;
-    ReportSection section{"4. Results", {}, {}, {ReportChart::Roc, ReportChart::Calibration, ReportChart::DecisionCurve}, {}, false};
+    const std::size_t minimumCell = plan.minimumCell;
+    ReportSection section{"4. Results", {}, {}, {{ReportChart::Roc}, {ReportChart::Calibration}, {ReportChart::DecisionCurve}}, {}, false};
     section.tables.push_back(metricTable("discrimination", "Discrimination", v, {CStatistic, Auprc, DiscriminationSlope}));
     section.tables.push_back(metricTable("calibration", "Calibration", v,
                                          {CalibrationIntercept, CalibrationSlope, RecalibrationIntercept, OeRatio, Ici, E50, E90, Emax}));
     section.tables.push_back(metricTable("overall_accuracy", "Overall accuracy", v, {Brier, ScaledBrier, LogLoss, NagelkerkeR2}));
     ReportTable tests{"calibration_tests", "Calibration tests", {"Model", "Test", "Statistic", "df", "p-value"}, {}, {}, {}};
-    for (const auto& m : v.models) {
-        if (m.hosmerLemeshow)
+    for (std::size_t k = 0; k < v.models.size(); ++k) {
+        const ModelValidation& m = v.models[k];
+        if (m.hosmerLemeshow && !shown.models[k].hosmerLemeshow)
+            tests.rows.push_back({textCell(m.name), textCell("Hosmer-Lemeshow (df = groups: external validation)"), withheldCell(),
+                                  withheldCell(), withheldCell()});
+        else if (m.hosmerLemeshow)
             tests.rows.push_back({textCell(m.name), textCell("Hosmer-Lemeshow (df = groups: external validation)"),
                                   numberCell(m.hosmerLemeshow->statistic, 2), {std::to_string(m.hosmerLemeshow->df), double(m.hosmerLemeshow->df), false},
                                   pCell(m.hosmerLemeshow->pValue)});
@@ -303,36 +328,51 @@ ReportSection resultsSection(const AnalysisSnapshot& s, std::size_t minimumCell)
     tests.note = "Large cohorts reject clinically unimportant miscalibration: read the risk-group table and the curve.";
     section.tables.push_back(tests);
     ReportTable groups{"risk_groups", "Risk groups", {"Model", "Group", "Patients", "Events", "Expected", "Mean predicted", "Observed", "Interval"}, {}, {}, {}};
-    for (const auto& m : v.models)
-        for (const auto& g : m.riskGroups) {
-            const bool small = g.n < minimumCell || g.events < minimumCell || g.n - g.events < minimumCell;
-            groups.rows.push_back({textCell(m.name), {std::to_string(g.group), double(g.group), false}, countCell(g.n, minimumCell),
-                                   countCell(g.events, minimumCell), numberCell(g.expected, 1), numberCell(g.meanPredicted, 4),
-                                   small ? ReportCell{"suppressed", std::nullopt, true} : numberCell(g.observedRate, 4),
-                                   small ? ReportCell{"suppressed", std::nullopt, true} : rangeCell(g.ciLower, g.ciUpper, 4)});
+    for (std::size_t k = 0; k < v.models.size(); ++k)
+        for (std::size_t i = 0; i < v.models[k].riskGroups.size(); ++i) {
+            const RiskGroup& g = v.models[k].riskGroups[i];
+            // Expected = patients x mean predicted, and the rate and its interval give the events.
+            const bool withheld = plan.riskGroupWithheld(k, i);
+            groups.rows.push_back({textCell(v.models[k].name), {std::to_string(g.group), double(g.group), false},
+                                   countCell(plan.riskGroups[k][i][0], minimumCell), countCell(plan.riskGroups[k][i][1], minimumCell),
+                                   withheld ? withheldCell() : numberCell(g.expected, 1), numberCell(g.meanPredicted, 4),
+                                   withheld ? withheldCell() : numberCell(g.observedRate, 4),
+                                   withheld ? withheldCell() : rangeCell(g.ciLower, g.ciUpper, 4)});
         }
-    groups.note = "Groups of about equal size by predicted risk; equal risks are never split. Counts below "
-        + std::to_string(minimumCell) + " (and proportions built on them) are suppressed.";
+    groups.note = "Groups of about equal size by predicted risk; equal risks are never split. Where a count is suppressed, the "
+                  "expected events, rate and interval that would reveal it are withheld (section 8).";
     section.tables.push_back(groups);
     ReportTable thresholds{"thresholds", "Decision thresholds and net benefit (positive if risk >= threshold)",
                            {"Model", "Threshold", "TP", "FP", "TN", "FN", "Sensitivity", "Specificity", "PPV", "NPV", "Flagged",
                             "Net benefit", "Treat all"}, {}, {}, {}};
-    for (const auto& m : v.models)
-        for (const auto& t : m.thresholds)
-            thresholds.rows.push_back({textCell(m.name), numberCell(t.threshold, 3), countCell(t.tp, minimumCell), countCell(t.fp, minimumCell),
-                                       countCell(t.tn, minimumCell), countCell(t.fn, minimumCell), numberCell(t.sensitivity.value, 3),
-                                       numberCell(t.specificity.value, 3), numberCell(t.ppv.value, 3), numberCell(t.npv.value, 3),
-                                       numberCell(t.flagRate.value, 3), numberCell(t.netBenefit, 4), numberCell(t.netBenefitTreatAll, 4)});
+    for (std::size_t k = 0; k < v.models.size(); ++k)
+        for (std::size_t i = 0; i < v.models[k].thresholds.size(); ++i) {
+            const ThresholdMetrics& t = v.models[k].thresholds[i];
+            const auto& counts = plan.thresholds[k][i];
+            // Every proportion and the net benefit are built on the four counts.
+            const bool withheld = plan.thresholdWithheld(k, i);
+            auto derived = [&](std::optional<double> value, int digits) { return withheld ? withheldCell() : numberCell(value, digits); };
+            thresholds.rows.push_back({textCell(v.models[k].name), numberCell(t.threshold, 3), countCell(counts[0], minimumCell),
+                                       countCell(counts[1], minimumCell), countCell(counts[2], minimumCell), countCell(counts[3], minimumCell),
+                                       derived(t.sensitivity.value, 3), derived(t.specificity.value, 3), derived(t.ppv.value, 3),
+                                       derived(t.npv.value, 3), derived(t.flagRate.value, 3), derived(t.netBenefit, 4),
+                                       numberCell(t.netBenefitTreatAll, 4)});
+        }
     section.tables.push_back(thresholds);
     ReportTable decision{"net_benefit", "Decision curve: net benefit by threshold (treat none = 0)",
                          {"Model", "Threshold", "Net benefit", "Interval", "Treat all", "Standardised", "Net reduction per 100"}, {}, {}, {}};
-    for (const auto& m : v.models)
-        for (const auto& p : m.decisionCurve) {
-            // A net reduction in interventions means something only where the model does some good.
-            decision.rows.push_back({textCell(m.name), numberCell(p.threshold, 2), numberCell(p.netBenefit, 4),
-                                     p.lower ? rangeCell(*p.lower, *p.upper, 4) : textCell("-"), numberCell(p.treatAll, 4),
-                                     numberCell(p.standardized, 4),
-                                     p.netBenefit > 0.0 ? numberCell(p.netReductionPer100, 2) : textCell("-")});
+    for (std::size_t k = 0; k < v.models.size(); ++k)
+        for (std::size_t i = 0; i < v.models[k].decisionCurve.size(); ++i) {
+            const DecisionCurvePoint& p = v.models[k].decisionCurve[i];
+            if (plan.decisionCurveWithheld[k][i])
+                decision.rows.push_back({textCell(v.models[k].name), numberCell(p.threshold, 2), withheldCell(), withheldCell(),
+                                         numberCell(p.treatAll, 4), withheldCell(), withheldCell()});
+            else
+                // A net reduction in interventions means something only where the model does some good.
+                decision.rows.push_back({textCell(v.models[k].name), numberCell(p.threshold, 2), numberCell(p.netBenefit, 4),
+                                         p.lower ? rangeCell(*p.lower, *p.upper, 4) : textCell("-"), numberCell(p.treatAll, 4),
+                                         numberCell(p.standardized, 4),
+                                         p.netBenefit > 0.0 ? numberCell(p.netReductionPer100, 2) : textCell("-")});
             const double twentieths = p.threshold * 20.0;
             decision.onlyInData.push_back(std::abs(twentieths - std::round(twentieths)) > 1e-9);
         }
@@ -343,33 +383,50 @@ ReportSection resultsSection(const AnalysisSnapshot& s, std::size_t minimumCell)
     return section;
 }
 
-ReportSection subgroupSection(const AnalysisSnapshot& s, std::size_t minimumCell)
+ReportSection subgroupSection(const AnalysisSnapshot& s, const ValidationResult& shown, const DisclosurePlan& plan)
 {
     const ValidationResult& v = s.validation;
+    const std::size_t minimumCell = plan.minimumCell;
     ReportSection section{"6. Subgroups, sites and performance over time", {}, {}, {}, {}, false};
     if (!v.subgroups && !v.periods)
         section.paragraphs.push_back("Not part of this analysis (no subgroup or period column).");
     if (v.subgroups)
-        section.charts.insert(section.charts.end(), {ReportChart::SubgroupSlope, ReportChart::SubgroupFunnel});
+        // Every column and model: forests of C, O/E and slope, the curves by level, the funnel.
+        for (std::size_t column = 0; s.cohort && column < s.cohort->groups.size(); ++column)
+            for (std::size_t m = 0; m < v.models.size(); ++m)
+                for (ReportChart kind : {ReportChart::SubgroupC, ReportChart::SubgroupOe, ReportChart::SubgroupSlope,
+                                         ReportChart::SubgroupCalibration, ReportChart::SubgroupFunnel})
+                    section.charts.push_back({kind, int(column * v.models.size() + m)});
     if (v.periods)
-        section.charts.push_back(ReportChart::OverTime);
+        for (std::size_t m = 0; m < v.models.size(); ++m)
+            for (ReportChart kind : {ReportChart::OverTimeOe, ReportChart::OverTimeC})
+                section.charts.push_back({kind, int(m)});
     if (v.subgroups) {
         ReportTable groups{"subgroups", "Performance within subgroups",
                            {"Column", "Level", "Model", "Patients", "Events", "C statistic", "C interval", "O/E", "O/E interval",
                             "Calibration slope", "Slope interval", "Scaled Brier", "Note"}, {}, {}, {}};
-        for (const auto& r : v.subgroups->results) {
+        for (std::size_t i = 0; i < v.subgroups->results.size(); ++i) {
+            const SubgroupResult& r = v.subgroups->results[i];
+            const bool withheld = plan.subgroupWithheld(i) && !r.tooSmall;
             const Estimate& c = r.panel.metrics[CStatistic].estimate;
             const Estimate& oe = r.panel.metrics[OeRatio].estimate;
             const Estimate& slope = r.panel.metrics[CalibrationSlope].estimate;
             const Estimate& brier = r.panel.metrics[ScaledBrier].estimate;
-            auto value = [&](const Estimate& e, int digits) { return numberCell(r.tooSmall ? std::nullopt : e.value, digits); };
-            auto interval = [&](const Estimate& e, int digits) { return r.tooSmall ? textCell("-") : intervalCell(e, digits); };
-            groups.rows.push_back({textCell(r.column), textCell(r.level), textCell(r.model), countCell(r.n, minimumCell),
-                                   countCell(r.events, minimumCell), value(c, 3), interval(c, 3), value(oe, 3), interval(oe, 3),
+            auto value = [&](const Estimate& e, int digits) {
+                return withheld ? withheldCell() : numberCell(r.tooSmall ? std::nullopt : e.value, digits);
+            };
+            auto interval = [&](const Estimate& e, int digits) {
+                return withheld ? withheldCell() : r.tooSmall ? textCell("-") : intervalCell(e, digits);
+            };
+            groups.rows.push_back({textCell(r.column), textCell(r.level), textCell(r.model), countCell(plan.subgroups[i][0], minimumCell),
+                                   countCell(plan.subgroups[i][1], minimumCell), value(c, 3), interval(c, 3), value(oe, 3), interval(oe, 3),
                                    value(slope, 2), interval(slope, 2), value(brier, 3),
-                                   textCell(r.tooSmall ? "too small to estimate (shown, not hidden)" : "")});
+                                   textCell(r.tooSmall  ? "too small to estimate (shown, not hidden)"
+                                            : withheld ? "counts suppressed: estimates withheld"
+                                                       : "")});
         }
-        groups.note = "Levels with fewer than " + std::to_string(minimumCell) + " patients, events or non-events are flagged and their estimates withheld.";
+        groups.note = "Levels with fewer than " + std::to_string(minimumCell) + " patients, events or non-events are flagged and their "
+                      "estimates withheld; so are those of a level whose counts are suppressed to protect another (section 8).";
         section.tables.push_back(groups);
         ReportTable het{"heterogeneity", "Do levels differ? Cochran's Q across levels", {"Column", "Model", "Metric", "Q", "df", "p-value"}, {}, {}, {}};
         for (const auto& h : v.subgroups->heterogeneity)
@@ -380,20 +437,35 @@ ReportSection subgroupSection(const AnalysisSnapshot& s, std::size_t minimumCell
                            {"Column", "Level", "Model", "Expected events", "O/E", "95 % limits", "99.8 % limits", "Signal"}, {}, {}, {}};
         for (const auto& f : v.subgroups->funnel) {
             const bool out95 = f.oe < f.lower95 || f.oe > f.upper95, out998 = f.oe < f.lower998 || f.oe > f.upper998;
-            funnel.rows.push_back({textCell(f.column), textCell(f.level), textCell(f.model), numberCell(f.expected, 1), numberCell(f.oe, 3),
-                                   rangeCell(f.lower95, f.upper95, 3),
-                                   rangeCell(f.lower998, f.upper998, 3),
-                                   textCell(out998 ? "outside 99.8 %" : out95 ? "outside 95 %" : "within")});
+            // O/E times expected events is the level's events; the limits give the expected events.
+            const bool withheld = std::none_of(shown.subgroups->funnel.begin(), shown.subgroups->funnel.end(), [&](const FunnelPoint& g) {
+                return g.column == f.column && g.level == f.level && g.model == f.model;
+            });
+            if (withheld)
+                funnel.rows.push_back({textCell(f.column), textCell(f.level), textCell(f.model), withheldCell(), withheldCell(),
+                                       withheldCell(), withheldCell(), textCell(out998 ? "outside 99.8 %" : out95 ? "outside 95 %" : "within")});
+            else
+                funnel.rows.push_back({textCell(f.column), textCell(f.level), textCell(f.model), numberCell(f.expected, 1),
+                                       numberCell(f.oe, 3), rangeCell(f.lower95, f.upper95, 3), rangeCell(f.lower998, f.upper998, 3),
+                                       textCell(out998 ? "outside 99.8 %" : out95 ? "outside 95 %" : "within")});
         }
         section.tables.push_back(funnel);
     }
     if (v.periods) {
         ReportTable periods{"periods", "Performance over time", {"Period", "Model", "Patients", "Events", "C statistic", "O/E", "O/E interval",
                                                                  "Calibration-in-the-large", "Against the first year"}, {}, {}, {}};
-        for (const auto& p : v.periods->results)
-            periods.rows.push_back({textCell(p.period), textCell(p.model), countCell(p.n, minimumCell), countCell(p.events, minimumCell),
-                                    numberCell(p.c.value, 3), numberCell(p.oe.value, 3), intervalCell(p.oe, 3),
-                                    numberCell(p.calibrationIntercept.value, 3), textCell(p.outsideFirstYear ? "outside its interval" : "")});
+        for (std::size_t i = 0; i < v.periods->results.size(); ++i) {
+            const PeriodResult& p = v.periods->results[i];
+            if (plan.periodWithheld(i))
+                periods.rows.push_back({textCell(p.period), textCell(p.model), countCell(plan.periods[i][0], minimumCell),
+                                        countCell(plan.periods[i][1], minimumCell), withheldCell(), withheldCell(), withheldCell(),
+                                        withheldCell(), textCell("")});
+            else
+                periods.rows.push_back({textCell(p.period), textCell(p.model), countCell(plan.periods[i][0], minimumCell),
+                                        countCell(plan.periods[i][1], minimumCell), numberCell(p.c.value, 3), numberCell(p.oe.value, 3),
+                                        intervalCell(p.oe, 3), numberCell(p.calibrationIntercept.value, 3),
+                                        textCell(p.outsideFirstYear ? "outside its interval" : "")});
+        }
         periods.note = v.periods->note;
         // The values every later period is compared with, so a reader can check each flag.
         ReportTable reference{"first_year", "First year's reference values (" + std::to_string(v.periods->firstYearPeriods.size())
@@ -401,7 +473,8 @@ ReportSection subgroupSection(const AnalysisSnapshot& s, std::size_t minimumCell
                               {"Model", "C statistic", "C interval", "O/E", "O/E interval", "Calibration-in-the-large", "Interval"}, {}, {}, {}};
         for (const auto& r : v.periods->firstYear)
             reference.rows.push_back({textCell(r.model), numberCell(r.c.value, 3), intervalCell(r.c, 3), numberCell(r.oe.value, 3),
-                                      intervalCell(r.oe, 3), numberCell(r.calibrationIntercept.value, 3),
+                                      plan.firstYearEventsWithheld ? withheldCell() : intervalCell(r.oe, 3),
+                                      numberCell(r.calibrationIntercept.value, 3),
                                       intervalCell(r.calibrationIntercept, 3)});
         reference.note = "A later period is flagged when the interval of its O/E or calibration-in-the-large does not overlap "
                          "the first year's.";
@@ -418,8 +491,9 @@ ReportSection subgroupSection(const AnalysisSnapshot& s, std::size_t minimumCell
     return section;
 }
 
-ReportSection comparisonSection(const AnalysisSnapshot& s, std::size_t minimumCell)
+ReportSection comparisonSection(const AnalysisSnapshot& s, const ValidationResult& shown, const DisclosurePlan& plan)
 {
+    const std::size_t minimumCell = plan.minimumCell;
     ReportSection section{"5. Comparisons and updating", {}, {}, {}, {}, false};
     const ValidationResult& v = s.validation;
     if (v.comparisons.empty() && s.updates.empty()) {
@@ -428,8 +502,15 @@ ReportSection comparisonSection(const AnalysisSnapshot& s, std::size_t minimumCe
     }
     ReportTable differences{"comparisons", "Differences between models on the same patients (B - A)",
                             {"Model A", "Model B", "Difference", "Estimate", "Interval", "Interval from", "p-value"}, {}, {}, {}};
-    for (const auto& c : v.comparisons) {
-        auto add = [&](const std::string& label, const DifferenceEstimate& d) {
+    for (std::size_t ci = 0; ci < v.comparisons.size(); ++ci) {
+        const ModelComparison& c = v.comparisons[ci];
+        auto add = [&](const std::string& label, const DifferenceEstimate& d, const DifferenceEstimate& reported) {
+            // Emptied by the small-cell rule: it would give a suppressed count.
+            if (d.estimate.value && !reported.estimate.value) {
+                differences.rows.push_back({textCell(c.modelA), textCell(c.modelB), textCell(label), withheldCell(), withheldCell(),
+                                            textCell("-"), withheldCell()});
+                return;
+            }
             differences.rows.push_back({textCell(c.modelA), textCell(c.modelB), textCell(label), numberCell(d.estimate.value, 4),
                                         intervalCell(d.estimate, 4), textCell(d.estimate.lower ? ciMethodLabel(d.estimate.ciMethod) : "-"),
                                         d.pValue ? pCell(*d.pValue) : textCell("-")});
@@ -439,10 +520,11 @@ ReportSection comparisonSection(const AnalysisSnapshot& s, std::size_t minimumCe
                 differences.note += (differences.note.empty() ? "" : " ") + c.modelB + " - " + c.modelA + ", " + label
                                     + ": the Wald interval is cut at the quantity's range.";
         };
-        for (const auto& d : c.differences)
-            add(differenceLabel(d.key), d);
+        const ModelComparison& reported = shown.comparisons[ci];
+        for (std::size_t k = 0; k < c.differences.size(); ++k)
+            add(differenceLabel(c.differences[k].key), c.differences[k], reported.differences[k]);
         for (std::size_t t = 0; t < c.netBenefitDifferences.size(); ++t)
-            add("Net benefit at " + fixed(c.netBenefitThresholds[t], 2), c.netBenefitDifferences[t]);
+            add("Net benefit at " + fixed(c.netBenefitThresholds[t], 2), c.netBenefitDifferences[t], reported.netBenefitDifferences[t]);
         ReportTable reclass{"reclassification", "Reclassification of " + c.modelB + " against " + c.modelA,
                             {"Outcome", "Category under A", "Category under B", "Patients"}, {}, {}, {}};
         const auto& r = c.reclassification;
@@ -453,8 +535,10 @@ ReportSection comparisonSection(const AnalysisSnapshot& s, std::size_t minimumCe
         };
         for (std::size_t i = 0; i < r.events.size(); ++i)
             for (std::size_t j = 0; j < r.events.size(); ++j) {
-                reclass.rows.push_back({textCell("event"), textCell(category(i)), textCell(category(j)), countCell(r.events[i][j], minimumCell)});
-                reclass.rows.push_back({textCell("no event"), textCell(category(i)), textCell(category(j)), countCell(r.nonEvents[i][j], minimumCell)});
+                reclass.rows.push_back({textCell("event"), textCell(category(i)), textCell(category(j)),
+                                        countCell(plan.reclassEvents[ci][i][j], minimumCell)});
+                reclass.rows.push_back({textCell("no event"), textCell(category(i)), textCell(category(j)),
+                                        countCell(plan.reclassNonEvents[ci][i][j], minimumCell)});
             }
         section.tables.push_back(reclass);
     }
@@ -511,9 +595,10 @@ ReportSection limitsSection(const AnalysisSnapshot& s, const ReportFields& f)
     return section;
 }
 
-ReportSection methodsSection(const AnalysisSnapshot& s)
+ReportSection methodsSection(const AnalysisSnapshot& s, const DisclosurePlan& plan)
 {
     ReportSection section{"8. Methods", {}, {}, {}, {}, false};
+    section.paragraphs.push_back(disclosureRuleText(plan));
     for (std::string_view key : panelKeys) {
         const MetricDefinition d = metricDefinition(key);
         section.paragraphs.push_back(metricLabel(key) + ": " + std::string(d.definition) + " Source: " + std::string(d.source) + ".");
@@ -622,6 +707,19 @@ void makeBidiControlsVisible(ReportDocument& d)
 }
 } // namespace
 
+DisclosurePlan disclosurePlanOf(const AnalysisSnapshot& s, std::size_t minimumCell)
+{
+    static const Cohort none;
+    return planDisclosure(s.cohort ? *s.cohort : none, s.validation, s.request.panel.decisionThreshold, minimumCell);
+}
+
+SnapshotPointer snapshotForReport(const AnalysisSnapshot& s, std::size_t minimumCell)
+{
+    auto shown = std::make_shared<AnalysisSnapshot>(s);
+    shown->validation = redactedForReport(s.validation, disclosurePlanOf(s, minimumCell));
+    return shown;
+}
+
 ReportDocument buildReport(const AnalysisSnapshot& s, const ReportFields& fields, std::size_t minimumCell,
                            const std::string& createdUtc)
 {
@@ -629,14 +727,16 @@ ReportDocument buildReport(const AnalysisSnapshot& s, const ReportFields& fields
     d.title = fields.title.empty() ? "Validation of a risk model on local data" : fields.title;
     d.subtitle = "Plumbline " + std::string(versionString) + " - " + createdUtc;
     d.documentId = documentIdOf(s);
-    d.sections.push_back(decisionSummarySection(s, fields, createdUtc));
-    d.sections.push_back(provenanceSection(s, minimumCell));
-    d.sections.push_back(settingsSection(s, minimumCell));
-    d.sections.push_back(resultsSection(s, minimumCell));
-    d.sections.push_back(comparisonSection(s, minimumCell));
-    d.sections.push_back(subgroupSection(s, minimumCell));
+    const DisclosurePlan plan = disclosurePlanOf(s, minimumCell);
+    const ValidationResult shown = redactedForReport(s.validation, plan);
+    d.sections.push_back(decisionSummarySection(s, shown, plan, fields, createdUtc));
+    d.sections.push_back(provenanceSection(s));
+    d.sections.push_back(settingsSection(s, plan));
+    d.sections.push_back(resultsSection(s, shown, plan));
+    d.sections.push_back(comparisonSection(s, shown, plan));
+    d.sections.push_back(subgroupSection(s, shown, plan));
     d.sections.push_back(limitsSection(s, fields));
-    d.sections.push_back(methodsSection(s));
+    d.sections.push_back(methodsSection(s, plan));
     d.sections.push_back(checklistSection(s, fields));
     ReportSection warnings{"10. Warnings and cautions", {}, {}, {}, {}, false};
     for (const auto& w : s.audit.warnings)
@@ -646,7 +746,8 @@ ReportDocument buildReport(const AnalysisSnapshot& s, const ReportFields& fields
     for (const auto caution : standardCautions)
         warnings.paragraphs.push_back("Caution: " + std::string(caution));
     warnings.paragraphs.push_back("Caution: this report shows aggregates only; counts below " + std::to_string(minimumCell)
-                                  + " are suppressed. Keep patient-level files inside your organisation's controls.");
+                                  + " are suppressed, with the counts and numbers that would reveal them (section 8). Keep "
+                                    "patient-level files inside your organisation's controls.");
     d.sections.push_back(warnings);
     ReportSection signOff{"11. Reviewer's notes and sign-off", {}, {}, {}, {}, false};
     signOff.paragraphs.push_back("Notes: " + (fields.notes.empty() ? std::string("(none)") : fields.notes));

@@ -2,6 +2,7 @@
 
 #include "analysis_file.hpp"
 #include "analysis_snapshot.hpp"
+#include "disclosure_plan.hpp"
 
 #include <optional>
 #include <utility>
@@ -47,15 +48,26 @@ ReportTable printedRows(const ReportTable& table);
 // empty.
 ReportTable dataColumns(const ReportTable& table);
 
-// The charts a report can hold, drawn by the window's own views. The subgroup charts show the
-// first subgroup column and model, the drift chart the first model (their captions say which).
-enum class ReportChart { Roc, Calibration, DecisionCurve, SubgroupSlope, SubgroupFunnel, OverTime };
+// The charts a report can hold, drawn by the window's own views.
+enum class ReportChart {
+    Roc, Calibration, DecisionCurve,
+    SubgroupC, SubgroupOe, SubgroupSlope, SubgroupCalibration, SubgroupFunnel, // per subgroup column and model
+    OverTimeC, OverTimeOe                                                      // per model
+};
+
+// One chart of a report: its kind and, for the subgroup charts, which column and model (the
+// window's choice index: columns in order, each with every model), for the charts over time
+// which model.
+struct ReportChartRef {
+    ReportChart kind = ReportChart::Roc;
+    int choice = 0;
+};
 
 struct ReportSection {
     std::string title;
     std::vector<std::string> paragraphs;
     std::vector<ReportTable> tables;
-    std::vector<ReportChart> charts;
+    std::vector<ReportChartRef> charts;
     std::vector<std::string> closing; // paragraphs after the tables
     bool pageBreakAfter = false;      // the next section starts a new page (printed formats)
 };
@@ -73,6 +85,11 @@ struct ReportDocument {
 
     std::vector<const ReportTable*> tables() const;
 };
+
+// The small-cell plan of a report on this snapshot (see core/disclosure_plan.hpp).
+DisclosurePlan disclosurePlanOf(const AnalysisSnapshot& s, std::size_t minimumCell);
+// The snapshot as a report's charts may draw it: what the plan withholds left out.
+SnapshotPointer snapshotForReport(const AnalysisSnapshot& s, std::size_t minimumCell);
 
 ReportDocument buildReport(const AnalysisSnapshot& snapshot, const ReportFields& fields, std::size_t minimumCell,
                            const std::string& createdUtc);

@@ -1,5 +1,7 @@
 #include "subgroup_panel.hpp"
 
+#include "level_calibration_view.hpp"
+
 #include "forest_chart_view.hpp"
 #include "funnel_chart_view.hpp"
 #include "metric_reading.hpp"
@@ -20,6 +22,7 @@ SubgroupPanel::SubgroupPanel(QWidget* parent)
     , m_c(new ForestChartView(tr("C statistic by level"), tr("C statistic")))
     , m_oe(new ForestChartView(tr("Observed / expected by level"), tr("O/E")))
     , m_slope(new ForestChartView(tr("Calibration slope by level"), tr("Calibration slope")))
+    , m_levels(new LevelCalibrationView)
     , m_funnel(new FunnelChartView)
     , m_rows(new QSplitter(Qt::Vertical))
     , m_top(new QSplitter(Qt::Horizontal))
@@ -37,9 +40,10 @@ SubgroupPanel::SubgroupPanel(QWidget* parent)
     top->addWidget(pickerLabel);
     top->addWidget(m_picker);
     top->addStretch(1);
-    // Two rows of two: the forests of C and O/E, then the slope's forest and the funnel.
+    // The forests of C and O/E and the curves by level, then the slope's forest and the funnel.
     m_top->addWidget(m_c);
     m_top->addWidget(m_oe);
+    m_top->addWidget(m_levels);
     m_bottom->addWidget(m_slope);
     m_bottom->addWidget(m_funnel);
     m_rows->addWidget(m_top);
@@ -78,8 +82,9 @@ void SubgroupPanel::setSnapshot(SnapshotPointer snapshot)
 void SubgroupPanel::resetLayout()
 {
     const int half = std::max(1, m_rows->height() / 2), across = std::max(1, m_top->width() / 2);
+    const int third = std::max(1, m_top->width() / 3);
     m_rows->setSizes({half, half});
-    m_top->setSizes({across, across});
+    m_top->setSizes({third, third, third});
     m_bottom->setSizes({across, across});
 }
 
@@ -93,6 +98,7 @@ void SubgroupPanel::showChoice(int index)
     if (index < 0 || !m_snapshot || !m_snapshot->validation.subgroups) {
         for (ForestChartView* chart : {m_c, m_oe, m_slope})
             chart->setRows({}, Estimate::undefined(), std::nullopt, 0);
+        m_levels->setCurves({});
         m_funnel->setFunnel({}, nullptr, 0);
         m_summary->setText(tr("No subgroup column was chosen. Choose one or more in File → Open (Subgroup columns), "
                               "or give --group on the command line."));
@@ -104,6 +110,7 @@ void SubgroupPanel::showChoice(int index)
     const ModelValidation& model = m_snapshot->validation.models[std::size_t(modelIndex)];
     const SubgroupAnalysis& analysis = *m_snapshot->validation.subgroups;
     std::vector<ForestRow> c, oe, slope;
+    std::vector<LevelCurve> curves;
     QStringList small;
     for (const auto& r : analysis.results) {
         if (r.column != column || r.model != model.name)
@@ -112,12 +119,14 @@ void SubgroupPanel::showChoice(int index)
         c.push_back({r.level, r.panel.metrics[CStatistic].estimate, r.tooSmall, mark});
         oe.push_back({r.level, r.panel.metrics[OeRatio].estimate, r.tooSmall, mark});
         slope.push_back({r.level, r.panel.metrics[CalibrationSlope].estimate, r.tooSmall, mark});
+        curves.push_back({r.level, r.tooSmall ? std::vector<CalibrationCurvePoint>{} : r.panel.calibrationCurve});
         if (r.tooSmall)
             small << QString::fromStdString(r.level);
     }
     m_c->setRows(c, model.metrics[CStatistic].estimate, std::nullopt, modelIndex);
     m_oe->setRows(oe, model.metrics[OeRatio].estimate, 1.0, modelIndex);
     m_slope->setRows(slope, model.metrics[CalibrationSlope].estimate, 1.0, modelIndex);
+    m_levels->setCurves(curves);
     std::vector<FunnelPoint> points;
     for (const auto& p : analysis.funnel)
         if (p.column == column && p.model == model.name)

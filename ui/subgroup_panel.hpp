@@ -12,11 +12,11 @@ namespace plumbline {
 
 class ForestChartView;
 class FunnelChartView;
+class LevelCalibrationView;
 
 // Performance within subgroups: pick a column and a model; forest charts of C, O/E and the
-// calibration slope per level
-// beside the overall value, the funnel of O/E against expected events, and the heterogeneity
-// tests. Levels too small to estimate well are drawn hollow and named, not hidden.
+// calibration slope per level beside the overall value, calibration curves by level, the funnel
+// of O/E against expected events, and the heterogeneity tests. Levels too small to estimate well are drawn hollow and named, not hidden.
 class SubgroupPanel : public QWidget {
     Q_OBJECT
 public:
@@ -25,7 +25,10 @@ public:
     void setSnapshot(SnapshotPointer snapshot);
     QComboBox* picker() const { return m_picker; }
     QString summaryText() const;
+    ForestChartView* cChart() const { return m_c; }
+    ForestChartView* oeChart() const { return m_oe; }
     ForestChartView* slopeChart() const { return m_slope; }
+    LevelCalibrationView* levelCalibrationChart() const { return m_levels; }
     FunnelChartView* funnelChart() const { return m_funnel; }
     void resetLayout();
 
@@ -37,6 +40,7 @@ private:
     ForestChartView* m_c;
     ForestChartView* m_oe;
     ForestChartView* m_slope;
+    LevelCalibrationView* m_levels;
     FunnelChartView* m_funnel;
     QSplitter* m_rows;
     QSplitter* m_top;

@@ -118,7 +118,8 @@ private slots:
             QVERIFY(!line.startsWith(QLatin1Char('=')) && !line.contains(QStringLiteral(",=")));
         const QString groups = QString::fromUtf8(slurp(dir.filePath(QStringLiteral("csv/risk_groups.csv"))));
         QVERIFY(groups.contains(QStringLiteral("<11")));
-        QVERIFY(groups.contains(QStringLiteral("suppressed")));
+        // The rate and interval beside a small count would give it back: withheld.
+        QVERIFY(groups.contains(QStringLiteral("withheld")));
         const QString workbook = dir.filePath(QStringLiteral("r.xlsx"));
         QVERIFY(writeXlsxReport(document, workbook.toStdString()).has_value());
         const QString check = QStringLiteral(
