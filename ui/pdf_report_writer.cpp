@@ -1,5 +1,7 @@
 #include "report_writers.hpp"
 
+#include "pdf_outline.hpp"
+
 #include "atomic_file.hpp"
 #include "report_closing_html.hpp"
 
@@ -255,13 +257,18 @@ std::expected<void, InputError> writePdfReport(const ReportDocument& document, R
     QByteArray bytes;
     QBuffer buffer(&bytes);
     buffer.open(QIODevice::WriteOnly);
+    std::vector<PdfBookmark> bookmarks;
     {
         QPdfWriter writer(&buffer);
         setUp(writer, document);
         std::vector<int> again;
         int total = 0;
         layOut(writer, document, charts, starts, pages, again, total);
+        for (std::size_t k = 0; k < again.size() && k < document.sections.size(); ++k)
+            bookmarks.push_back({QString::fromStdString(document.sections[k].title), again[k]});
     }
+    // Bookmarks: one per section, so a reader can jump from the outline pane.
+    bytes = withPdfOutline(bytes, bookmarks);
     return writeFileAtomically(path, std::string_view(bytes.constData(), std::size_t(bytes.size())));
 }
 

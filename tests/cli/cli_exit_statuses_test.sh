@@ -151,6 +151,43 @@ if [[ -s $work/both.pdf && -s $work/both.html ]]; then
   # ROC, calibration, decision curve; for the one subgroup column and model the forests of C, O/E
   # and slope, the curves by level and the funnel; O/E and C over time.
   [[ $svgs -eq 10 ]] && echo "ok: ten inline charts" || { echo "FAIL: $svgs inline charts, wanted 10"; failures=$((failures+1)); }
+  # Bookmarks as a PDF reader sees them (poppler's outline), one per section, and page numbers.
+  outline=$(pdftohtml -xml -i -q -stdout "$work/both.pdf" | sed -n '/<outline>/,/<\/outline>/p')
+  items=$(grep -c '<item page=' <<<"$outline")
+  grep -q '<item page="1">1. Decision summary</item>' <<<"$outline" && [[ $items -eq 11 ]] \
+    && echo "ok: the PDF has a bookmark per section" || { echo "FAIL: PDF bookmarks: $items entries"; failures=$((failures+1)); }
+  grep -q "page 1 of" "$work/both.txt" && echo "ok: page N of M" || { echo "FAIL: no 'page 1 of' in the PDF"; failures=$((failures+1)); }
+  # No internal name leaks into what people read: no key of the result JSON written with an
+  # underscore (c_statistic, bootstrap_bca...) appears in the PDF's or the HTML's text.
+  "$cli" validate "$sample" --outcome readmitted_30d --score supplier_score --group hospital --period discharge_date \
+    --bootstrap 0 --json "$work/keys.json" >/dev/null 2>&1
+  if ! /usr/bin/python3 - "$work/keys.json" "$work/both.txt" "$work/both.html" <<'PY'
+import html, json, re, sys
+keys = set()
+def walk(value):
+    if isinstance(value, dict):
+        for k, v in value.items():
+            keys.add(k)
+            walk(v)
+    elif isinstance(value, list):
+        for v in value:
+            walk(v)
+    elif isinstance(value, str) and re.fullmatch(r"[a-z]+(_[a-z0-9]+)+", value):
+        keys.add(value)  # enumerated values such as "bootstrap_bca"
+walk(json.load(open(sys.argv[1])))
+# Column names of the data are the user's own words and may be snake_case: they may appear.
+data_words = {"supplier_score", "local_score", "readmitted_30d", "discharge_date", "age_band", "encounter_id"}
+tokens = sorted(k for k in keys if "_" in k and k not in data_words)
+pdf = open(sys.argv[2], encoding="utf-8").read()
+page = open(sys.argv[3], encoding="utf-8").read()
+page = html.unescape(re.sub(r"<[^>]+>", " ", re.sub(r"<(style|svg)[^>]*>.*?</>", " ", page, flags=re.S)))
+bad = [(t, name) for t in tokens for name, text in (("PDF", pdf), ("HTML", page)) if re.search(r"" + re.escape(t) + r"", text)]
+print(f"{len(tokens)} internal names checked")
+for t, name in bad:
+    print(f"internal name {t} in the {name}")
+sys.exit(1 if bad or not tokens else 0)
+PY
+  then failures=$((failures+1)); else echo "ok: no internal name in the report's text"; fi
 else
   echo "FAIL: --report given twice did not write both files"; failures=$((failures+1))
 fi
