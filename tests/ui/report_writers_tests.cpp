@@ -1,4 +1,5 @@
 #include "analysis_snapshot.hpp"
+#include "pdf_outline.hpp"
 #include "report_writers.hpp"
 #include "result_json.hpp"
 #include "value_text.hpp"
@@ -84,6 +85,49 @@ QString pdfText(const SnapshotPointer& snapshot, const ReportDocument& document,
 class ReportWritersTests : public QObject {
     Q_OBJECT
 private slots:
+    void outlineUpdateKeepsEveryOffsetRightAndLeavesUnreadableFilesAlone()
+    {
+        // A minimal classic PDF (PDF 1.7 reference, 7.5): catalog 1, pages 2, one page 3.
+        QByteArray pdf = "%PDF-1.4\n";
+        std::vector<qsizetype> at;
+        for (const QByteArray& body : {QByteArray("<< /Type /Catalog /Pages 2 0 R >>"), QByteArray("<< /Type /Pages /Kids [3 0 R] /Count 1 >>"),
+                                       QByteArray("<< /Type /Page /Parent 2 0 R /MediaBox [0 0 10 10] >>")}) {
+            at.push_back(pdf.size());
+            pdf += QByteArray::number(qsizetype(at.size())) + " 0 obj\n" + body + "\nendobj\n";
+        }
+        const qsizetype xref = pdf.size();
+        pdf += "xref\n0 4\n0000000000 65535 f \n";
+        for (qsizetype offset : at)
+            pdf += QByteArray::number(offset).rightJustified(10, '0') + " 00000 n \n";
+        pdf += "trailer\n<< /Size 4 /Root 1 0 R >>\nstartxref\n" + QByteArray::number(xref) + "\n%%EOF\n";
+        const QByteArray marked = withPdfOutline(pdf, {{QStringLiteral("1. Summary \u00e9"), 1}});
+        QVERIFY(marked.startsWith(pdf));
+        QVERIFY(marked.contains("/Outlines 4 0 R"));
+        // UTF-16BE with its mark: "1. Summary é" keeps its accent.
+        QVERIFY(marked.contains("/Title <FEFF0031002E002000530075006D006D006100720079002000E9>"));
+        QVERIFY(marked.contains("/Prev " + QByteArray::number(xref)));
+        // Every offset of the new cross-reference section points at its object.
+        const qsizetype newXref = marked.mid(marked.lastIndexOf("startxref") + 10).trimmed().split('\n').first().toLongLong();
+        QVERIFY(marked.mid(newXref, 4) == "xref");
+        const QList<QByteArray> lines = marked.mid(newXref).split('\n');
+        int id = 0;
+        for (const QByteArray& line : lines.mid(1)) {
+            if (line.startsWith("trailer"))
+                break;
+            const QList<QByteArray> parts = line.trimmed().split(' ');
+            if (parts.size() == 2) {
+                id = parts[0].toInt();
+                continue;
+            }
+            QVERIFY2(marked.mid(parts[0].toLongLong()).startsWith(QByteArray::number(id) + " 0 obj"), line.constData());
+            ++id;
+        }
+        QCOMPARE(id, 6); // the catalog again (1), then objects 4 and 5
+        // What it cannot read comes back as it was.
+        for (const QByteArray& odd : {QByteArray(), QByteArray("not a pdf"), pdf.left(pdf.size() / 2), QByteArray("trailer startxref")})
+            QCOMPARE(withPdfOutline(odd, {{QStringLiteral("x"), 1}}), odd);
+    }
+
     void htmlIsWellFormedSelfContainedAndEscaped()
     {
         const SnapshotPointer snapshot = snapshotOf(600, 10);
