@@ -477,10 +477,11 @@ std::string disclosureRuleText(const DisclosurePlan& plan)
     const std::string minimum = std::to_string(plan.minimumCell);
     std::string text = "Small cells: a count of 1 to ";
     text += std::to_string(plan.minimumCell - 1);
-    text += " patients is shown as \"<";
+    text += " patients (below ";
     text += minimum;
-    text += "\"; further counts are shown as \"suppressed\" wherever a reader could otherwise work a small count out from "
-            "the totals, the other tables or the intervals (complementary suppression, checked across the whole report), and "
+    text += ") is shown as \"suppressed\", and so are further counts wherever a reader could otherwise work a small count "
+            "out from the totals, the other tables or the intervals (complementary suppression, checked across the whole "
+            "report; one marker for both, so the small cell cannot be told from its complement), and "
             "rates, intervals, tests and net benefits built on a suppressed count are withheld. The cohort's patients and "
             "events, rows excluded for a data-quality reason and rows without a date are shown as they are. ";
     text += std::to_string(plan.suppressedCells);

@@ -49,13 +49,12 @@ ReportCell pCell(double p)
     return {text, p, false};
 }
 
-// A count as the disclosure plan shows it: "<11" when it is small, "suppressed" when it would
-// reveal a small one, else itself (zero is shown: it reveals nobody).
-ReportCell countCell(const CountShown& count, std::size_t minimumCell)
+// A count as the disclosure plan shows it: "suppressed" when it is small or would reveal a small
+// one - one marker for both, since "<11" beside "suppressed" tells a reader which hidden cell is
+// the small one and bounds the other - else itself (zero is shown: it reveals nobody).
+ReportCell countCell(const CountShown& count, std::size_t /*minimumCell*/)
 {
-    if (count.primary)
-        return {"<" + std::to_string(minimumCell), std::nullopt, true};
-    if (count.suppressed)
+    if (count.primary || count.suppressed)
         return {"suppressed", std::nullopt, true};
     return {std::to_string(count.value), double(count.value), false};
 }

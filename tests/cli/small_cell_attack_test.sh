@@ -26,6 +26,8 @@ check() { # check NAME -- validate arguments...
 
 check sample120 -- "$sample" --outcome readmitted_30d --score supplier_score --score local_score \
   --group hospital --group age_band --period discharge_date --min-cell 120
+check sample11 -- "$sample" --outcome readmitted_30d --score supplier_score --score local_score \
+  --group hospital --group sex --period discharge_date
 check sample60 -- "$sample" --outcome readmitted_30d --score supplier_score --score local_score \
   --group hospital --group payer --period discharge_date --min-cell 60
 

@@ -35,6 +35,11 @@ def hidden(text):
     return text.startswith("<") or text == "suppressed"
 
 
+def exact(constant):
+    """Counts add up to whole numbers: a relation with a whole constant is exact (net benefit's are rounded)."""
+    return abs(constant - round(constant)) < 1e-9
+
+
 def number(text):
     try:
         return float(text)
@@ -218,6 +223,32 @@ if unknowns:
         for name, j in unknowns.items():
             if null.shape[1] == 0 or np.max(np.abs(null[j])) < 1e-9:
                 recovered.append(f"{name} solves from the printed totals")
+
+    # Bounds: counts are never negative, so a reader can also solve for the smallest and largest
+    # value each suppressed count could take (scipy's linprog over the exact relations); where
+    # they meet, the count is known.
+    from scipy.optimize import linprog
+    exact_rows, exact_rhs = [], []
+    for terms, constant in equations:
+        if not exact(constant) or any(abs(c) != 1.0 for _, c in terms):
+            continue
+        coefficients, rhs = np.zeros(len(unknowns)), float(constant)
+        for name, c in terms:
+            if name in unknowns:
+                coefficients[unknowns[name]] += c
+            else:
+                rhs -= c * known[name]
+        if np.any(coefficients):
+            exact_rows.append(coefficients)
+            exact_rhs.append(rhs)
+    if exact_rows:
+        for name, j in unknowns.items():
+            objective = np.zeros(len(unknowns))
+            objective[j] = 1.0
+            low = linprog(objective, A_eq=np.array(exact_rows), b_eq=np.array(exact_rhs), bounds=(0, None), method="highs")
+            high = linprog(-objective, A_eq=np.array(exact_rows), b_eq=np.array(exact_rhs), bounds=(0, None), method="highs")
+            if low.status == 0 and high.status == 0 and -high.fun - low.fun < 0.5:
+                recovered.append(f"{name} is pinned by its bounds to {round(low.fun)}")
 
 print(f"suppressed counts: {suppressed_total}; relations: {len(equations)}")
 for r in recovered:
