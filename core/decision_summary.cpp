@@ -80,7 +80,7 @@ void calibrationFindings(const DecisionSummaryModel& m, const std::string& secti
         const double slope = *m.calibrationSlope.value;
         const std::string how = slope < 0.8 || slope > 1.25 ? "clearly" : "slightly"; // common practice: 0.8 and 1.25
         if (excludes(m.calibrationSlope, 1.0) && slope < 1.0)
-            out.push_back({m.name + "'s risks are " + how + " too extreme: high risks too high and low risks too low ("
+            out.push_back({m.name + "'s risks are " + how + " too extreme: they spread too far from the average, so high risks run too high and low risks too low relative to the overall level ("
                                + stated("calibration slope", m.calibrationSlope, 2) + ").", section});
         else if (excludes(m.calibrationSlope, 1.0))
             out.push_back({m.name + "'s risks are " + how + " too moderate: too close to the average ("

@@ -121,7 +121,7 @@ std::string intervalRuleText()
     return "the bootstrap interval asked for, except: with fewer than 20 events or 20 non-events, or more than 1 % of draws "
            "redrawn, the analytic or exact interval where the metric has one; when BCa's bias correction is extreme (|z0| > 1) "
            "or an interval misses its estimate, the percentile interval, else the analytic one, else none; an interval of zero "
-           "width is no interval. Each metric's interval_note says when and why.";
+           "width is no interval. The tables' notes say when and why.";
 }
 
 std::string withoutDegenerateInterval(Estimate& e)

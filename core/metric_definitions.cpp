@@ -11,7 +11,7 @@ MetricDefinition metricDefinition(std::string_view key)
         {"c_statistic", {"Probability that a random patient with the event has a higher predicted risk than one without (ties count half); the area under the ROC curve. 0.5 is chance, 1 perfect ranking.",
                          "Hanley & McNeil 1982, Radiology 143:29; interval: DeLong, DeLong & Clarke-Pearson 1988, Biometrics 44:837 (fast algorithm: Sun & Xu 2014)"}},
         {"auprc", {"Average precision: precision (PPV) averaged over recall as the threshold falls. Its value for a useless score is the event rate.",
-                   "Definition as in scikit-learn's average_precision_score (step-wise, no interpolation)"}},
+                   "Definition as scikit-learn's average precision (step-wise, no interpolation)"}},
         {"discrimination_slope", {"Mean predicted risk of patients with the event minus that of patients without.",
                                   "Yates 1982, Organ Behav Hum Perform 30:132"}},
         {"calibration_intercept", {"Calibration-in-the-large: the intercept of a logistic model with logit(p) as offset. 0 is ideal; below 0 the model over-predicts on average, above 0 it under-predicts.",

@@ -198,19 +198,33 @@ void layOut(QPdfWriter& writer, const ReportDocument& document, ReportCharts& ch
                                "and does not replace, clinical and governance review; results depend on local data quality and outcome "
                                "definitions; follow local policy and regulation.</p>")
                     .arg(escaped(document.title), escaped(document.subtitle), QString::fromStdString(document.documentId)));
-    constexpr std::size_t rowsPerBlock = 24; // a table block never outgrows a page
+    constexpr std::size_t rowsPerBlock = 20; // a table block, even with two-line rows and its note, never outgrows a page
     startsOut.clear();
     for (std::size_t k = 0; k < document.sections.size(); ++k) {
         const ReportSection& section = document.sections[k];
-        layout.heading(QStringLiteral("<h2>%1</h2>").arg(escaped(section.title)), section.paragraphs.empty() && !section.charts.empty());
-        startsOut.push_back(layout.page());
+        // The heading is set in one block with what follows it (a paragraph or the first rows of a
+        // table), so it can never stand alone at the foot of a page; before a chart it asks for
+        // the chart's room.
+        QString heading = QStringLiteral("<h2>%1</h2>").arg(escaped(section.title));
+        const bool chartFirst = section.paragraphs.empty() && !section.charts.empty();
+        if (chartFirst || (section.paragraphs.empty() && section.tables.empty())) {
+            layout.heading(heading, chartFirst);
+            heading.clear();
+            startsOut.push_back(layout.page());
+        }
+        auto block = [&](const QString& html, double gapAfter) {
+            layout.html(heading + html, gapAfter);
+            if (!heading.isEmpty())
+                startsOut.push_back(layout.page());
+            heading.clear();
+        };
         for (const auto& paragraph : section.paragraphs)
-            layout.html(QStringLiteral("<p>%1</p>").arg(escaped(paragraph)), 0.1);
+            block(QStringLiteral("<p>%1</p>").arg(escaped(paragraph)), 0.1);
         layout.charts(charts, section.charts);
         for (const auto& whole : section.tables) {
             const ReportTable table = printedRows(whole);
             for (std::size_t from = 0; from < std::max<std::size_t>(table.rows.size(), 1); from += rowsPerBlock)
-                layout.html(tableHtml(table, from, std::min(table.rows.size(), from + rowsPerBlock)));
+                block(tableHtml(table, from, std::min(table.rows.size(), from + rowsPerBlock)), 0.4);
         }
         if (!section.closing.empty())
             layout.html(closingHtml(section.closing), 0.1);

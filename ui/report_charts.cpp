@@ -78,13 +78,13 @@ QString ReportCharts::caption(const ReportChartRef& chart) const
         : QString();
     const QString model = m_snapshot && chart.choice < int(m_snapshot->validation.models.size())
         ? QString::fromStdString(m_snapshot->validation.models[std::size_t(chart.choice)].name) : QString();
-    const QString withheld = QStringLiteral(" Levels too small to estimate, or whose counts are suppressed, are drawn without a value.");
+    const QString withheld = QStringLiteral(" A level without a value is too small to estimate or withheld by the small-cell rule "
+                                            "(section 8).");
     switch (chart.kind) {
     case ReportChart::Roc: return QStringLiteral("ROC curve of each model; the dots mark the decision threshold %1.").arg(t);
     case ReportChart::Calibration:
-        return QStringLiteral("Observed against predicted risk: smoothed curve, risk groups with intervals and the risk "
-                              "distribution beneath; the line marks the decision threshold %1. Risk groups whose counts are "
-                              "suppressed are not drawn.").arg(t);
+        return QStringLiteral("Observed against predicted risk: smoothed curve and risk groups with intervals; the line marks "
+                              "the decision threshold %1. Risk groups whose counts are suppressed are not drawn.").arg(t);
     case ReportChart::DecisionCurve:
         return QStringLiteral("Net benefit by threshold against treating everyone and no one; the line marks the decision "
                               "threshold %1. Thresholds where a count behind the net benefit is suppressed are left out.").arg(t);
@@ -100,7 +100,8 @@ QString ReportCharts::caption(const ReportChartRef& chart) const
         return QStringLiteral("Smoothed calibration curve of each level (%1); the dashed diagonal is perfect calibration.").arg(subgroup)
             + withheld;
     case ReportChart::SubgroupFunnel:
-        return QStringLiteral("O/E per level (%1) against expected events, with 95 % and 99.8 % control limits.").arg(subgroup);
+        return QStringLiteral("O/E per level (%1) against expected events, with 95 % and 99.8 % control limits around O/E = 1: "
+                              "a model miscalibrated overall puts every level outside them, so read it after calibration.").arg(subgroup);
     case ReportChart::OverTimeC:
         return QStringLiteral("C statistic by period for %1, oldest first; the band is the first year's interval.").arg(model);
     case ReportChart::OverTimeOe:

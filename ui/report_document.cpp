@@ -181,14 +181,16 @@ ReportSection decisionSummarySection(const AnalysisSnapshot& s, const Validation
     row("Mean predicted risk (event rate " + fixed(summary.eventRate, 3) + ")", [&](const DecisionSummaryModel& m) {
         return m.risks ? ReportCell{fixed(m.meanRisk, 3), m.meanRisk, false} : textCell("not a risk");
     });
-    row("Net benefit at " + fixed(threshold, 2) + " (treat all)", [&](const DecisionSummaryModel& m) {
+    // Brackets hold intervals everywhere else in this table: treat-all is named, not bracketed.
+    row("Net benefit at " + fixed(threshold, 2) + "; treating everyone", [&](const DecisionSummaryModel& m) {
         if (m.netBenefitWithheld)
             return withheldCell();
-        return m.netBenefit ? ReportCell{fixed(*m.netBenefit, 4) + " (" + fixed(*m.netBenefitTreatAll, 4) + ")", *m.netBenefit, false}
+        return m.netBenefit ? ReportCell{fixed(*m.netBenefit, 4) + "; treat all " + fixed(*m.netBenefitTreatAll, 4), *m.netBenefit, false}
                             : textCell("not a risk");
     });
     table.note = "Net benefit counts patients with risk >= " + fixed(threshold, 2)
-        + " as flagged (the threshold the care team will act on); treating no one has net benefit 0.";
+        + " as flagged: the decision threshold set for this analysis (--decision-threshold; 0.20 unless changed), to be confirmed "
+          "as the one the care team will act on. Treating no one has net benefit 0.";
     section.tables.push_back(table);
     section.closing.push_back("Findings");
     std::vector<std::string> told; // a warning already given as a finding is not repeated
@@ -271,7 +273,7 @@ ReportSection settingsSection(const AnalysisSnapshot& s, const DisclosurePlan& p
             out += (out.empty() ? "" : ", ") + x;
         return out.empty() ? std::string("none") : out;
     };
-    row("Decision threshold the care team will act on", fixed(r.panel.decisionThreshold, 3));
+    row("Decision threshold (confirm it is the one the care team will act on)", fixed(r.panel.decisionThreshold, 3));
     row("Decision curve thresholds (from, to, step)",
         fixed(r.panel.decisionFrom, 3) + ", " + fixed(r.panel.decisionTo, 3) + ", " + fixed(r.panel.decisionStep, 3));
     row("NRI cut-points", list(r.panel.cutPoints(), 3) + (r.panel.nriCutPoints.empty() ? " (the thresholds)" : ""));
@@ -583,7 +585,9 @@ ReportSection limitsSection(const AnalysisSnapshot& s, const ReportFields& f)
                                  "high risk and less discriminating than it is.");
     section.paragraphs.push_back("Complete cases only: " + std::to_string(a.rowsExcluded()) + " of " + std::to_string(a.rowsRead)
                                  + " rows were left out (" + std::to_string(missingOutcome) + " without an outcome, "
-                                 + std::to_string(missingScore) + " without a usable score, the rest for other reasons in section 2); "
+                                 + std::to_string(missingScore) + " without a usable score"
+                                 + (a.rowsExcluded() > missingOutcome + missingScore ? ", the rest for other reasons in section 2" : "")
+                                 + "); "
                                  "if those patients differ from the rest, the results may not hold for them.");
     if (s.validation.periods && !s.validation.periods->results.empty())
         section.paragraphs.push_back("Time: the results describe patients from " + s.validation.periods->results.front().period + " to "
@@ -622,6 +626,9 @@ ReportSection checklistSection(const AnalysisSnapshot& s, const ReportFields& f)
     ReportSection section{"9. Reporting checklist (TRIPOD, validation items)", {}, {}, {}, {}, false};
     ReportTable t{"checklist", "Every validation item and where this report covers it", {"Item", "Topic", "Status", "Where, or what to add"}, {}, {}, {}};
     const bool updated = !s.updates.empty();
+    std::string groupNames;
+    for (const auto& g : s.request.intake.groupColumns)
+        groupNames += (groupNames.empty() ? "" : ", ") + g;
     const bool subgroups = s.validation.subgroups.has_value();
     const bool periods = s.validation.periods.has_value();
     const std::string covered = "covered", partly = "partly covered", authors = "for the authors to supply";
@@ -657,7 +664,9 @@ ReportSection checklistSection(const AnalysisSnapshot& s, const ReportFields& f)
         {"20", "Implications", authors, "clinical use and further research"},
         {"21", "Supplementary information", partly, "section 3 (settings, document id); keep the analysis file"},
         {"22", "Funding", authors, "sources of funding and their role"},
-        {"-", "Fairness across groups (TRIPOD+AI)", subgroups ? covered : authors, subgroups ? "section 6 (performance by group)" : "give --group"},
+        {"-", "Fairness across groups (TRIPOD+AI)", subgroups ? partly : authors,
+         subgroups ? "section 6, for the groups analysed only (" + groupNames + "); other groups that matter are for the authors"
+                   : "give --group"},
     }};
     for (const auto& item : items)
         t.rows.push_back({textCell(item[0]), textCell(item[1]), textCell(item[2]), textCell(item[3])});
