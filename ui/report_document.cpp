@@ -623,7 +623,7 @@ ReportSection methodsSection(const AnalysisSnapshot& s, const DisclosurePlan& pl
 // the report says so.
 ReportSection checklistSection(const AnalysisSnapshot& s, const ReportFields& f)
 {
-    ReportSection section{"9. Reporting checklist (TRIPOD, validation items)", {}, {}, {}, {}, false};
+    ReportSection section{"9. Reporting checklists (TRIPOD 2015 and TRIPOD+AI 2024)", {}, {}, {}, {}, false};
     ReportTable t{"checklist", "Every validation item and where this report covers it", {"Item", "Topic", "Status", "Where, or what to add"}, {}, {}, {}};
     const bool updated = !s.updates.empty();
     std::string groupNames;
@@ -664,16 +664,81 @@ ReportSection checklistSection(const AnalysisSnapshot& s, const ReportFields& f)
         {"20", "Implications", authors, "clinical use and further research"},
         {"21", "Supplementary information", partly, "section 3 (settings, document id); keep the analysis file"},
         {"22", "Funding", authors, "sources of funding and their role"},
-        {"-", "Fairness across groups (TRIPOD+AI)", subgroups ? partly : authors,
-         subgroups ? "section 6, for the groups analysed only (" + groupNames + "); other groups that matter are for the authors"
-                   : "give --group"},
     }};
     for (const auto& item : items)
         t.rows.push_back({textCell(item[0]), textCell(item[1]), textCell(item[2]), textCell(item[3])});
     t.note = "Items of the TRIPOD statement (Collins et al. 2015) that apply to validation; the numbers are recalled, not checked "
-             "against the published checklist (from memory): check them, and the corresponding TRIPOD+AI (Collins et al. 2024) "
-             "items, before submission.";
+             "against the published checklist (from memory): check them before submission.";
     section.tables.push_back(t);
+
+    // TRIPOD+AI (Collins et al. 2024) as it applies to evaluating a model: every item, none dropped.
+    ReportTable ai{"checklist_ai", "TRIPOD+AI items for evaluating a model and where this report covers them",
+                   {"Item", "Topic", "Status", "Where, or what to add"}, {}, {}, {}};
+    const bool titled = !f.title.empty();
+    const std::vector<std::array<std::string, 4>> aiItems{{
+        {"1", "Title", titled ? covered : partly, titled ? "title block" : "a generic title: give --report-title"},
+        {"2", "Abstract", partly, "section 1 summarises the results; the abstract is for the authors"},
+        {"3a", "Healthcare context and rationale", authors, "why this model is evaluated here"},
+        {"3b", "Intended purpose, users and place in the care pathway", authors, "who acts on the score, and when"},
+        {"3c", "Known health inequalities between groups", authors, "groups at risk of worse care or worse predictions"},
+        {"4", "Objectives", authors, "state that this is an evaluation of an existing model, and of what"},
+        {"5a", "Data sources", partly, "section 2 (files and their SHA-256); describe where the data come from"},
+        {"5b", "Dates of the data", periods ? covered : partly, periods ? "section 6 (periods)" : "the period is free text in section 1"},
+        {"6a", "Setting", f.population.empty() ? authors : partly, "section 1 (population, free text)"},
+        {"6b", "Eligibility criteria", partly, "section 2 (rows excluded by reason); add the clinical criteria"},
+        {"6c", "Treatments received", authors, "treatments that may change the outcome (section 7)"},
+        {"7", "Data preparation and quality checks", covered, "section 2 (every exclusion counted by reason) and section 3 (scale)"},
+        {"8a", "Outcome definition and time horizon", f.outcome.empty() ? partly : covered, "section 1 (free text) and section 3"},
+        {"8b", "Outcome assessment (who, how)", authors, "how outcomes were recorded"},
+        {"8c", "Outcome assessment blinded to the predictors", authors, "whether assessors knew the score"},
+        {"9a", "Choice of predictors", authors, "the model's inputs (from its developers)"},
+        {"9b", "Predictor definitions and measurement", authors, "how the inputs were measured here"},
+        {"9c", "Predictor assessors' qualifications and blinding", authors, "who recorded the inputs"},
+        {"10", "Sample size", partly, "section 6 (precision achieved); plan a study with plumbline-cli plan"},
+        {"11", "Missing data", covered, "section 2 (complete cases, exclusions counted) and section 7"},
+        {"12a", "How the data were used (evaluation only)", covered, updated ? "every row evaluates the model; updates are optimism-corrected (section 5)"
+                                                                           : "every row evaluates the model; none was used to fit it"},
+        {"12b", "How predictors were handled", authors, "for the model's developers"},
+        {"12c", "Model type and fitting", authors, "for the model's developers"},
+        {"12d", "Heterogeneity across clusters (sites)", subgroups ? covered : authors,
+         subgroups ? "section 6 (Cochran's Q, funnel)" : "give --group with the site column"},
+        {"12e", "Performance measures and their intervals", covered, "sections 4 and 8"},
+        {"12f", "Model updating", updated ? covered : partly, updated ? "section 5" : "no update was made in this run"},
+        {"12g", "How the model's output is calculated", covered, "section 3 (score column and scale)"},
+        {"13", "Class imbalance", covered, "no resampling or reweighting; the event rate is in section 1"},
+        {"14", "Fairness", subgroups ? partly : authors,
+         subgroups ? "section 6, for the groups analysed only (" + groupNames + "); other groups that matter are for the authors"
+                   : "give --group"},
+        {"15", "Model output and thresholds", covered, "section 3 (decision thresholds) and section 4"},
+        {"16", "Differences between development and evaluation data", authors, "case mix, setting and outcome against the development study"},
+        {"17", "Ethics approval", authors, "approval or waiver"},
+        {"18a", "Funding", authors, "sources of funding and their role"},
+        {"18b", "Conflicts of interest", authors, "declarations"},
+        {"18c", "Protocol", authors, "where the protocol can be found"},
+        {"18d", "Registration", authors, "study registration, if any"},
+        {"18e", "Data availability", partly, "aggregates only in this report; the document id names the inputs"},
+        {"18f", "Code availability", covered, "Plumbline " + std::string(versionString) + " (open source); settings in section 3"},
+        {"19", "Patient and public involvement", authors, "how patients and the public were involved"},
+        {"20a", "Participant flow", covered, "section 2 (rows read, used, excluded)"},
+        {"20b", "Participant characteristics", partly, "section 1 (patients, events, event rate); describe the cohort"},
+        {"20c", "Comparison with the development data", authors, "case mix against the development study"},
+        {"21", "Participants and outcomes in each analysis", covered, "patients and events in sections 1, 4 and 6"},
+        {"22", "Full model specification", updated ? partly : authors, updated ? "section 5 (the updated formula); the original is the developers'"
+                                                                          : "for the model's developers"},
+        {"23a", "Performance with intervals", covered, "section 4"},
+        {"23b", "Performance in key subgroups", subgroups ? covered : authors, subgroups ? "section 6" : "give --group"},
+        {"24", "Results of model updating", updated ? covered : partly, updated ? "section 5" : "no update was made in this run"},
+        {"25", "Interpretation", partly, "section 1 (findings); the interpretation is for the authors"},
+        {"26", "Limitations", partly, "section 7 (what these data cannot show); add the study's own"},
+        {"27a", "Handling of poor-quality or missing inputs in use", partly, "section 2 shows what was excluded here; say what happens in use"},
+        {"27b", "Users' expertise and interaction", authors, "who uses the output and with what training"},
+        {"27c", "Next steps", authors, "further evaluation, impact study"},
+    }};
+    for (const auto& item : aiItems)
+        ai.rows.push_back({textCell(item[0]), textCell(item[1]), textCell(item[2]), textCell(item[3])});
+    ai.note = "Items of TRIPOD+AI (Collins et al., BMJ 2024) that apply to evaluating a model; numbers and wording are recalled, "
+              "not checked against the published checklist (from memory): check them before submission.";
+    section.tables.push_back(ai);
     return section;
 }
 

@@ -12,6 +12,7 @@
 #include <QTest>
 #include <QXmlStreamReader>
 
+#include <algorithm>
 #include <cmath>
 #include <regex>
 
@@ -298,6 +299,22 @@ private slots:
                                  "10e", "11", "12", "13a", "13b", "13c", "16", "17", "18", "19a", "19b", "20", "21", "22"})
             QVERIFY2(items.contains(QString::fromLatin1(item)), item);
         QVERIFY(checklist->note.find("from memory") != std::string::npos);
+        // TRIPOD+AI's items (from memory): 1-27 with their parts, each with a status.
+        const ReportTable* ai = nullptr;
+        for (const ReportTable* table : document.tables())
+            if (table->id == "checklist_ai")
+                ai = table;
+        QVERIFY(ai);
+        QStringList aiItems;
+        for (const auto& row : ai->rows) {
+            aiItems << QString::fromStdString(row.at(0).text);
+            const std::string& status = row.at(2).text;
+            QVERIFY2(status == "covered" || status == "partly covered" || status == "for the authors to supply", status.c_str());
+        }
+        for (int n = 1; n <= 27; ++n)
+            QVERIFY2(std::any_of(aiItems.begin(), aiItems.end(), [&](const QString& i) { return i == QString::number(n) || i.startsWith(QString::number(n) + QLatin1Char('a')); }),
+                     qPrintable(QString::number(n)));
+        QVERIFY(ai->note.find("from memory") != std::string::npos);
     }
 
     void aFailedWriteLeavesNoPartialFile()
