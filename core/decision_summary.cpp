@@ -134,9 +134,39 @@ void subgroupFindings(const ValidationResult& r, const std::string& section, std
     for (const auto& w : worst)
         out.push_back({w.model + "'s risks are " + (*w.slope.value < 1.0 ? "too extreme" : "too moderate") + " at " + w.column + " "
                            + w.level + " (" + stated("calibration slope", w.slope, 2) + ").", section});
-    if (r.periods)
+}
+
+// Drift in plain words: the period warnings, and the first year's O/E beside the latest months'.
+void periodFindings(const ValidationResult& r, const std::string& section, std::vector<DecisionFinding>& out)
+{
+    if (r.periods) {
         for (const auto& warning : r.periods->warnings)
             out.push_back({warning, section});
+        // Where the model stands now against where it started, in numbers: the first year's O/E
+        // beside the latest 12 months', judged on whether their intervals overlap.
+        const auto& p = *r.periods;
+        for (std::size_t m = 0; m < p.latestYear.size() && m < p.firstYear.size() && !p.latestYearPeriods.empty(); ++m) {
+            const Estimate& first = p.firstYear[m].oe;
+            const Estimate& latest = p.latestYear[m].oe;
+            if (!first.value || !latest.value)
+                continue;
+            const bool apart = first.lower && first.upper && latest.lower && latest.upper
+                               && (*latest.upper < *first.lower || *latest.lower > *first.upper);
+            auto span = [](const std::vector<std::string>& list) {
+                return list.front() + (list.size() > 1 ? " to " + list.back() : "");
+            };
+            auto value = [](const Estimate& e) {
+                return fixedText(*e.value, 2) + (e.lower && e.upper ? " (" + fixedText(*e.lower, 2) + " to " + fixedText(*e.upper, 2) + ")" : "");
+            };
+            const std::string direction = *latest.value < *first.value ? "fewer" : "more";
+            out.push_back({p.latestYear[m].model + ": O/E " + value(first) + " in the first year (" + span(p.firstYearPeriods) + ") and "
+                               + value(latest) + " in the latest months (" + span(p.latestYearPeriods) + ")"
+                               + (apart ? ": calibration has changed - " + direction + " events are now observed against its risks than at "
+                                              "the start; look for changes in care, coding or case mix."
+                                        : ": no clear change since the first year."),
+                           section});
+        }
+    }
 }
 
 void comparisonFindings(const ValidationResult& r, const std::string& section, std::vector<DecisionFinding>& out)
@@ -183,6 +213,7 @@ DecisionSummary summariseForDecision(const Cohort& cohort, const ValidationResul
     }
     comparisonFindings(result, sections.comparisons, out.findings);
     subgroupFindings(result, sections.subgroups, out.findings);
+    periodFindings(result, sections.subgroups, out.findings);
     return out;
 }
 

@@ -253,7 +253,7 @@ DisclosurePlan planDisclosure(const Cohort& cohort, const ValidationResult& resu
     // up to the cohort. The first year's O/E interval gives its events.
     std::map<std::string, std::array<Cell, 2>> periodCells;
     std::vector<std::array<Cell, 2>> periodResultCells;
-    std::optional<Cell> firstYearEvents;
+    std::optional<Cell> firstYearEvents, latestYearEvents;
     if (result.periods) {
         std::vector<Cell> patients, eventCells;
         for (const auto& p : result.periods->results) {
@@ -283,17 +283,23 @@ DisclosurePlan planDisclosure(const Cohort& cohort, const ValidationResult& resu
             cells.sumOf(patients, all);
             cells.sumOf(eventCells, withEvent);
         }
-        std::vector<Cell> firstYear;
-        std::size_t firstYearCount = 0;
-        for (const auto& period : result.periods->firstYearPeriods)
-            if (auto found = periodCells.find(period); found != periodCells.end()) {
-                firstYear.push_back(found->second[1]);
-                firstYearCount += cells.value(found->second[1]);
-            }
-        if (!firstYear.empty()) {
-            firstYearEvents = cells.printed(firstYearCount);
-            cells.sumOf(firstYear, *firstYearEvents);
-        }
+        // The first year's and the latest months' O/E intervals give their events: sums of periods.
+        auto pooledEvents = [&](const std::vector<std::string>& periods) -> std::optional<Cell> {
+            std::vector<Cell> parts;
+            std::size_t count = 0;
+            for (const auto& period : periods)
+                if (auto found = periodCells.find(period); found != periodCells.end()) {
+                    parts.push_back(found->second[1]);
+                    count += cells.value(found->second[1]);
+                }
+            if (parts.empty())
+                return std::nullopt;
+            const Cell pooled = cells.printed(count);
+            cells.sumOf(parts, pooled);
+            return pooled;
+        };
+        firstYearEvents = pooledEvents(result.periods->firstYearPeriods);
+        latestYearEvents = pooledEvents(result.periods->latestYearPeriods);
     }
     (void)zero;
 
@@ -355,6 +361,7 @@ DisclosurePlan planDisclosure(const Cohort& cohort, const ValidationResult& resu
     for (const auto& p : periodResultCells)
         plan.periods.push_back({shown(p[0]), shown(p[1])});
     plan.firstYearEventsWithheld = firstYearEvents && cells.suppressed(*firstYearEvents);
+    plan.latestYearEventsWithheld = latestYearEvents && cells.suppressed(*latestYearEvents);
     // As the tables show them (a subgroup level's counts once per model row).
     auto tally = [&](const CountShown& c) { plan.suppressedCells += c.suppressed ? 1 : 0; };
     for (const auto* table : {&plan.riskGroups})
@@ -463,11 +470,13 @@ ValidationResult redactedForReport(const ValidationResult& result, const Disclos
                 p.c = p.oe = p.calibrationIntercept = Estimate{};
                 p.outsideFirstYear = false;
             }
-        if (plan.firstYearEventsWithheld)
-            for (auto& reference : out.periods->firstYear) {
-                reference.oe.lower.reset();
-                reference.oe.upper.reset();
-            }
+        for (auto [withheld, references] : {std::pair{plan.firstYearEventsWithheld, &out.periods->firstYear},
+                                            std::pair{plan.latestYearEventsWithheld, &out.periods->latestYear}})
+            if (withheld)
+                for (auto& reference : *references) {
+                    reference.oe.lower.reset();
+                    reference.oe.upper.reset();
+                }
     }
     return out;
 }

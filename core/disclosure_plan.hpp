@@ -35,6 +35,7 @@ struct DisclosurePlan {
     std::vector<std::array<CountShown, 2>> subgroups;                 // [subgroup result]: patients, events
     std::vector<std::array<CountShown, 2>> periods;                   // [period result]: patients, events
     bool firstYearEventsWithheld = false;                             // the first year's O/E interval would show its events
+    bool latestYearEventsWithheld = false;                            // so would the latest months' (monthly periods)
     std::size_t suppressedCells = 0;                                  // printed counts suppressed, primary and complementary
     std::size_t unprotectable = 0;
 

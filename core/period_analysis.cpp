@@ -151,7 +151,11 @@ std::expected<PeriodAnalysis, InputError> analysePeriods(const Cohort& cohort, c
                                + (firstUnparsed.empty() ? "" : " (first such value: '" + firstUnparsed + "')") + "; they are left out of the periods.");
     // Rows by period, in time order ("2025-03" and "2025-Q1" both sort as text).
     std::map<std::string, std::vector<std::size_t>> rows;
-    std::vector<std::size_t> firstYear;
+    std::vector<std::size_t> firstYear, latestYear;
+    int lastMonth = firstMonth;
+    for (std::size_t i = 0; i < cohort.rows(); ++i)
+        lastMonth = std::max(lastMonth, levelMonth[dates.codes[i]]);
+    const int latestFrom = std::max(firstMonth + 12, lastMonth - 11);
     for (std::size_t i = 0; i < cohort.rows(); ++i) {
         const auto code = dates.codes[i];
         if (levelMonth[code] < 0)
@@ -159,6 +163,8 @@ std::expected<PeriodAnalysis, InputError> analysePeriods(const Cohort& cohort, c
         rows[*levelPeriod[code]].push_back(i);
         if (levelMonth[code] < firstMonth + 12)
             firstYear.push_back(i);
+        else if (levelMonth[code] >= latestFrom)
+            latestYear.push_back(i);
     }
     const double z = zForConfidence(confidence);
     for (std::size_t m = 0; m < cohort.models.size(); ++m) {
@@ -184,6 +190,13 @@ std::expected<PeriodAnalysis, InputError> analysePeriods(const Cohort& cohort, c
         const Estimate referenceOe = observedExpectedRatio(y, p, confidence);
         const Estimate referenceCitl = citl(y, p);
         out.firstYear.push_back({cohort.models[m].name, cStatistic(y, p, CStatisticScale::Logit, confidence), referenceOe, referenceCitl});
+        if (!latestYear.empty()) {
+            std::vector<std::uint8_t> yLatest;
+            std::vector<double> pLatest;
+            subset(latestYear, yLatest, pLatest);
+            out.latestYear.push_back({cohort.models[m].name, cStatistic(yLatest, pLatest, CStatisticScale::Logit, confidence),
+                                      observedExpectedRatio(yLatest, pLatest, confidence), citl(yLatest, pLatest)});
+        }
         for (const auto& [period, index] : rows) {
             subset(index, y, p);
             PeriodResult r;
@@ -214,9 +227,12 @@ std::expected<PeriodAnalysis, InputError> analysePeriods(const Cohort& cohort, c
             out.warnings.push_back("Model '" + cohort.models[m].name + "': calibration in the most recent period"
                                    + (recentOutside > 1 ? "s lies" : " lies") + " outside the first year's interval: the model may be drifting.");
     }
-    for (const auto& [period, index] : rows)
+    for (const auto& [period, index] : rows) {
         if (levelMonth[dates.codes[index.front()]] < firstMonth + 12)
             out.firstYearPeriods.push_back(period);
+        else if (levelMonth[dates.codes[index.front()]] >= latestFrom)
+            out.latestYearPeriods.push_back(period);
+    }
     out.note = "Drift has usual causes: a change in case mix (who is admitted and discharged), changes in care (a new "
                "programme that lowers readmissions), and changes in coding - risk scores built on diagnosis codes rise when "
                "coding becomes more intensive, without any change in the patients.";

@@ -41,6 +41,10 @@ struct PeriodAnalysis {
     std::vector<PeriodResult> results;       // by model, then period in time order
     std::vector<std::string> firstYearPeriods;
     std::vector<PeriodReference> firstYear;   // one per model
+    // The latest 12 months after the first year (all of them when fewer), pooled per model, so a
+    // reader sees where the model stands now against where it started; empty within one year.
+    std::vector<std::string> latestYearPeriods;
+    std::vector<PeriodReference> latestYear;
     std::size_t undated = 0;                 // rows without a usable date, left out here
     std::vector<std::string> warnings;
     std::string note;                        // the usual causes of drift, for the reader

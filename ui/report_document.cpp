@@ -469,16 +469,24 @@ ReportSection subgroupSection(const AnalysisSnapshot& s, const ValidationResult&
         }
         periods.note = v.periods->note;
         // The values every later period is compared with, so a reader can check each flag.
-        ReportTable reference{"first_year", "First year's reference values (" + std::to_string(v.periods->firstYearPeriods.size())
-                                                + " periods), which later periods are compared with",
-                              {"Model", "C statistic", "C interval", "O/E", "O/E interval", "Calibration-in-the-large", "Interval"}, {}, {}, {}};
-        for (const auto& r : v.periods->firstYear)
-            reference.rows.push_back({textCell(r.model), numberCell(r.c.value, 3), intervalCell(r.c, 3), numberCell(r.oe.value, 3),
-                                      plan.firstYearEventsWithheld ? withheldCell() : intervalCell(r.oe, 3),
-                                      numberCell(r.calibrationIntercept.value, 3),
-                                      intervalCell(r.calibrationIntercept, 3)});
+        ReportTable reference{"first_year", "The first year's values (which each later period is compared with) and the latest months'",
+                              {"Model", "Months", "C statistic", "C interval", "O/E", "O/E interval", "Calibration-in-the-large", "Interval"},
+                              {}, {}, {}};
+        auto span = [](const std::vector<std::string>& list) {
+            return list.empty() ? std::string("-") : list.size() == 1 ? list.front() : list.front() + " to " + list.back();
+        };
+        auto referenceRow = [&](const PeriodReference& r, const std::string& months, bool withheld) {
+            reference.rows.push_back({textCell(r.model), textCell(months), numberCell(r.c.value, 3), intervalCell(r.c, 3),
+                                      numberCell(r.oe.value, 3), withheld ? withheldCell() : intervalCell(r.oe, 3),
+                                      numberCell(r.calibrationIntercept.value, 3), intervalCell(r.calibrationIntercept, 3)});
+        };
+        for (std::size_t m = 0; m < v.periods->firstYear.size(); ++m) {
+            referenceRow(v.periods->firstYear[m], "first year (" + span(v.periods->firstYearPeriods) + ")", plan.firstYearEventsWithheld);
+            if (m < v.periods->latestYear.size())
+                referenceRow(v.periods->latestYear[m], "latest (" + span(v.periods->latestYearPeriods) + ")", plan.latestYearEventsWithheld);
+        }
         reference.note = "A later period is flagged when the interval of its O/E or calibration-in-the-large does not overlap "
-                         "the first year's.";
+                         "the first year's. The latest months are the last 12 after the first year (fewer when the data are shorter).";
         section.tables.push_back(reference);
         section.tables.push_back(periods);
     }

@@ -1,3 +1,4 @@
+#include "decision_summary.hpp"
 #include "check_datasets.hpp"
 #include "cohort_simulator.hpp"
 #include "decision_curve.hpp"
@@ -154,6 +155,39 @@ TEST_CASE("A calibrated model without drift raises no drift flag", "[periods]")
         CHECK_FALSE(r.outsideFirstYear);
     }
     CHECK(periods->warnings.empty());
+    // The latest 12 months are the second year, and agree with the first (O/E 1 by construction).
+    REQUIRE(periods->latestYearPeriods.size() == 12);
+    CHECK(periods->latestYearPeriods.front() == "2025-01");
+    CHECK(periods->latestYearPeriods.back() == "2025-12");
+    REQUIRE(periods->latestYear.size() == 1);
+    CHECK_THAT(*periods->latestYear[0].oe.value, WithinAbs(1.0, 1e-12));
+}
+
+TEST_CASE("The latest months' O/E is pooled over the last 12 months after the first year", "[periods]")
+{
+    // The sample scenario lowers readmissions from January 2025: pooled over 2025 the local
+    // model's O/E lies below the first year's interval, and the decision summary says so.
+    const auto quarters = samplePeriodsOfLocalModel(PeriodUnit::Quarter);
+    REQUIRE(quarters);
+    CHECK(quarters->latestYearPeriods == std::vector<std::string>{"2025-Q1", "2025-Q2", "2025-Q3", "2025-Q4"});
+    REQUIRE(quarters->latestYear.size() == 1);
+    CHECK(*quarters->latestYear[0].oe.upper < *quarters->firstYear[0].oe.lower);
+    // Pooling the four quarters: the same as the ratio of their summed events to summed expected.
+    double events = 0.0, expected = 0.0;
+    for (const auto& r : quarters->results)
+        if (r.period >= "2025-Q1") {
+            events += double(r.events);
+            expected += double(r.events) / *r.oe.value;
+        }
+    CHECK_THAT(*quarters->latestYear[0].oe.value, WithinAbs(events / expected, 1e-9));
+
+    ValidationResult result;
+    result.periods = *quarters;
+    const DecisionSummary summary = summariseForDecision(Cohort{}, result, 0.2);
+    const bool said = std::any_of(summary.findings.begin(), summary.findings.end(), [](const DecisionFinding& f) {
+        return f.text.find("in the latest months (2025-Q1 to 2025-Q4): calibration has changed - fewer events") != std::string::npos;
+    });
+    CHECK(said);
 }
 
 TEST_CASE("A month whose interval overlaps the first year's is not flagged", "[periods]")
