@@ -198,11 +198,17 @@ for row in table("periods"):
 if periods:
     relate([(n, 1.0) for n, _ in periods.values()], N)
     relate([(e, 1.0) for _, e in periods.values()], E)
-    first = table("first_year")
-    if first and number(first[0].get("O/E interval lower")):
-        year = sorted(periods)[:12]
-        relate([(periods[p][1], 1.0) for p in year],
-               round(events_from_interval(float(first[0]["O/E interval lower"]), float(first[0]["O/E interval upper"]))))
+    # Each reference row names its months ("first year (2024-01 to 2024-12)", "latest (…)").
+    for row in table("first_year"):
+        if number(row.get("O/E interval lower")) is None:
+            continue
+        span = re.search(r"\((\S+)(?: to (\S+))?\)", row.get("Months", ""))
+        if not span:
+            continue
+        low, high = span.group(1), span.group(2) or span.group(1)
+        months = [p for p in periods if low <= p <= high]
+        relate([(periods[p][1], 1.0) for p in months],
+               round(events_from_interval(float(row["O/E interval lower"]), float(row["O/E interval upper"]))))
 
 # Solve: substitute the known counts, then a suppressed count is determined when no solution of
 # the homogeneous system moves it (its row of the null-space basis is zero).
