@@ -1,9 +1,13 @@
 #include "chart_style.hpp"
 
+#include <QAreaSeries>
 #include <QChart>
 #include <QFont>
 #include <QLegend>
+#include <QLegendMarker>
 #include <QValueAxis>
+
+#include <algorithm>
 
 #include <cmath>
 
@@ -101,6 +105,16 @@ void addOnAxes(QChart* chart, QAbstractSeries* series, QAbstractAxis* x, QAbstra
     chart->addSeries(series);
     series->attachAxis(x);
     series->attachAxis(y);
+    // A band drawn without a border would show in the legend as an empty square: its marker
+    // takes the band's own fill, made opaque enough to see.
+    if (auto* area = qobject_cast<QAreaSeries*>(series))
+        for (QLegendMarker* marker : chart->legend()->markers(area)) {
+            QColor fill = area->color();
+            fill.setAlpha(std::max(fill.alpha(), 110));
+            marker->setBrush(fill);
+            marker->setPen(QPen(fill.darker(115)));
+            marker->setShape(QLegend::MarkerShapeRectangle);
+        }
 }
 
 QPen thresholdPen()

@@ -7,6 +7,7 @@
 #include <QAreaSeries>
 #include <QCategoryAxis>
 #include <QChart>
+#include <QLegend>
 #include <QLineSeries>
 #include <QPen>
 #include <QScatterSeries>
@@ -23,6 +24,8 @@ PeriodChartView::PeriodChartView(const QString& title, const QString& axisTitle,
 {
     auto* chart = new QChart;
     styleChart(chart, title);
+    // Four legend entries do not fit under a chart of 24 periods without being cut: on the right.
+    chart->legend()->setAlignment(Qt::AlignRight);
     setChart(chart);
     setMinimumSize(260, 180);
     setAccessibleName(title);
