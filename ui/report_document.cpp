@@ -284,11 +284,19 @@ ReportSection settingsSection(const AnalysisSnapshot& s, const DisclosurePlan& p
                                 + " scale); calibration intercept and slope: Wald; O/E: log-normal, exact Poisson below 10 events; "
                                   "proportions: " + ciMethodLabel(r.panel.binomialInterval)
                                 + (r.bootstrap.replicates > 0 ? "; with the bootstrap: " + bootstrapCiLabel(r.bootstrap.method)
-                                                                    + " under the rule of section 8" : ""));
+                                                                    + " under the rule of section 8; differences between models: "
+                                                                      "percentile intervals of paired resamples"
+                                                              : ""));
     row("Risk groups", std::to_string(r.panel.riskGroups));
     row("Confidence level", fixed(r.panel.confidence, 3));
     row("C statistic interval", r.panel.cStatisticScale == CStatisticScale::Logit ? "DeLong, logit scale" : "DeLong, plain scale");
-    row("Bootstrap replicates", std::to_string(r.bootstrap.replicates));
+    // Common practice: 1000 or more replicates for interval ends (BCa's above all) that do not
+    // move from one seed to the next.
+    row("Bootstrap replicates", std::to_string(r.bootstrap.replicates)
+                                    + (r.bootstrap.replicates > 0 && r.bootstrap.replicates < 1000
+                                           ? " (fewer than 1000: the interval ends may move with another seed; use 1000 to 2000 "
+                                             "for the report of record)"
+                                           : ""));
     row("Bootstrap seed", std::to_string(r.bootstrap.seed));
     row("Bootstrap interval", r.bootstrap.replicates > 0 ? bootstrapCiLabel(r.bootstrap.method) + (r.bootstrap.stratified ? ", stratified" : "")
                                                           : "none (analytic only)");
@@ -842,14 +850,31 @@ ReportDocument buildReport(const AnalysisSnapshot& s, const ReportFields& fields
 
 ReportTable printedRows(const ReportTable& table)
 {
-    if (table.onlyInData.empty())
-        return table;
     ReportTable out = table;
     out.rows.clear();
     out.onlyInData.clear();
     for (std::size_t r = 0; r < table.rows.size(); ++r)
         if (r >= table.onlyInData.size() || !table.onlyInData[r])
             out.rows.push_back(table.rows[r]);
+    // An interval is read as one thing: it never breaks across lines ("0.70 to" / "0.74").
+    const std::string noBreak = "\xC2\xA0";
+    for (auto& row : out.rows)
+        for (auto& cell : row)
+            if (cell.interval)
+                for (std::size_t at = cell.text.find(' '); at != std::string::npos; at = cell.text.find(' ', at + noBreak.size()))
+                    cell.text.replace(at, 1, noBreak);
+    // A column empty in every printed row (a note column with nothing to note) takes no room.
+    for (std::size_t c = out.headers.size(); c-- > 0;) {
+        const bool empty = !out.rows.empty() && std::all_of(out.rows.begin(), out.rows.end(), [&](const std::vector<ReportCell>& row) {
+            return c >= row.size() || row[c].text.empty();
+        });
+        if (!empty)
+            continue;
+        out.headers.erase(out.headers.begin() + long(c));
+        for (auto& row : out.rows)
+            if (c < row.size())
+                row.erase(row.begin() + long(c));
+    }
     return out;
 }
 

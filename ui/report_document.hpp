@@ -39,7 +39,8 @@ struct ReportTable {
     std::vector<bool> onlyInData;
 };
 
-// The table as the printed formats show it: without the rows marked `onlyInData`.
+// The table as the printed formats show it: without the rows marked `onlyInData` or a column
+// empty in every row, and with each interval's text kept on one line.
 ReportTable printedRows(const ReportTable& table);
 
 // The table as the workbook and CSV hold it, for analysts: every interval as two numeric columns
