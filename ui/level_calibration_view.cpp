@@ -20,7 +20,7 @@ LevelCalibrationView::LevelCalibrationView(QWidget* parent)
     styleChart(chart, tr("Calibration by level"));
     chart->legend()->setAlignment(Qt::AlignRight);
     setChart(chart);
-    setSquarePlot(true);
+    // Not held square: the level names beside the plot need the room more than the 45° line does.
     setMinimumSize(240, 180);
     setObjectName(QStringLiteral("calibration-by-level"));
     setAccessibleName(tr("Calibration curves by subgroup level"));
@@ -39,7 +39,7 @@ void LevelCalibrationView::setCurves(const std::vector<LevelCurve>& levels)
             maximum = std::max(maximum, p.predicted);
     maximum = std::min(1.0, std::ceil(maximum * 10.0) / 10.0);
     auto* x = probabilityAxis(tr("Predicted risk"), maximum);
-    auto* y = probabilityAxis(tr("Observed proportion"), maximum);
+    auto* y = probabilityAxis(tr("Observed"), maximum);
     c->addAxis(x, Qt::AlignBottom);
     c->addAxis(y, Qt::AlignLeft);
     auto* ideal = new QLineSeries;

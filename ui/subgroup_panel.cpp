@@ -40,11 +40,12 @@ SubgroupPanel::SubgroupPanel(QWidget* parent)
     top->addWidget(pickerLabel);
     top->addWidget(m_picker);
     top->addStretch(1);
-    // The forests of C and O/E and the curves by level, then the slope's forest and the funnel.
+    // The three forests (narrow charts) above; the curves by level and the funnel, which need
+    // room for their legends and labels, below.
     m_top->addWidget(m_c);
     m_top->addWidget(m_oe);
-    m_top->addWidget(m_levels);
-    m_bottom->addWidget(m_slope);
+    m_top->addWidget(m_slope);
+    m_bottom->addWidget(m_levels);
     m_bottom->addWidget(m_funnel);
     m_rows->addWidget(m_top);
     m_rows->addWidget(m_bottom);
