@@ -9,6 +9,7 @@
 #include "window_test_support.hpp"
 #include "funnel_chart_view.hpp"
 #include "import_dialog.hpp"
+#include "level_calibration_view.hpp"
 #include "main_window.hpp"
 #include "metric_table_model.hpp"
 #include "overview_panel.hpp"
@@ -440,6 +441,13 @@ private slots:
         window.tabs()->setCurrentWidget(subgroups);
         QApplication::processEvents();
         QVERIFY(subgroups->slopeChart()->chart()->series().size() > 3);
+        // Calibration curves by level: the ideal line and one named curve per hospital, each
+        // name shown whole in the legend.
+        const QStringList levelLegend = subgroups->levelCalibrationChart()->legendEntries();
+        QCOMPARE(levelLegend, (QStringList{QStringLiteral("Ideal"), QStringLiteral("Ashford Regional"), QStringLiteral("Harbour General"),
+                                           QStringLiteral("Millbrook Community")}));
+        for (QAbstractSeries* s : subgroups->levelCalibrationChart()->chart()->series())
+            QVERIFY(qobject_cast<QLineSeries*>(s)->count() >= 2);
         // Funnel: both pairs of limits in the legend, every level named, no two names overlapping.
         const QStringList funnelLegend = subgroups->funnelChart()->legendEntries();
         QVERIFY(funnelLegend.contains(QStringLiteral("95 % limits")) && funnelLegend.contains(QStringLiteral("99.8 % limits")));
