@@ -74,10 +74,12 @@ std::string isoDate(long days)
     return buffer;
 }
 
-std::string fixed4(double value)
+// A risk as a supplier's file would hold it: 4 decimals by default (at most 10,001 distinct
+// values), more for a model exported at full precision (almost every risk distinct).
+std::string fixedDigits(double value, int decimals)
 {
-    char buffer[32];
-    const auto result = std::to_chars(buffer, buffer + sizeof buffer, value, std::chars_format::fixed, 4);
+    char buffer[48];
+    const auto result = std::to_chars(buffer, buffer + sizeof buffer, value, std::chars_format::fixed, decimals);
     return std::string(buffer, result.ptr);
 }
 
@@ -123,20 +125,20 @@ Discharge simulateOne(RandomStream& random, std::size_t index, std::size_t rows)
     return d;
 }
 
-std::string supplierText(const Discharge& d)
+std::string supplierText(const Discharge& d, int decimals)
 {
     if (d.supplierDefect == 1)
-        return fixed4(1.0 + d.supplier);
+        return fixedDigits(1.0 + d.supplier, decimals);
     if (d.supplierDefect == 2)
         return "#VALUE!";
-    return fixed4(d.supplier);
+    return fixedDigits(d.supplier, decimals);
 }
 
-std::string cohortRow(const Discharge& d)
+std::string cohortRow(const Discharge& d, int decimals)
 {
     std::string row = d.id;
-    row += ',' + supplierText(d);
-    row += ',' + (d.localMissing ? std::string("NA") : fixed4(d.local));
+    row += ',' + supplierText(d, decimals);
+    row += ',' + (d.localMissing ? std::string("NA") : fixedDigits(d.local, decimals));
     row += ',' + (d.outcomeMissing ? std::string() : std::string(d.readmitted ? "yes" : "no"));
     row += ',' + std::string(hospitals[d.hospital]);
     row += ',' + std::string(ageBands[d.ageBand]);
@@ -146,9 +148,9 @@ std::string cohortRow(const Discharge& d)
     return row;
 }
 
-std::string scoresRow(const Discharge& d)
+std::string scoresRow(const Discharge& d, int decimals)
 {
-    return d.id + ',' + supplierText(d) + ',' + (d.localMissing ? std::string("NA") : fixed4(d.local)) + ','
+    return d.id + ',' + supplierText(d, decimals) + ',' + (d.localMissing ? std::string("NA") : fixedDigits(d.local, decimals)) + ','
         + std::string(hospitals[d.hospital]) + ',' + std::string(ageBands[d.ageBand]) + (d.male ? ",M," : ",F,")
         + std::string(payers[d.payer]) + ',' + d.date;
 }
@@ -175,14 +177,14 @@ std::string joinLines(const std::string& header, const std::vector<std::string>&
 // The split files carry defects of their own so the join and the audit have work to do:
 // outcomes not yet recorded, outcomes of patients outside the extract, duplicated ids and
 // rows damaged in transfer. Rates scale with the cohort, with at least one of each.
-void writeSplitFiles(const std::vector<Discharge>& discharges, RandomStream& random, SimulatedFiles& files)
+void writeSplitFiles(const std::vector<Discharge>& discharges, int decimals, RandomStream& random, SimulatedFiles& files)
 {
     const std::size_t n = discharges.size();
     auto atLeastOne = [n](double rate) { return std::max<std::size_t>(1, static_cast<std::size_t>(rate * double(n))); };
     std::vector<std::string> scores;
     std::vector<std::string> outcomes;
     for (const auto& d : discharges) {
-        scores.push_back(scoresRow(d));
+        scores.push_back(scoresRow(d, decimals));
         outcomes.push_back(outcomeRow(d));
     }
     for (std::size_t k = 0, drop = atLeastOne(0.002); k < drop && !outcomes.empty(); ++k)
@@ -222,14 +224,14 @@ SimulatedFiles simulateCohort(const SimulationSettings& settings, bool withSplit
     files.cohort.reserve(settings.rows * 96);
     for (std::size_t i = 0; i < settings.rows; ++i) {
         Discharge d = simulateOne(random, i, settings.rows);
-        files.cohort += cohortRow(d);
+        files.cohort += cohortRow(d, settings.decimals);
         files.cohort += '\n';
         if (withSplitFiles)
             discharges.push_back(std::move(d));
     }
     if (withSplitFiles) {
         RandomStream splitRandom(settings.seed, 1);
-        writeSplitFiles(discharges, splitRandom, files);
+        writeSplitFiles(discharges, settings.decimals, splitRandom, files);
     }
     return files;
 }

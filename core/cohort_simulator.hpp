@@ -12,6 +12,7 @@ namespace plumbline {
 struct SimulationSettings {
     std::size_t rows = 24000;
     std::uint64_t seed = 20240101;
+    int decimals = 4; // of the risks written (1-12); the sample files use 4
 };
 
 // The cohort as CSV text and, on request, the same discharges as a shuffled scores file and a
