@@ -1,7 +1,10 @@
 #include "logistic_recalibration.hpp"
 
+#include <Eigen/Core>
+
 #include <algorithm>
 #include <cmath>
+#include <vector>
 
 namespace plumbline {
 
@@ -32,6 +35,24 @@ double binomialLogLikelihood(const BinomialPoints& d, double a, double b)
             + (nonEvents > 0.0 ? nonEvents * logExpit(-linear) : 0.0);
     }
     return ll;
+}
+
+// expit(a + b·lp) at every point into `out`, with Eigen's vectorised exp: the replicates' Newton
+// passes spend most of their time here. A point without trials gets a value too; its weight in
+// every sum is zero.
+void expitInto(const BinomialPoints& d, double a, double b, std::vector<double>& out)
+{
+    out.resize(d.lp.size());
+    const Eigen::Map<const Eigen::ArrayXd> lp(d.lp.data(), Eigen::Index(d.lp.size()));
+    Eigen::Map<Eigen::ArrayXd> pi(out.data(), Eigen::Index(out.size()));
+    pi = (1.0 + (-(a + b * lp)).exp()).inverse();
+}
+
+// A buffer per thread for the predicted risks, kept between replicates.
+std::vector<double>& riskBuffer()
+{
+    thread_local std::vector<double> buffer;
+    return buffer;
 }
 
 // Rows (0/1 outcome, optional frequency weights) as grouped data, one point per row.
@@ -111,6 +132,29 @@ std::optional<InterceptFit> fitCalibrationIntercept(const BinomialPoints& d, dou
     return std::nullopt;
 }
 
+std::optional<double> calibrationInterceptEstimate(const BinomialPoints& d, double start)
+{
+    double alpha = start;
+    std::vector<double>& pi = riskBuffer();
+    for (int iteration = 0; iteration < maxIterations; ++iteration) {
+        expitInto(d, alpha, 1.0, pi);
+        double score = 0.0, information = 0.0;
+        for (std::size_t k = 0; k < pi.size(); ++k) {
+            score += d.events[k] - d.trials[k] * pi[k];
+            information += d.trials[k] * pi[k] * (1.0 - pi[k]);
+        }
+        if (!(information > 0.0))
+            return std::nullopt;
+        const double step = score / information;
+        alpha += step;
+        if (!std::isfinite(alpha) || std::abs(alpha) > 50.0)
+            return std::nullopt;
+        if (std::abs(step) < 1e-10)
+            return alpha;
+    }
+    return std::nullopt;
+}
+
 std::optional<InterceptFit> fitCalibrationIntercept(std::span<const std::uint8_t> outcome, std::span<const double> lp,
                                                     std::span<const double> weights)
 {
@@ -161,6 +205,38 @@ std::optional<SlopeFit> fitCalibrationSlope(const BinomialPoints& d, double star
             return SlopeFit{a, b, std::sqrt(k11 / det2), std::sqrt(k00 / det2), binomialLogLikelihood(d, a, b),
                             {k00, k01, k11}};
         }
+    }
+    return std::nullopt;
+}
+
+std::optional<SlopeEstimate> calibrationSlopeEstimate(const BinomialPoints& d, double startIntercept, double startSlope)
+{
+    double a = startIntercept, b = startSlope;
+    std::vector<double>& pi = riskBuffer();
+    for (int iteration = 0; iteration < maxIterations; ++iteration) {
+        expitInto(d, a, b, pi);
+        double g0 = 0.0, g1 = 0.0, h00 = 0.0, h01 = 0.0, h11 = 0.0;
+        for (std::size_t k = 0; k < pi.size(); ++k) {
+            const double x = d.lp[k];
+            const double v = d.trials[k] * pi[k] * (1.0 - pi[k]);
+            const double r = d.events[k] - d.trials[k] * pi[k];
+            h00 += v;
+            h01 += v * x;
+            h11 += v * x * x;
+            g0 += r;
+            g1 += r * x;
+        }
+        const double det = h00 * h11 - h01 * h01;
+        if (!(det > 1e-12 * std::max(1.0, h00 * h11)))
+            return std::nullopt;
+        const double da = (h11 * g0 - h01 * g1) / det;
+        const double db = (h00 * g1 - h01 * g0) / det;
+        a += da;
+        b += db;
+        if (!std::isfinite(a) || !std::isfinite(b) || std::abs(b) > 1e3)
+            return std::nullopt;
+        if (std::abs(da) < 1e-10 && std::abs(db) < 1e-10)
+            return SlopeEstimate{a, b};
     }
     return std::nullopt;
 }

@@ -41,6 +41,9 @@ struct InterceptFit {
     double logLikelihood;
 };
 std::optional<InterceptFit> fitCalibrationIntercept(const BinomialPoints& points, double start = 0.0);
+// The same estimate for a bootstrap replicate, which reads nothing else: no standard error, no
+// log-likelihood, and the predicted risks of each Newton pass computed in vector form.
+std::optional<double> calibrationInterceptEstimate(const BinomialPoints& points, double start);
 std::optional<InterceptFit> fitCalibrationIntercept(std::span<const std::uint8_t> outcome, std::span<const double> lp,
                                                     std::span<const double> weights = {});
 
@@ -57,6 +60,12 @@ struct SlopeFit {
 };
 std::optional<SlopeFit> fitCalibrationSlope(const BinomialPoints& points, double startIntercept = 0.0,
                                             double startSlope = 1.0);
+// The intercept and slope alone, for a bootstrap replicate (as calibrationInterceptEstimate).
+struct SlopeEstimate {
+    double intercept;
+    double slope;
+};
+std::optional<SlopeEstimate> calibrationSlopeEstimate(const BinomialPoints& points, double startIntercept, double startSlope);
 std::optional<SlopeFit> fitCalibrationSlope(std::span<const std::uint8_t> outcome, std::span<const double> lp,
                                             std::span<const double> weights = {}, double startIntercept = 0.0,
                                             double startSlope = 1.0);

@@ -113,7 +113,7 @@ ModelSupport updatedSupport(const ModelSupport& original, const UpdateFit& fit, 
     ModelSupport out;
     for (std::size_t k : order)
         out.x.push_back(x[k]);
-    out.lp = clampedLogits(out.x);
+    addRiskTerms(out);
     return out;
 }
 

@@ -20,8 +20,19 @@ ModelSupport buildModelSupport(std::span<const double> score, const ScoreOrder& 
         s.rowSupport[order[k]] = static_cast<std::uint32_t>(s.x.size() - 1);
     }
     if (risks)
-        s.lp = clampedLogits(s.x);
+        addRiskTerms(s);
     return s;
+}
+
+void addRiskTerms(ModelSupport& s)
+{
+    s.lp = clampedLogits(s.x);
+    s.logRisk.resize(s.x.size());
+    s.logComplement.resize(s.x.size());
+    for (std::size_t k = 0; k < s.x.size(); ++k) {
+        s.logRisk[k] = std::log(s.x[k]);
+        s.logComplement[k] = std::log1p(-s.x[k]);
+    }
 }
 
 void countRows(const ModelSupport& support, std::span<const std::uint8_t> outcome,
@@ -86,6 +97,7 @@ void accuracy(const ModelSupport& s, const SupportCounts& c, const Totals& t, Pa
 {
     double squared = 0.0, logLikelihood = 0.0, eventRisk = 0.0, nonEventRisk = 0.0;
     bool contradicted = false;
+    const bool precomputed = s.logRisk.size() == s.x.size() && s.logComplement.size() == s.x.size();
     for (std::size_t k = 0; k < s.x.size(); ++k) {
         const double p = s.x[k], e = c.events[k], f = c.nonEvents[k];
         squared += e * (1.0 - p) * (1.0 - p) + f * p * p;
@@ -94,7 +106,8 @@ void accuracy(const ModelSupport& s, const SupportCounts& c, const Totals& t, Pa
         if ((e > 0.0 && p <= 0.0) || (f > 0.0 && p >= 1.0))
             contradicted = true;
         else
-            logLikelihood += (e > 0.0 ? e * std::log(p) : 0.0) + (f > 0.0 ? f * std::log1p(-p) : 0.0);
+            logLikelihood += (e > 0.0 ? e * (precomputed ? s.logRisk[k] : std::log(p)) : 0.0)
+                + (f > 0.0 ? f * (precomputed ? s.logComplement[k] : std::log1p(-p)) : 0.0);
     }
     const double n = t.patients();
     const double rate = t.events / n;
@@ -121,9 +134,10 @@ void calibrationFits(const ModelSupport& s, const SupportCounts& c, const FitSta
         trials[k] = agreeingEvents + agreeingNonEvents;
     }
     const BinomialPoints points{s.lp, events, trials};
-    if (const auto intercept = fitCalibrationIntercept(points, start.calibrationIntercept))
-        out[CalibrationIntercept] = intercept->alpha;
-    if (const auto slope = fitCalibrationSlope(points, start.recalibrationIntercept, start.slope)) {
+    // Estimates only: a replicate reads no standard error or log-likelihood.
+    if (const auto intercept = calibrationInterceptEstimate(points, start.calibrationIntercept))
+        out[CalibrationIntercept] = *intercept;
+    if (const auto slope = calibrationSlopeEstimate(points, start.recalibrationIntercept, start.slope)) {
         out[CalibrationSlope] = slope->slope;
         out[RecalibrationIntercept] = slope->intercept;
     }

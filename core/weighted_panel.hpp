@@ -18,10 +18,14 @@ namespace plumbline {
 struct ModelSupport {
     std::vector<double> x;                 // distinct scores, ascending
     std::vector<double> lp;                // clamped logits of x (risks only)
+    std::vector<double> logRisk;           // ln x and ln(1 − x) (risks only): fixed, so computed once
+    std::vector<double> logComplement;     // rather than in every replicate
     std::vector<std::uint32_t> rowSupport; // support point of each row
     bool risks = true;                     // false for a points score: discrimination only
 };
 ModelSupport buildModelSupport(std::span<const double> score, const ScoreOrder& order, bool risks);
+// The logits and logs of a support built by hand (its x filled), as buildModelSupport adds them.
+void addRiskTerms(ModelSupport& support);
 
 // Patients at each support point in one (re)sample, by outcome class; whole numbers.
 struct SupportCounts {

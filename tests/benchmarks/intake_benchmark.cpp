@@ -112,6 +112,14 @@ int benchmarkPanel(const std::string& path, int repeats)
     return 0;
 }
 
+// User and system CPU of this process so far, seconds (both threads count).
+double cpuSeconds()
+{
+    rusage usage{};
+    getrusage(RUSAGE_SELF, &usage);
+    return double(usage.ru_utime.tv_sec + usage.ru_stime.tv_sec) + double(usage.ru_utime.tv_usec + usage.ru_stime.tv_usec) / 1e6;
+}
+
 int benchmarkBootstrap(const std::string& path, std::size_t replicates, bool curve)
 {
     plumbline::IntakeSettings settings;
@@ -129,14 +137,22 @@ int benchmarkBootstrap(const std::string& path, std::size_t replicates, bool cur
     plumbline::BootstrapSettings bootstrap;
     bootstrap.replicates = replicates;
     bootstrap.smoothedCurve = curve;
+    const double cpuBefore = cpuSeconds();
     const auto start = std::chrono::steady_clock::now();
     const auto result = plumbline::runBootstrap(intake->cohort, full, bootstrap, {}, {});
     const auto stop = std::chrono::steady_clock::now();
+    const double cpu = cpuSeconds() - cpuBefore;
     const double extra = statusMegabytes("VmHWM") - before;
-    std::printf("plumbline bootstrap: rows=%zu replicates=%zu curve=%s threads=2 wall_s=%.2f extra_peak_mb=%.1f "
+    std::size_t distinct = 0;
+    {
+        std::vector<double> risks = intake->cohort.models[0].values;
+        std::sort(risks.begin(), risks.end());
+        distinct = std::size_t(std::unique(risks.begin(), risks.end()) - risks.begin());
+    }
+    std::printf("plumbline bootstrap: rows=%zu distinct=%zu replicates=%zu curve=%s threads=2 wall_s=%.2f cpu_s=%.2f extra_peak_mb=%.1f "
                 "extra_bytes_per_row=%.1f C_ci=[%.4f,%.4f]\n",
-                intake->cohort.rows(), replicates, curve ? "yes" : "no",
-                std::chrono::duration<double>(stop - start).count(), extra,
+                intake->cohort.rows(), distinct, replicates, curve ? "yes" : "no",
+                std::chrono::duration<double>(stop - start).count(), cpu, extra,
                 extra * 1024 * 1024 / double(intake->cohort.rows()),
                 result->models[0].metrics[0]->bca->first, result->models[0].metrics[0]->bca->second);
     return 0;
