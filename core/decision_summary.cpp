@@ -76,6 +76,15 @@ void calibrationFindings(const DecisionSummaryModel& m, const std::string& secti
         else
             out.push_back({m.name + ": observed events are consistent with its risks overall (" + stated("O/E", m.oe, 2) + ").", section});
     }
+    // Overall accuracy against the simplest rival: everyone given the event rate (scaled Brier 0).
+    if (m.scaledBrier.value && m.scaledBrier.lower && m.scaledBrier.upper) {
+        if (*m.scaledBrier.upper < 0.0)
+            out.push_back({m.name + "'s risks are less accurate overall than giving everyone the event rate ("
+                               + stated("scaled Brier", m.scaledBrier, 3) + ").", section});
+        else if (*m.scaledBrier.lower <= 0.0)
+            out.push_back({m.name + "'s risks are not clearly more accurate overall than giving everyone the event rate ("
+                               + stated("scaled Brier", m.scaledBrier, 3) + ").", section});
+    }
     if (m.calibrationSlope.value) {
         const double slope = *m.calibrationSlope.value;
         const std::string how = slope < 0.8 || slope > 1.25 ? "clearly" : "slightly"; // common practice: 0.8 and 1.25

@@ -307,6 +307,8 @@ DisclosurePlan planDisclosure(const Cohort& cohort, const ValidationResult& resu
 
     DisclosurePlan plan;
     plan.minimumCell = minimumCell;
+    plan.events = events;
+    plan.nonEvents = n - events;
     auto shown = [&](Cell c) { return CountShown{cells.value(c), cells.suppressed(c), cells.primary(c) && cells.suppressed(c)}; };
     for (const auto& model : groupCells) {
         plan.riskGroups.emplace_back();
@@ -405,6 +407,28 @@ ValidationResult redactedForReport(const ValidationResult& result, const Disclos
             if (!plan.decisionCurveWithheld[m][k])
                 curve.push_back(model.decisionCurve[k]);
         model.decisionCurve = curve;
+        // The ROC curve's vertices are cumulative counts (sensitivity x events, 1 - specificity x
+        // non-events): drawn finely they bracket a suppressed risk group within a few patients.
+        // A vertex is kept only when both counts have moved by at least the minimum since the last.
+        if (!model.roc.empty()) {
+            std::vector<RocPoint> thinned{model.roc.front()};
+            auto tp = [&](const RocPoint& p) { return p.sensitivity * double(plan.events); };
+            auto fp = [&](const RocPoint& p) { return (1.0 - p.specificity) * double(plan.nonEvents); };
+            for (std::size_t k = 1; k + 1 < model.roc.size(); ++k)
+                if (std::abs(tp(model.roc[k]) - tp(thinned.back())) >= double(plan.minimumCell)
+                    && std::abs(fp(model.roc[k]) - fp(thinned.back())) >= double(plan.minimumCell))
+                    thinned.push_back(model.roc[k]);
+            if (model.roc.size() > 1) {
+                // The last kept vertex must also stand the minimum away from the curve's end.
+                const RocPoint& end = model.roc.back();
+                if (thinned.size() > 1
+                    && (std::abs(tp(end) - tp(thinned.back())) < double(plan.minimumCell)
+                        || std::abs(fp(end) - fp(thinned.back())) < double(plan.minimumCell)))
+                    thinned.pop_back();
+                thinned.push_back(end);
+            }
+            model.roc = thinned;
+        }
     }
     auto empty = [](DifferenceEstimate& d) {
         d.estimate = Estimate{};

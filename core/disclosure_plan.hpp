@@ -24,6 +24,7 @@ struct CountShown {
 // data-quality reason and undated rows are published as they are (stated in the report).
 struct DisclosurePlan {
     std::size_t minimumCell = 11;
+    std::size_t events = 0, nonEvents = 0;                            // the cohort's, for reading the ROC curve as counts
     std::vector<std::vector<std::array<CountShown, 2>>> riskGroups;   // [model][group]: patients, events
     std::vector<std::vector<std::array<CountShown, 4>>> thresholds;   // [model][threshold]: TP, FP, TN, FN
     std::vector<std::vector<bool>> decisionCurveWithheld;             // [model][point]

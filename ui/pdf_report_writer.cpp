@@ -226,8 +226,15 @@ void layOut(QPdfWriter& writer, const ReportDocument& document, ReportCharts& ch
             for (std::size_t from = 0; from < std::max<std::size_t>(table.rows.size(), 1); from += rowsPerBlock)
                 block(tableHtml(table, from, std::min(table.rows.size(), from + rowsPerBlock)), 0.4);
         }
-        if (!section.closing.empty())
-            layout.html(closingHtml(section.closing), 0.1);
+        // The closing lines flow one by one (a heading line kept with the line after it), so a
+        // long list of findings fills page 1 instead of moving whole to the next page.
+        for (std::size_t j = 0; j < section.closing.size(); ++j) {
+            std::vector<std::string> chunk{section.closing[j]};
+            const bool title = !section.closing[j].starts_with("- ") && !section.closing[j].starts_with("Warning: ");
+            if (title && j + 1 < section.closing.size())
+                chunk.push_back(section.closing[++j]);
+            layout.html(closingHtml(chunk), 0.0);
+        }
         if (section.pageBreakAfter) {
             layout.newPage();
             if (k == 0) { // after the decision summary: the contents

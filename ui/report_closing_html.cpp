@@ -19,8 +19,8 @@ QString closingHtml(const std::vector<std::string>& paragraphs)
         if (kind != openList) {
             close();
             if (!kind.isEmpty()) {
-                html += kind == QStringLiteral("warnings") ? QStringLiteral("<ul class=\"warnings\" style=\"font-size:small\">")
-                                                           : QStringLiteral("<ul class=\"findings\" style=\"font-size:small\">");
+                html += kind == QStringLiteral("warnings") ? QStringLiteral("<ul class=\"warnings\" style=\"font-size:small;margin-top:0px;margin-bottom:2px\">")
+                                                           : QStringLiteral("<ul class=\"findings\" style=\"font-size:small;margin-top:0px;margin-bottom:2px\">");
                 openList = kind;
             }
         }

@@ -116,6 +116,14 @@ ReportTable metricTable(const std::string& id, const std::string& title, const V
     return t;
 }
 
+// Common practice: 1000 or more replicates for interval ends (BCa's above all) that hold from one
+// seed to the next.
+std::string replicatesCaution(std::size_t replicates)
+{
+    return std::to_string(replicates) + " bootstrap replicates: the interval ends may move with another seed; use 1000 to 2000 "
+                                        "for the report of record.";
+}
+
 // The inputs' fingerprints and every setting that changes a number, hashed.
 std::string documentIdOf(const AnalysisSnapshot& s)
 {
@@ -135,7 +143,8 @@ std::string documentIdOf(const AnalysisSnapshot& s)
     basis += ";confidence=" + fixedText(r.panel.confidence, 6) + ";groups=" + std::to_string(r.panel.riskGroups)
         + ";decision=" + fixedText(r.panel.decisionThreshold, 6) + ";replicates=" + std::to_string(r.bootstrap.replicates)
         + ";seed=" + std::to_string(r.bootstrap.seed) + ";method=" + std::string(bootstrapCiName(r.bootstrap.method))
-        + ";stratified=" + (r.bootstrap.stratified ? "1" : "0") + ";version=" + versionString;
+        + ";stratified=" + (r.bootstrap.stratified ? "1" : "0") + ";min-cell=" + std::to_string(r.minimumCell)
+        + ";version=" + versionString;
     return "PL-" + sha256Hex(basis).substr(0, 12);
 }
 
@@ -181,12 +190,15 @@ ReportSection decisionSummarySection(const AnalysisSnapshot& s, const Validation
     row("Mean predicted risk (event rate " + fixed(summary.eventRate, 3) + ")", [&](const DecisionSummaryModel& m) {
         return m.risks ? ReportCell{fixed(m.meanRisk, 3), m.meanRisk, false} : textCell("not a risk");
     });
-    // Brackets hold intervals everywhere else in this table: treat-all is named, not bracketed.
-    row("Net benefit at " + fixed(threshold, 2) + "; treating everyone", [&](const DecisionSummaryModel& m) {
+    // Brackets hold intervals everywhere else in this table: treat-all has its own row.
+    row("Net benefit at " + fixed(threshold, 2), [&](const DecisionSummaryModel& m) {
         if (m.netBenefitWithheld)
             return withheldCell();
-        return m.netBenefit ? ReportCell{fixed(*m.netBenefit, 4) + "; treat all " + fixed(*m.netBenefitTreatAll, 4), *m.netBenefit, false}
+        return m.netBenefit ? ReportCell{fixed(*m.netBenefit, 4), *m.netBenefit, false}
                             : textCell("not a risk");
+    });
+    row("Net benefit of treating everyone at " + fixed(threshold, 2), [&](const DecisionSummaryModel& m) {
+        return m.netBenefitTreatAll ? ReportCell{fixed(*m.netBenefitTreatAll, 4), *m.netBenefitTreatAll, false} : textCell("not a risk");
     });
     table.note = "Net benefit counts patients with risk >= " + fixed(threshold, 2)
         + " as flagged: the decision threshold set for this analysis (--decision-threshold; 0.20 unless changed), to be confirmed "
@@ -203,8 +215,13 @@ ReportSection decisionSummarySection(const AnalysisSnapshot& s, const Validation
         for (const auto& w : *list)
             if (std::find(told.begin(), told.end(), w) == told.end())
                 others.push_back("Warning: " + w);
-    section.closing.push_back(others.empty() ? "No other warning was raised (the cautions are in the box above)"
-                                             : "Every other warning of the run (the cautions are in the box above)");
+    if (s.request.bootstrap.replicates > 0 && s.request.bootstrap.replicates < 1000)
+        others.push_back("Warning: " + replicatesCaution(s.request.bootstrap.replicates));
+    if (plan.suppressedCells > 0)
+        others.push_back("Warning: " + std::to_string(plan.suppressedCells) + " counts are suppressed under the small-cell rule, "
+                         "with the rates, intervals and net benefits that would reveal them (section 8).");
+    section.closing.push_back(others.empty() ? "No other warning was raised (the cautions are at the top of page 1)"
+                                             : "Every other warning of the run (the cautions are at the top of page 1)");
     section.closing.insert(section.closing.end(), others.begin(), others.end());
     return section;
 }
@@ -289,7 +306,8 @@ ReportSection settingsSection(const AnalysisSnapshot& s, const DisclosurePlan& p
                                                               : ""));
     row("Risk groups", std::to_string(r.panel.riskGroups));
     row("Confidence level", fixed(r.panel.confidence, 3));
-    row("C statistic interval", r.panel.cStatisticScale == CStatisticScale::Logit ? "DeLong, logit scale" : "DeLong, plain scale");
+    row("C statistic interval", std::string(r.panel.cStatisticScale == CStatisticScale::Logit ? "DeLong, logit scale" : "DeLong, plain scale")
+                                    + (r.bootstrap.replicates > 0 ? "; the bootstrap's where the rule of section 8 prefers it" : ""));
     // Common practice: 1000 or more replicates for interval ends (BCa's above all) that do not
     // move from one seed to the next.
     row("Bootstrap replicates", std::to_string(r.bootstrap.replicates)
@@ -332,7 +350,7 @@ ReportSection resultsSection(const AnalysisSnapshot& s, const ValidationResult& 
                                   pCell(m.spiegelhalter->pValue)});
         if (m.likelihoodRatio && m.likelihoodRatio->joint)
             tests.rows.push_back({textCell(m.name), textCell("Likelihood ratio: intercept 0 and slope 1"),
-                                  numberCell(m.likelihoodRatio->joint->statistic, 2), textCell("2"), pCell(m.likelihoodRatio->joint->pValue)});
+                                  numberCell(m.likelihoodRatio->joint->statistic, 2), {"2", 2.0, false}, pCell(m.likelihoodRatio->joint->pValue)});
     }
     tests.note = "Large cohorts reject clinically unimportant miscalibration: read the risk-group table and the curve.";
     section.tables.push_back(tests);
@@ -620,7 +638,12 @@ ReportSection methodsSection(const AnalysisSnapshot& s, const DisclosurePlan& pl
     section.paragraphs.push_back(disclosureRuleText(plan));
     for (std::string_view key : panelKeys) {
         const MetricDefinition d = metricDefinition(key);
-        section.paragraphs.push_back(metricLabel(key) + ": " + std::string(d.definition) + " Source: " + std::string(d.source) + ".");
+        // A definition that opens with its own name ("Average precision: ...") is not named twice.
+        std::string definition(d.definition);
+        if (const auto colon = definition.find(": "); colon != std::string::npos && colon < 40
+            && metricLabel(key).starts_with(definition.substr(0, colon)))
+            definition.erase(0, colon + 2);
+        section.paragraphs.push_back(metricLabel(key) + ": " + definition + " Source: " + std::string(d.source) + ".");
     }
     section.paragraphs.push_back("Risk-group intervals: Wilson 1927 (or Clopper & Pearson 1934); smoothed calibration curve: loess "
                                  "(span 0.75, local quadratic, tricube; Cleveland, Grosse & Shyu 1992).");
@@ -712,8 +735,9 @@ ReportSection checklistSection(const AnalysisSnapshot& s, const ReportFields& f)
         {"9c", "Predictor assessors' qualifications and blinding", authors, "who recorded the inputs"},
         {"10", "Sample size", partly, "section 6 (precision achieved); plan a study with plumbline-cli plan"},
         {"11", "Missing data", covered, "section 2 (complete cases, exclusions counted) and section 7"},
-        {"12a", "How the data were used (evaluation only)", covered, updated ? "every row evaluates the model; updates are optimism-corrected (section 5)"
-                                                                           : "every row evaluates the model; none was used to fit it"},
+        {"12a", "How the data were used (evaluation only)", partly,
+         (updated ? std::string("this run fits only the updates of section 5, optimism-corrected; ") : std::string("this run fits no model; "))
+             + "whether any model was developed or refitted on these patients is for the authors (its results would then be optimistic)"},
         {"12b", "How predictors were handled", authors, "for the model's developers"},
         {"12c", "Model type and fitting", authors, "for the model's developers"},
         {"12d", "Heterogeneity across clusters (sites)", subgroups ? covered : authors,
@@ -832,6 +856,8 @@ ReportDocument buildReport(const AnalysisSnapshot& s, const ReportFields& fields
         warnings.paragraphs.push_back("Warning: " + w);
     for (const auto& w : s.validation.warnings)
         warnings.paragraphs.push_back("Warning: " + w);
+    if (s.request.bootstrap.replicates > 0 && s.request.bootstrap.replicates < 1000)
+        warnings.paragraphs.push_back("Warning: " + replicatesCaution(s.request.bootstrap.replicates));
     for (const auto caution : standardCautions)
         warnings.paragraphs.push_back("Caution: " + std::string(caution));
     warnings.paragraphs.push_back("Caution: this report shows aggregates only; counts below " + std::to_string(minimumCell)
@@ -856,13 +882,6 @@ ReportTable printedRows(const ReportTable& table)
     for (std::size_t r = 0; r < table.rows.size(); ++r)
         if (r >= table.onlyInData.size() || !table.onlyInData[r])
             out.rows.push_back(table.rows[r]);
-    // An interval is read as one thing: it never breaks across lines ("0.70 to" / "0.74").
-    const std::string noBreak = "\xC2\xA0";
-    for (auto& row : out.rows)
-        for (auto& cell : row)
-            if (cell.interval)
-                for (std::size_t at = cell.text.find(' '); at != std::string::npos; at = cell.text.find(' ', at + noBreak.size()))
-                    cell.text.replace(at, 1, noBreak);
     // A column empty in every printed row (a note column with nothing to note) takes no room.
     for (std::size_t c = out.headers.size(); c-- > 0;) {
         const bool empty = !out.rows.empty() && std::all_of(out.rows.begin(), out.rows.end(), [&](const std::vector<ReportCell>& row) {

@@ -40,7 +40,7 @@ struct ReportTable {
 };
 
 // The table as the printed formats show it: without the rows marked `onlyInData` or a column
-// empty in every row, and with each interval's text kept on one line.
+// empty in every row.
 ReportTable printedRows(const ReportTable& table);
 
 // The table as the workbook and CSV hold it, for analysts: every interval as two numeric columns

@@ -128,6 +128,12 @@ void SubgroupPanel::showChoice(int index)
     m_oe->setRows(oe, model.metrics[OeRatio].estimate, 1.0, modelIndex);
     m_slope->setRows(slope, model.metrics[CalibrationSlope].estimate, 1.0, modelIndex);
     m_levels->setCurves(curves);
+    // Each title names the column and model, so a chart copied or printed alone says what it is.
+    const QString which = QStringLiteral(" (%1, %2)").arg(QString::fromStdString(column), QString::fromStdString(model.name));
+    m_c->chart()->setTitle(tr("C statistic by level") + which);
+    m_oe->chart()->setTitle(tr("Observed / expected by level") + which);
+    m_slope->chart()->setTitle(tr("Calibration slope by level") + which);
+    m_levels->chart()->setTitle(tr("Calibration by level") + which);
     std::vector<FunnelPoint> points;
     for (const auto& p : analysis.funnel)
         if (p.column == column && p.model == model.name)

@@ -156,4 +156,14 @@ TEST_CASE("A report's plan leaves no site's events to subtraction and empties wh
             CHECK(plan.decisionCurveWithheld[0][k]);
     }
     CHECK(shown.models[0].decisionCurve.size() < curve.size());
+    // The ROC curve as a report draws it: consecutive vertices at least the minimum apart in
+    // both counts, so no vertex pair brackets a small group.
+    const auto& roc = shown.models[0].roc;
+    REQUIRE(roc.size() >= 2);
+    CHECK(roc.size() < result.models[0].roc.size());
+    const double events = double(cohort.events()), nonEvents = double(cohort.rows()) - events;
+    for (std::size_t k = 1; k < roc.size(); ++k) {
+        CHECK(std::abs(roc[k].sensitivity - roc[k - 1].sensitivity) * events >= 11.0 - 1e-9);
+        CHECK(std::abs(roc[k].specificity - roc[k - 1].specificity) * nonEvents >= 11.0 - 1e-9);
+    }
 }
