@@ -115,10 +115,21 @@ void PeriodChartView::setPoints(const std::vector<PeriodPoint>& points, const Es
     hollow->setMarkerSize(8);
     hollow->setColor(Qt::white);
     hollow->setBorderColor(colour);
+    // A period without a value (too few patients, or withheld) breaks the line: the line never
+    // bridges a gap as if the period had been measured. The segments after a gap are drawn in
+    // series of their own, out of the legend.
+    QLineSeries* segment = trend;
+    std::vector<QLineSeries*> later;
     for (std::size_t k = 0; k < points.size(); ++k) {
         const Estimate& e = points[k].estimate;
-        if (!e.value)
+        if (!e.value) {
+            if (segment->count() > 0) {
+                later.push_back(new QLineSeries);
+                later.back()->setPen(trend->pen());
+                segment = later.back();
+            }
             continue;
+        }
         if (e.lower && e.upper) {
             auto* whisker = new QLineSeries;
             whisker->append(double(k), *e.lower);
@@ -127,10 +138,14 @@ void PeriodChartView::setPoints(const std::vector<PeriodPoint>& points, const Es
             add(whisker);
             keepOutOfLegend(whisker);
         }
-        trend->append(double(k), *e.value);
+        segment->append(double(k), *e.value);
         (points[k].flagged ? hollow : filled)->append(double(k), *e.value);
     }
     add(trend);
+    for (QLineSeries* piece : later) {
+        add(piece);
+        keepOutOfLegend(piece);
+    }
     add(filled);
     keepOutOfLegend(filled);
     add(hollow);
