@@ -162,10 +162,9 @@ int runValidate(const ValidateOptions& options, const CLI::App& command)
     if (!result)
         return reportError(result.error());
     if (result->cohort.period)
-        if (auto periods = analysePeriods(result->cohort, *result->cohort.period, analysis->panel.dateFormat,
-                                          analysis->panel.periodUnit, analysis->panel.confidence);
-            !periods) {
-            InputError error = periods.error();
+        // Only the dates are checked here: the analysis over time runs once, in runValidation.
+        if (auto dates = checkPeriodDates(result->cohort, *result->cohort.period, analysis->panel.dateFormat); !dates) {
+            InputError error = dates.error();
             error.file = analysis->intake.cohortFile;
             return reportError(error);
         }

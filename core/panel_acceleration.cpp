@@ -6,6 +6,7 @@
 #include <cmath>
 #include <functional>
 #include <numeric>
+#include <thread>
 
 namespace plumbline {
 
@@ -177,18 +178,28 @@ void smoothedCurve(const ModelSupport& s, std::span<const std::uint8_t> outcome,
 {
     const std::size_t groups = std::min<std::size_t>(20, outcome.size());
     constexpr std::array<PanelMetric, 4> metrics{Ici, E50, E90, Emax};
+    // Each left-out group's loess metrics alone (no fits, no C), the groups shared between two
+    // threads; values are kept by group so the result does not depend on the threads.
+    std::vector<PanelValues> byGroup(groups);
+    auto work = [&](std::size_t first) {
+        SupportCounts counts;
+        std::vector<std::uint16_t> keep(outcome.size());
+        for (std::size_t g = first; g < groups; g += 2) {
+            for (std::size_t i = 0; i < outcome.size(); ++i)
+                keep[i] = i % groups == g ? 0 : 1;
+            countRows(s, outcome, keep, counts);
+            byGroup[g] = smoothedCalibrationValues(s, counts, loess);
+        }
+    };
+    {
+        std::jthread second(work, std::size_t{1});
+        work(0);
+    }
     std::array<std::vector<double>, 4> values;
-    SupportCounts counts;
-    std::vector<std::uint16_t> keep(outcome.size());
-    for (std::size_t g = 0; g < groups; ++g) {
-        for (std::size_t i = 0; i < outcome.size(); ++i)
-            keep[i] = i % groups == g ? 0 : 1;
-        countRows(s, outcome, keep, counts);
-        const PanelValues v = weightedPanel(s, counts, FitStart{}, &loess);
+    for (const PanelValues& v : byGroup)
         for (std::size_t m = 0; m < metrics.size(); ++m)
             if (v[metrics[m]])
                 values[m].push_back(*v[metrics[m]]);
-    }
     for (std::size_t m = 0; m < metrics.size(); ++m)
         if (full[metrics[m]] && values[m].size() == groups)
             out[metrics[m]] = Acceleration{accelerationFromJackknife(values[m]), grouped};

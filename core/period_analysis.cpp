@@ -93,8 +93,17 @@ std::optional<std::string> periodOf(std::string_view raw, DateFormat format, Per
     return periodText(year, month, unit);
 }
 
+std::expected<void, InputError> checkPeriodDates(const Cohort& cohort, const CategoricalColumn& dates, std::optional<DateFormat> format)
+{
+    auto checked = analysePeriods(cohort, dates, format, PeriodUnit::Month, 0.95, true);
+    if (!checked)
+        return std::unexpected(checked.error());
+    return {};
+}
+
 std::expected<PeriodAnalysis, InputError> analysePeriods(const Cohort& cohort, const CategoricalColumn& dates,
-                                                         std::optional<DateFormat> format, PeriodUnit unit, double confidence)
+                                                         std::optional<DateFormat> format, PeriodUnit unit, double confidence,
+                                                         bool datesOnly)
 {
     InputError error;
     error.column = dates.name;
@@ -146,6 +155,8 @@ std::expected<PeriodAnalysis, InputError> analysePeriods(const Cohort& cohort, c
         error.remedy = "give dates as YYYY-MM-DD, or name the format (Settings → Dates written as, or --date-format dmy or mdy).";
         return std::unexpected(error);
     }
+    if (datesOnly)
+        return out;
     if (out.undated > 0)
         out.warnings.push_back(std::to_string(out.undated) + " rows have no usable date in '" + dates.name + "'"
                                + (firstUnparsed.empty() ? "" : " (first such value: '" + firstUnparsed + "')") + "; they are left out of the periods.");

@@ -51,8 +51,13 @@ struct PeriodAnalysis {
 };
 
 // An InputError when dates are ambiguous (DD/MM or MM/DD, and no format given) or none parses.
+// `datesOnly` stops once the dates are known to be readable (nothing is computed).
 std::expected<PeriodAnalysis, InputError> analysePeriods(const Cohort& cohort, const CategoricalColumn& dates,
                                                          std::optional<DateFormat> format, PeriodUnit unit,
-                                                         double confidence);
+                                                         double confidence, bool datesOnly = false);
+
+// The same refusals as analysePeriods (ambiguous or unreadable dates) without the analysis: for
+// the command line's check before a long run.
+std::expected<void, InputError> checkPeriodDates(const Cohort& cohort, const CategoricalColumn& dates, std::optional<DateFormat> format);
 
 } // namespace plumbline

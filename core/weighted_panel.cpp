@@ -162,6 +162,16 @@ void smoothedCurve(const ModelSupport& s, const SupportCounts& c, const LoessOpt
 
 } // namespace
 
+PanelValues smoothedCalibrationValues(const ModelSupport& s, const SupportCounts& c, const LoessOptions& loess)
+{
+    PanelValues out{};
+    const Totals t = totals(c);
+    if (t.events <= 0.0 || t.nonEvents <= 0.0 || !s.risks)
+        return out;
+    smoothedCurve(s, c, loess, out, nullptr);
+    return out;
+}
+
 PanelValues weightedPanel(const ModelSupport& s, const SupportCounts& c, const FitStart& start,
                           const LoessOptions* loess, std::vector<double>* curve)
 {

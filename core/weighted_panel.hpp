@@ -49,6 +49,10 @@ struct FitStart {
 // The smoothed-curve metrics (ICI, E50, E90, Emax) are computed only when `loess` is given; the
 // fitted curve at each support point is then left in `curve`.
 using PanelValues = std::array<std::optional<double>, PanelMetricCount>;
+// Only the smoothed-calibration metrics (ICI, E50, E90, Emax) of weightedPanel, the same values:
+// for the grouped jackknife, which needs nothing else.
+PanelValues smoothedCalibrationValues(const ModelSupport& support, const SupportCounts& counts, const LoessOptions& loess);
+
 PanelValues weightedPanel(const ModelSupport& support, const SupportCounts& counts, const FitStart& start,
                           const LoessOptions* loess, std::vector<double>* curve = nullptr);
 

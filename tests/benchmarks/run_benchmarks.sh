@@ -102,6 +102,20 @@ peer_s=$(sed -E 's/.*median_s=([0-9.]+).*/\1/' <<<"$peer")
 ours=$(sed -E 's/.*median_s=([0-9.]+).*/\1/' <<<"$plumbline")
 theirs=$(sed -E 's/.*median_s=([0-9.]+).*/\1/' <<<"$pandas")
 rss=$(sed -E 's/.*rss_over_file=([0-9.]+).*/\1/' <<<"$plumbline")
+echo "== continuous risks: 1,000,000 rows written with 9 decimals (nearly every risk distinct)"
+continuous="$work/cohort-1m-continuous.csv"
+if [[ ! -f $continuous ]]; then
+  "$build/app/plumbline-cli" simulate --rows 1000000 --seed 7 --decimals 9 --out "$continuous" >/dev/null
+fi
+# CPU per replicate from two runs, so the fixed part (the jackknife for BCa's acceleration) drops out.
+short=$("$build/tests/benchmarks/plumbline-bench" bootstrap "$continuous" 20 curve | tee /dev/stderr)
+long=$("$build/tests/benchmarks/plumbline-bench" bootstrap "$continuous" 220 curve | tee /dev/stderr)
+cpu_short=$(sed -E 's/.*cpu_s=([0-9.]+).*/\1/' <<<"$short"); cpu_long=$(sed -E 's/.*cpu_s=([0-9.]+).*/\1/' <<<"$long")
+wall_short=$(sed -E 's/.*wall_s=([0-9.]+).*/\1/' <<<"$short"); wall_long=$(sed -E 's/.*wall_s=([0-9.]+).*/\1/' <<<"$long")
+per_replicate_ms=$(awk -v a="$cpu_short" -v b="$cpu_long" 'BEGIN { printf "%.1f", (b - a) / 200 * 1000 }')
+fixed_s=$(awk -v a="$cpu_short" -v b="$cpu_long" 'BEGIN { printf "%.2f", a - 20 * (b - a) / 200 }')
+wall_1000_s=$(awk -v a="$wall_short" -v b="$wall_long" 'BEGIN { printf "%.1f", a + 980 * (b - a) / 200 }')
+echo
 echo "== sample-size planner, one answer per typed change (63 changes)"
 planner=$("$build/tests/benchmarks/plumbline-bench" planner | tee /dev/stderr)
 planner_mean=$(sed -E 's/.*mean_ms=([0-9.]+).*/\1/' <<<"$planner")
@@ -121,3 +135,6 @@ printf '%-34s %10s %12s\n' "  extra memory, bytes per row" "$bootmem" "few"
 printf '%-34s %10s %12s\n' "Python peer, 5 metrics, B=1000" "$bootpeer_s" "-"
 awk -v a="$boot_s" -v b="$bootpeer_s" 'BEGIN { printf "%-34s %10.0fx\n", "peer time / plumbline bootstrap", b / a }'
 printf '%-34s %10s %12s\n' "planner, mean / slowest answer, ms" "$planner_mean / $planner_max" "<= 50 ms"
+printf '%-34s %10s %12s\n' "continuous 1M: CPU ms per replicate" "$per_replicate_ms" "<= 15"
+printf '%-34s %10s %12s\n' "continuous 1M: fixed part, CPU s" "$fixed_s" "<= 0.3"
+printf '%-34s %10s %12s\n' "continuous 1M: B=1000 wall (est.)" "$wall_1000_s" "<= 9"
