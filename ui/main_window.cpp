@@ -94,6 +94,7 @@ MainWindow::MainWindow(QWidget* parent)
         m_progress->setValue(percent);
         m_status->setFullText(stage);
     });
+    connect(m_task, &ValidationTask::panelReady, this, [this](SnapshotPointer snapshot) { showSnapshot(std::move(snapshot), false); });
     connect(m_task, &ValidationTask::finished, this, [this](SnapshotPointer snapshot) { showSnapshot(std::move(snapshot)); });
     connect(m_task, &ValidationTask::failed, this, [this](const QString& message) {
         m_progress->setVisible(false);
@@ -104,7 +105,10 @@ MainWindow::MainWindow(QWidget* parent)
     connect(m_task, &ValidationTask::cancelled, this, [this] {
         m_progress->setVisible(false);
         m_cancel->setVisible(false);
-        m_status->setFullText(tr("Cancelled; the previous results are still shown."));
+        // After the analytic panel arrived, cancelling the bootstrap leaves that panel.
+        const bool analyticShown = m_snapshot && !m_snapshot->validation.bootstrap && m_snapshot->request.bootstrap.replicates > 0;
+        m_status->setFullText(analyticShown ? tr("Bootstrap cancelled; the analytic intervals are shown.")
+                                            : tr("Cancelled; the previous results are still shown."));
     });
     connect(m_cancel, &QPushButton::clicked, m_task, &ValidationTask::cancel);
     connect(m_settings, &SettingsPanel::rerunRequested, this, [this] {
@@ -311,11 +315,12 @@ void MainWindow::runRequest(const AnalysisRequest& request)
     m_task->start(request);
 }
 
-void MainWindow::showSnapshot(SnapshotPointer snapshot)
+void MainWindow::showSnapshot(SnapshotPointer snapshot, bool complete)
 {
     m_snapshot = std::move(snapshot);
-    m_progress->setVisible(false);
-    m_cancel->setVisible(false);
+    // The analytic panel arrives while the bootstrap runs: its progress and Cancel stay.
+    m_progress->setVisible(!complete);
+    m_cancel->setVisible(!complete);
     const AnalysisRequest& request = m_snapshot->request;
     const IntakeAudit& audit = m_snapshot->audit;
     const QString intervals = m_snapshot->validation.bootstrap
@@ -323,7 +328,7 @@ void MainWindow::showSnapshot(SnapshotPointer snapshot)
               .arg(QString::fromStdString(bootstrapCiLabel(request.bootstrap.method)))
               .arg(QLocale().toString(qulonglong(m_snapshot->validation.bootstrap->replicates)))
               .arg(m_snapshot->validation.bootstrap->seed)
-        : tr("analytic");
+        : complete ? tr("analytic") : tr("analytic (bootstrap running)");
     m_title->setFullText(tr("%1 · %2 patients, %3 events (%4 %) · %5 % intervals: %6")
                              .arg(QFileInfo(QString::fromStdString(request.intake.cohortFile)).fileName())
                              .arg(QLocale().toString(qulonglong(audit.rowsUsed)))
@@ -344,7 +349,10 @@ void MainWindow::showSnapshot(SnapshotPointer snapshot)
     rebuildModelToggles();
     setThreshold(m_threshold->threshold());
     const std::size_t warnings = m_snapshot->validation.warnings.size() + audit.warnings.size();
-    m_status->setFullText(warnings > 0 ? tr("Done. %1 warnings: see the Cohort tab.").arg(warnings) : tr("Done."));
+    if (!complete)
+        m_status->setFullText(tr("Analytic intervals shown; the bootstrap's replace them when it ends."));
+    else
+        m_status->setFullText(warnings > 0 ? tr("Done. %1 warnings: see the Cohort tab.").arg(warnings) : tr("Done."));
 }
 
 void MainWindow::setThreshold(double threshold)

@@ -101,7 +101,8 @@ private:
     QWidget* buildOverviewPage();
     void buildStatusBar();
     void fitToScreen(bool always);
-    void showSnapshot(SnapshotPointer snapshot);
+    // `complete` false: the analytic panel while the bootstrap still runs.
+    void showSnapshot(SnapshotPointer snapshot, bool complete = true);
     void setThreshold(double threshold);
     void rebuildModelToggles();
     void addRecentFile(const QString& path);

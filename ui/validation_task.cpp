@@ -73,28 +73,36 @@ void ValidationTask::run(AnalysisRequest request, std::stop_token stop, unsigned
         snapshot->request = request;
         snapshot->updates = addUpdatedModels(intake->cohort, request.addUpdated);
         snapshot->validation = runValidation(intake->cohort, request.panel);
+        snapshot->audit = intake->audit;
+        snapshot->audit.warnings.insert(snapshot->audit.warnings.begin(), request.inputWarnings.begin(), request.inputWarnings.end());
+        snapshot->cohort = std::make_shared<const Cohort>(std::move(intake->cohort));
+        snapshot->inputs = intake->inputs;
         if (request.bootstrap.replicates > 0) {
+            // The analytic panel first: a large cohort's bootstrap takes minutes, its charts and
+            // tables need not wait for it.
+            SnapshotPointer analytic = std::make_shared<const AnalysisSnapshot>(*snapshot);
+            post(generation, [this, analytic] { emit panelReady(analytic); });
             // Progress comes at every percent from a worker; forward at most every 50 ms.
             auto last = std::chrono::steady_clock::now() - std::chrono::seconds(1);
-            auto progress = [this, generation, &last](std::size_t finished, std::size_t total) {
+            auto progress = [this, generation, &last, &request](std::size_t finished, std::size_t total) {
                 const auto now = std::chrono::steady_clock::now();
                 if (finished != total && now - last < std::chrono::milliseconds(50))
                     return;
                 last = now;
                 const int percent = int(finished * 100 / std::max<std::size_t>(total, 1));
-                post(generation, [this, percent] { emit progressed(percent, tr("Bootstrap")); });
+                const QString stage = tr("Bootstrap: %1 of %2 replicates, %n model(s); analytic intervals shown until it ends", nullptr,
+                                         int(request.intake.scoreColumns.size()))
+                                          .arg(finished)
+                                          .arg(total);
+                post(generation, [this, percent, stage] { emit progressed(percent, stage); });
             };
-            const auto bootstrap = runBootstrap(intake->cohort, snapshot->validation, request.bootstrap, progress, stop);
+            const auto bootstrap = runBootstrap(*snapshot->cohort, snapshot->validation, request.bootstrap, progress, stop);
             if (!bootstrap) {
                 done([this] { emit cancelled(); });
                 return;
             }
             applyBootstrap(snapshot->validation, *bootstrap);
         }
-        snapshot->audit = intake->audit;
-        snapshot->audit.warnings.insert(snapshot->audit.warnings.begin(), request.inputWarnings.begin(), request.inputWarnings.end());
-        snapshot->cohort = std::make_shared<const Cohort>(std::move(intake->cohort));
-        snapshot->inputs = intake->inputs;
         SnapshotPointer result = std::move(snapshot);
         done([this, result] { emit finished(result); });
     } catch (const std::exception& error) {

@@ -28,6 +28,9 @@ public:
 
 signals:
     void progressed(int percent, const QString& stage);
+    // The panel with analytic intervals, as soon as it is ready, while the bootstrap still runs;
+    // `finished` then brings the same panel with the bootstrap's intervals and bands.
+    void panelReady(plumbline::SnapshotPointer snapshot);
     void finished(plumbline::SnapshotPointer snapshot);
     void failed(const QString& message);
     void cancelled();
