@@ -171,7 +171,8 @@ std::optional<LoessSummary> loessOnSupport(const RiskSupport& full, const LoessO
     out.binned = n > double(options.exactUpTo) && full.occupied() > options.maxSupportPoints;
     const RiskSupport binnedSupport = out.binned ? bin(full, options.maxSupportPoints) : RiskSupport{};
     const RiskSupport& s = out.binned ? binnedSupport : full;
-    std::vector<double> curve(s.x.size(), 0.0);
+    thread_local std::vector<double> curve; // kept per thread: replicates call this again and again
+    curve.assign(s.x.size(), 0.0);
     // Binned: fits at up to maxVertices bin positions, straight lines between them (the bins
     // are dense, the curve smooth). Exact: a fit at every distinct risk.
     const std::size_t stride = out.binned ? (s.x.size() + options.maxVertices - 1) / options.maxVertices : 1;
@@ -196,7 +197,7 @@ std::optional<LoessSummary> loessOnSupport(const RiskSupport& full, const LoessO
     }
     // The fitted value at each distinct risk: its own fit, or interpolated between bin positions.
     if (!out.binned) {
-        out.fitted = std::move(curve);
+        out.fitted = curve;
     } else {
         out.fitted.resize(full.x.size());
         std::size_t j = 0;
@@ -210,7 +211,8 @@ std::optional<LoessSummary> loessOnSupport(const RiskSupport& full, const LoessO
                 out.fitted[k] = curve[j]; // at a bin position, or beyond the first or last: hold the end
         }
     }
-    std::vector<std::pair<double, double>> distances;
+    thread_local std::vector<std::pair<double, double>> distances;
+    distances.clear();
     distances.reserve(full.x.size());
     double sum = 0.0;
     for (std::size_t k = 0; k < full.x.size(); ++k) {

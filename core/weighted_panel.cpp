@@ -126,7 +126,11 @@ void accuracy(const ModelSupport& s, const SupportCounts& c, const Totals& t, Pa
 void calibrationFits(const ModelSupport& s, const SupportCounts& c, const FitStart& start, PanelValues& out)
 {
     // Patients whose outcome contradicts a risk of 0 or 1 are left out, as in the full sample.
-    std::vector<double> events(c.events), trials(s.x.size());
+    // Buffers kept per thread: a replicate on a million distinct risks would otherwise allocate
+    // and fault in fresh megabytes every time.
+    thread_local std::vector<double> events, trials;
+    events.resize(s.x.size());
+    trials.resize(s.x.size());
     for (std::size_t k = 0; k < s.x.size(); ++k) {
         const double agreeingEvents = contradictsOutcome(s.x[k], true) ? 0.0 : c.events[k];
         const double agreeingNonEvents = contradictsOutcome(s.x[k], false) ? 0.0 : c.nonEvents[k];
@@ -146,7 +150,10 @@ void calibrationFits(const ModelSupport& s, const SupportCounts& c, const FitSta
 void smoothedCurve(const ModelSupport& s, const SupportCounts& c, const LoessOptions& options, PanelValues& out,
                    std::vector<double>* curve)
 {
-    RiskSupport risks{s.x, std::vector<double>(s.x.size()), c.events};
+    thread_local RiskSupport risks;
+    risks.x.assign(s.x.begin(), s.x.end());
+    risks.events.assign(c.events.begin(), c.events.end());
+    risks.count.resize(s.x.size());
     for (std::size_t k = 0; k < s.x.size(); ++k)
         risks.count[k] = c.events[k] + c.nonEvents[k];
     const auto loess = loessOnSupport(risks, options);
