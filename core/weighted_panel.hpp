@@ -21,6 +21,8 @@ struct ModelSupport {
     std::vector<double> logRisk;           // ln x and ln(1 − x) (risks only): fixed, so computed once
     std::vector<double> logComplement;     // rather than in every replicate
     std::vector<std::uint32_t> rowSupport; // support point of each row
+    ScoreOrder rowsInOrder;                // the rows by ascending score: counting walks them so
+                                           // that its writes go in order (empty: file order)
     bool risks = true;                     // false for a points score: discrimination only
 };
 ModelSupport buildModelSupport(std::span<const double> score, const ScoreOrder& order, bool risks);
