@@ -8,15 +8,13 @@ namespace plumbline {
 
 namespace {
 
-using SupportPoints = RiskSupport;
-
 // Pools support points into equal-width bins placed at their count-weighted mean; bins holding
 // no patient are left out.
-SupportPoints bin(const SupportPoints& s, std::size_t bins)
+RiskSupport bin(const RiskPoints& s, std::size_t bins)
 {
     const double lo = s.x.front(), hi = s.x.back();
     const double width = (hi - lo) / double(bins);
-    SupportPoints b;
+    RiskSupport b;
     std::size_t current = bins + 1;
     double weightedX = 0.0;
     auto close = [&] {
@@ -49,7 +47,7 @@ SupportPoints bin(const SupportPoints& s, std::size_t bins)
 }
 
 // Local quadratic fit at x0 with tricube weights over the neighbourhood holding q patients.
-std::optional<double> fitAt(const SupportPoints& s, double x0, double q)
+std::optional<double> fitAt(const RiskPoints& s, double x0, double q)
 {
     // The q nearest patients: grow a window around x0 by distance until it holds q patients.
     const std::size_t m = s.x.size();
@@ -98,12 +96,12 @@ std::optional<double> fitAt(const SupportPoints& s, double x0, double q)
 
 } // namespace
 
-double RiskSupport::patients() const
+double RiskPoints::patients() const
 {
     return std::accumulate(count.begin(), count.end(), 0.0);
 }
 
-std::size_t RiskSupport::occupied() const
+std::size_t RiskPoints::occupied() const
 {
     return static_cast<std::size_t>(std::count_if(count.begin(), count.end(), [](double c) { return c > 0.0; }));
 }
@@ -160,7 +158,7 @@ double weightedQuantileType7(std::vector<std::pair<double, double>>& values, dou
     return low + (position - below) * (high - low);
 }
 
-std::optional<LoessSummary> loessOnSupport(const RiskSupport& full, const LoessOptions& options)
+std::optional<LoessSummary> loessOnSupport(const RiskPoints& full, const LoessOptions& options)
 {
     constexpr std::size_t minimumDistinct = 10; // fewer: a points score, not a smooth risk [common practice]
     const double n = full.patients();
@@ -170,7 +168,7 @@ std::optional<LoessSummary> loessOnSupport(const RiskSupport& full, const LoessO
     LoessSummary out;
     out.binned = n > double(options.exactUpTo) && full.occupied() > options.maxSupportPoints;
     const RiskSupport binnedSupport = out.binned ? bin(full, options.maxSupportPoints) : RiskSupport{};
-    const RiskSupport& s = out.binned ? binnedSupport : full;
+    const RiskPoints s = out.binned ? binnedSupport.points() : full;
     thread_local std::vector<double> curve; // kept per thread: replicates call this again and again
     curve.assign(s.x.size(), 0.0);
     // Binned: fits at up to maxVertices bin positions, straight lines between them (the bins

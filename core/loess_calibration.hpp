@@ -13,13 +13,25 @@ namespace plumbline {
 
 // Distinct risks in ascending order with how many patients (and events) sit at each, possibly
 // frequency-weighted (a bootstrap replicate). A point may have a count of zero.
+// The same points, viewed: a bootstrap replicate passes its counts beside the fixed risks without
+// copying either.
+struct RiskPoints {
+    std::span<const double> x;
+    std::span<const double> count;
+    std::span<const double> events;
+
+    double patients() const;
+    std::size_t occupied() const; // points with a positive count
+};
+
 struct RiskSupport {
     std::vector<double> x;
     std::vector<double> count;
     std::vector<double> events;
 
-    double patients() const;
-    std::size_t occupied() const; // points with a positive count
+    double patients() const { return points().patients(); }
+    std::size_t occupied() const { return points().occupied(); }
+    RiskPoints points() const { return {x, count, events}; }
 };
 
 // Collapses patients with equal risks into one weighted point.
@@ -52,7 +64,11 @@ struct LoessSummary {
 
 // nullopt when the curve cannot be fitted: fewer than 10 distinct risks (e.g. a points score),
 // or a neighbourhood too small or too tied for a local quadratic.
-std::optional<LoessSummary> loessOnSupport(const RiskSupport& support, const LoessOptions& options = {});
+std::optional<LoessSummary> loessOnSupport(const RiskPoints& support, const LoessOptions& options = {});
+inline std::optional<LoessSummary> loessOnSupport(const RiskSupport& support, const LoessOptions& options = {})
+{
+    return loessOnSupport(support.points(), options);
+}
 
 // The same per patient: `fitted` then has one value per patient, in data order.
 struct LoessCalibration {

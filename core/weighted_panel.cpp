@@ -164,13 +164,13 @@ void calibrationFits(const ModelSupport& s, const SupportCounts& c, const FitSta
 void smoothedCurve(const ModelSupport& s, const SupportCounts& c, const LoessOptions& options, PanelValues& out,
                    std::vector<double>* curve)
 {
-    thread_local RiskSupport risks;
-    risks.x.assign(s.x.begin(), s.x.end());
-    risks.events.assign(c.events.begin(), c.events.end());
-    risks.count.resize(s.x.size());
+    // The fixed risks and the replicate's events are viewed, not copied; only the patient counts
+    // are formed (in a buffer kept per thread).
+    thread_local std::vector<double> patients;
+    patients.resize(s.x.size());
     for (std::size_t k = 0; k < s.x.size(); ++k)
-        risks.count[k] = c.events[k] + c.nonEvents[k];
-    const auto loess = loessOnSupport(risks, options);
+        patients[k] = c.events[k] + c.nonEvents[k];
+    const auto loess = loessOnSupport(RiskPoints{s.x, patients, c.events}, options);
     if (!loess)
         return;
     out[Ici] = loess->ici;
