@@ -7,7 +7,10 @@
 
 #include <algorithm>
 #include <cmath>
+#include <exception>
+#include <mutex>
 #include <numeric>
+#include <thread>
 
 namespace plumbline {
 
@@ -76,14 +79,45 @@ SubgroupAnalysis analyseSubgroups(const Cohort& cohort, const PanelSettings& set
         std::vector<std::uint32_t> codes(column.levels.size());
         std::iota(codes.begin(), codes.end(), 0u);
         std::sort(codes.begin(), codes.end(), [&](auto a, auto b) { return column.levels[a] < column.levels[b]; });
-        for (const std::uint32_t code : codes) {
-            const Cohort level = levelCohort(cohort, column, code);
-            const std::size_t events = level.events();
-            const bool tooSmall = level.rows() < minimumCell || events < minimumCell || level.rows() - events < minimumCell;
-            const ValidationResult result = runValidation(level, settings, 1);
+        // Each level's panel on its own rows, levels shared between two threads (each result
+        // kept in its level's slot, so the outcome does not depend on the threads).
+        struct LevelRun {
+            std::size_t rows = 0, events = 0;
+            ValidationResult result;
+            std::vector<double> expected; // Σ risk per model
+        };
+        std::vector<LevelRun> runs(codes.size());
+        std::exception_ptr failure;
+        std::mutex failureMutex;
+        auto work = [&](std::size_t first) {
+            try {
+                for (std::size_t i = first; i < codes.size(); i += 2) {
+                    const Cohort level = levelCohort(cohort, column, codes[i]);
+                    runs[i].rows = level.rows();
+                    runs[i].events = level.events();
+                    runs[i].result = runValidation(level, settings, 1);
+                    for (const auto& model : level.models)
+                        runs[i].expected.push_back(std::accumulate(model.values.begin(), model.values.end(), 0.0));
+                }
+            } catch (...) {
+                const std::lock_guard lock(failureMutex);
+                failure = std::current_exception();
+            }
+        };
+        {
+            std::jthread second(work, std::size_t{1});
+            work(0);
+        }
+        if (failure)
+            std::rethrow_exception(failure);
+        for (std::size_t i = 0; i < codes.size(); ++i) {
+            const std::uint32_t code = codes[i];
+            const std::size_t rows = runs[i].rows, events = runs[i].events;
+            const bool tooSmall = rows < minimumCell || events < minimumCell || rows - events < minimumCell;
+            const ValidationResult& result = runs[i].result;
             for (std::size_t m = 0; m < cohort.models.size(); ++m) {
                 const ModelValidation& panel = result.models[m];
-                out.results.push_back({column.name, column.levels[code], cohort.models[m].name, level.rows(), events, tooSmall, panel});
+                out.results.push_back({column.name, column.levels[code], cohort.models[m].name, rows, events, tooSmall, panel});
                 if (tooSmall)
                     continue; // not in the heterogeneity test or the funnel, but shown
                 const Estimate& a = panel.metrics[CalibrationIntercept].estimate;
@@ -96,9 +130,7 @@ SubgroupAnalysis analyseSubgroups(const Cohort& cohort, const PanelSettings& set
                 if (c.value && c.se && *c.value > 0.0 && *c.value < 1.0)
                     logitC[m].emplace_back(std::log(*c.value / (1.0 - *c.value)), *c.se / (*c.value * (1.0 - *c.value)));
                 if (scaleIsProbabilistic(cohort.scale)) {
-                    double expected = 0.0;
-                    for (double p : level.models[m].values)
-                        expected += p;
+                    const double expected = runs[i].expected[m];
                     if (expected > 0.0)
                         out.funnel.push_back({column.name, column.levels[code], cohort.models[m].name, double(events), expected,
                                               double(events) / expected, funnelLimit(expected, 0.025, false), funnelLimit(expected, 0.025, true),
