@@ -44,6 +44,7 @@
 #include <QStackedWidget>
 #include <QStatusBar>
 #include <QTabWidget>
+#include <QTimer>
 #include <QToolTip>
 #include <QVBoxLayout>
 
@@ -336,23 +337,46 @@ void MainWindow::showSnapshot(SnapshotPointer snapshot, bool complete)
                              .arg(100.0 * double(audit.events) / double(std::max<std::size_t>(audit.rowsUsed, 1)), 0, 'f', 1)
                              .arg(request.panel.confidence * 100.0)
                              .arg(intervals));
-    m_overview->setSnapshot(m_snapshot);
-    m_overviewPages->setCurrentWidget(m_overview);
-    m_metrics->setSnapshot(m_snapshot);
-    m_riskGroups->setSnapshot(m_snapshot);
-    m_cohort->setSnapshot(m_snapshot);
-    m_comparison->setSnapshot(m_snapshot);
-    m_updating->setSnapshot(m_snapshot);
-    m_decision->setSnapshot(m_snapshot);
-    m_subgroups->setSnapshot(m_snapshot);
-    m_periods->setSnapshot(m_snapshot);
-    rebuildModelToggles();
-    setThreshold(m_threshold->threshold());
+    // Each stage fills one part of the window. The analytic panel arrives mid-run: its stages run one
+    // per event-loop turn, so a user dragging the threshold meanwhile never waits for the whole
+    // window to refill. The final result fills everything at once (tests and exports read it at once).
+    const SnapshotPointer shown = m_snapshot;
+    std::vector<std::function<void()>> stages{
+        [this] { m_overview->setSnapshot(m_snapshot); },
+        [this] { m_overviewPages->setCurrentWidget(m_overview); },
+        [this] { m_metrics->setSnapshot(m_snapshot); },
+        [this] { m_riskGroups->setSnapshot(m_snapshot); },
+        [this] { m_cohort->setSnapshot(m_snapshot); },
+        [this] { m_comparison->setSnapshot(m_snapshot); },
+        [this] { m_updating->setSnapshot(m_snapshot); },
+        [this] { m_decision->setSnapshot(m_snapshot); },
+        [this] { m_subgroups->setSnapshot(m_snapshot); },
+        [this] { m_periods->setSnapshot(m_snapshot); },
+        [this] {
+            rebuildModelToggles();
+            setThreshold(m_threshold->threshold());
+        },
+    };
     const std::size_t warnings = m_snapshot->validation.warnings.size() + audit.warnings.size();
-    if (!complete)
+    if (!complete) {
         m_status->setFullText(tr("Analytic intervals shown; the bootstrap's replace them when it ends."));
-    else
-        m_status->setFullText(warnings > 0 ? tr("Done. %1 warnings: see the Cohort tab.").arg(warnings) : tr("Done."));
+        runStagesInTurns(shown, std::move(stages), 0);
+        return;
+    }
+    for (auto& stage : stages)
+        stage();
+    m_status->setFullText(warnings > 0 ? tr("Done. %1 warnings: see the Cohort tab.").arg(warnings) : tr("Done."));
+}
+
+void MainWindow::runStagesInTurns(SnapshotPointer shown, std::vector<std::function<void()>> stages, std::size_t next)
+{
+    // A newer snapshot (the final one, or a new run) supersedes the remaining stages.
+    if (next >= stages.size() || m_snapshot != shown)
+        return;
+    stages[next]();
+    QTimer::singleShot(0, this, [this, shown = std::move(shown), stages = std::move(stages), next]() mutable {
+        runStagesInTurns(std::move(shown), std::move(stages), next + 1);
+    });
 }
 
 void MainWindow::setThreshold(double threshold)

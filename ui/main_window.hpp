@@ -4,6 +4,9 @@
 
 #include <QMainWindow>
 
+#include <functional>
+#include <vector>
+
 class QCheckBox;
 class QHBoxLayout;
 class QLabel;
@@ -103,6 +106,7 @@ private:
     void fitToScreen(bool always);
     // `complete` false: the analytic panel while the bootstrap still runs.
     void showSnapshot(SnapshotPointer snapshot, bool complete = true);
+    void runStagesInTurns(SnapshotPointer shown, std::vector<std::function<void()>> stages, std::size_t next);
     void setThreshold(double threshold);
     void rebuildModelToggles();
     void addRecentFile(const QString& path);
