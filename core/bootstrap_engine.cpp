@@ -95,7 +95,7 @@ void drawCounts(const Shared& shared, RandomStream& random, std::vector<std::uin
 
 // False when a stop was requested part-way (the replicate is then incomplete and discarded).
 bool runReplicate(Shared& shared, std::size_t r, std::vector<std::uint16_t>& counts, SupportCounts& supportCounts,
-                  std::vector<double>& curve, const std::stop_token& stop)
+                  CurveSample& curve, const std::stop_token& stop)
 {
     RandomStream random(shared.settings.seed, r + 1);
     drawCounts(shared, random, counts, shared.redraws[r]);
@@ -105,13 +105,14 @@ bool runReplicate(Shared& shared, std::size_t r, std::vector<std::uint16_t>& cou
         const PreparedModel& model = shared.models[m];
         countRows(model.support, shared.cohort.outcome, counts, supportCounts);
         const bool withCurve = shared.settings.smoothedCurve && !model.curvePoints.empty();
-        curve.clear();
+        curve.at = model.curvePoints;
+        curve.values.clear();
         const PanelValues v = weightedPanel(model.support, supportCounts, model.start, withCurve ? &shared.loess : nullptr,
                                             withCurve ? &curve : nullptr);
         for (std::size_t k = 0; k < PanelMetricCount; ++k)
             shared.values[m][k][r] = v[k] ? *v[k] : undefinedValue;
         for (std::size_t j = 0; j < model.curvePoints.size(); ++j)
-            shared.curves[m][j][r] = curve.empty() ? undefinedValue : curve[model.curvePoints[j]];
+            shared.curves[m][j][r] = curve.values.empty() ? undefinedValue : curve.values[j];
         const auto sensitivity = sensitivityAtFalsePositiveRates(model.support, supportCounts, shared.rocRates);
         for (std::size_t j = 0; j < sensitivity.size(); ++j)
             shared.rocs[m][j][r] = sensitivity[j];
@@ -336,7 +337,7 @@ std::optional<BootstrapResult> runBootstrap(const Cohort& cohort, const Validati
     auto worker = [&] {
         std::vector<std::uint16_t> counts(cohort.rows());
         SupportCounts supportCounts;
-        std::vector<double> curve;
+        CurveSample curve;
         try {
             for (std::size_t r; !failed && !stop.stop_requested() && (r = nextReplicate++) < B;) {
                 if (!runReplicate(shared, r, counts, supportCounts, curve, stop))

@@ -1,5 +1,7 @@
 #include "loess_calibration.hpp"
 
+#include "weighted_quantile.hpp"
+
 #include <algorithm>
 #include <cmath>
 #include <numeric>
@@ -9,41 +11,36 @@ namespace plumbline {
 namespace {
 
 // Pools support points into equal-width bins placed at their count-weighted mean; bins holding
-// no patient are left out.
-RiskSupport bin(const RiskPoints& s, std::size_t bins)
+// no patient are left out. The points are sorted and a point's bin never decreases with its risk
+// (rounding is monotone), so each bin's first point is found by binary search: a few thousand
+// divisions instead of one per point, the same bins and the same sums in the same order.
+void binInto(const RiskPoints& s, std::size_t bins, RiskSupport& b)
 {
     const double lo = s.x.front(), hi = s.x.back();
     const double width = (hi - lo) / double(bins);
-    RiskSupport b;
-    std::size_t current = bins + 1;
-    double weightedX = 0.0;
-    auto close = [&] {
-        if (b.x.empty())
-            return;
-        if (b.count.back() > 0.0) {
-            b.x.back() = weightedX / b.count.back();
-        } else {
-            b.x.pop_back();
-            b.count.pop_back();
-            b.events.pop_back();
+    auto binOf = [&](double x) { return std::min(bins - 1, static_cast<std::size_t>((x - lo) / width)); };
+    b.x.clear();
+    b.count.clear();
+    b.events.clear();
+    std::size_t first = 0;
+    while (first < s.x.size()) {
+        const std::size_t index = binOf(s.x[first]);
+        const auto end = std::partition_point(s.x.begin() + std::ptrdiff_t(first), s.x.end(),
+                                              [&](double x) { return binOf(x) == index; });
+        const auto last = static_cast<std::size_t>(end - s.x.begin());
+        double count = 0.0, events = 0.0, weightedX = 0.0;
+        for (std::size_t i = first; i < last; ++i) {
+            count += s.count[i];
+            events += s.events[i];
+            weightedX += s.x[i] * s.count[i];
         }
-    };
-    for (std::size_t i = 0; i < s.x.size(); ++i) {
-        const auto index = std::min(bins - 1, static_cast<std::size_t>((s.x[i] - lo) / width));
-        if (index != current) {
-            close();
-            b.x.push_back(0.0);
-            b.count.push_back(0.0);
-            b.events.push_back(0.0);
-            weightedX = 0.0;
-            current = index;
+        if (count > 0.0) {
+            b.x.push_back(weightedX / count);
+            b.count.push_back(count);
+            b.events.push_back(events);
         }
-        b.count.back() += s.count[i];
-        b.events.back() += s.events[i];
-        weightedX += s.x[i] * s.count[i];
+        first = last;
     }
-    close();
-    return b;
 }
 
 // Local quadratic fit at x0 with tricube weights over the neighbourhood holding q patients.
@@ -122,70 +119,43 @@ RiskSupport collapseRisks(std::span<const std::uint8_t> y, std::span<const doubl
     return s;
 }
 
-double weightedQuantileType7(std::vector<std::pair<double, double>>& values, double probability)
-{
-    double total = 0.0;
-    for (const auto& [value, count] : values)
-        total += count;
-    const double position = probability * (total - 1.0);
-    const double below = std::floor(position);
-    // Value at 0-based rank r of the expanded multiset, by three-way partitioning around a pivot.
-    auto select = [&values](double rank) {
-        auto lo = values.begin(), hi = values.end();
-        for (;;) {
-            const double pivot = (lo + (hi - lo) / 2)->first;
-            auto lessEnd = std::partition(lo, hi, [pivot](const auto& v) { return v.first < pivot; });
-            auto equalEnd = std::partition(lessEnd, hi, [pivot](const auto& v) { return v.first == pivot; });
-            double less = 0.0, equal = 0.0;
-            for (auto it = lo; it != lessEnd; ++it)
-                less += it->second;
-            for (auto it = lessEnd; it != equalEnd; ++it)
-                equal += it->second;
-            if (rank < less) {
-                hi = lessEnd;
-            } else if (rank < less + equal || equalEnd == hi) {
-                return pivot;
-            } else {
-                rank -= less + equal;
-                lo = equalEnd;
-            }
-        }
-    };
-    const double low = select(below);
-    if (below + 1.0 > total - 1.0)
-        return low;
-    const double high = select(below + 1.0);
-    return low + (position - below) * (high - low);
-}
-
-std::optional<LoessSummary> loessOnSupport(const RiskPoints& full, const LoessOptions& options)
+bool loessInto(const RiskPoints& full, const LoessOptions& options, LoessSummary& out)
 {
     constexpr std::size_t minimumDistinct = 10; // fewer: a points score, not a smooth risk [common practice]
-    const double n = full.patients();
+    double n = 0.0;
+    std::size_t occupied = 0;
+    for (const double c : full.count) {
+        n += c;
+        occupied += c > 0.0;
+    }
     const double q = std::floor(n * options.span);
-    if (full.occupied() < minimumDistinct || q < 3.0)
-        return std::nullopt;
-    LoessSummary out;
-    out.binned = n > double(options.exactUpTo) && full.occupied() > options.maxSupportPoints;
-    const RiskSupport binnedSupport = out.binned ? bin(full, options.maxSupportPoints) : RiskSupport{};
+    if (occupied < minimumDistinct || q < 3.0)
+        return false;
+    out.ici = out.e50 = out.e90 = out.emax = 0.0;
+    out.binned = n > double(options.exactUpTo) && occupied > options.maxSupportPoints;
+    // Buffers kept per thread: bootstrap replicates call this again and again.
+    thread_local RiskSupport binnedSupport;
+    if (out.binned)
+        binInto(full, options.maxSupportPoints, binnedSupport);
     const RiskPoints s = out.binned ? binnedSupport.points() : full;
-    thread_local std::vector<double> curve; // kept per thread: replicates call this again and again
+    thread_local std::vector<double> curve;
     curve.assign(s.x.size(), 0.0);
     // Binned: fits at up to maxVertices bin positions, straight lines between them (the bins
     // are dense, the curve smooth). Exact: a fit at every distinct risk.
     const std::size_t stride = out.binned ? (s.x.size() + options.maxVertices - 1) / options.maxVertices : 1;
-    std::vector<std::size_t> vertices;
+    thread_local std::vector<std::size_t> vertices;
+    vertices.clear();
     for (std::size_t i = 0; i < s.x.size(); i += stride)
         vertices.push_back(i);
     if (vertices.back() != s.x.size() - 1)
         vertices.push_back(s.x.size() - 1);
     for (std::size_t v = 0; v < vertices.size(); ++v) {
         if (options.stop.stop_requested())
-            return std::nullopt;
+            return false;
         const std::size_t i = vertices[v];
         const auto value = fitAt(s, s.x[i], q);
         if (!value)
-            return std::nullopt;
+            return false;
         curve[i] = *value;
         if (v == 0)
             continue;
@@ -195,7 +165,7 @@ std::optional<LoessSummary> loessOnSupport(const RiskPoints& full, const LoessOp
     }
     // The fitted value at each distinct risk: its own fit, or interpolated between bin positions.
     if (!out.binned) {
-        out.fitted = curve;
+        out.fitted.assign(curve.begin(), curve.end());
     } else {
         out.fitted.resize(full.x.size());
         std::size_t j = 0;
@@ -209,21 +179,35 @@ std::optional<LoessSummary> loessOnSupport(const RiskPoints& full, const LoessOp
                 out.fitted[k] = curve[j]; // at a bin position, or beyond the first or last: hold the end
         }
     }
-    thread_local std::vector<std::pair<double, double>> distances;
-    distances.clear();
-    distances.reserve(full.x.size());
+    thread_local std::vector<double> distance;
+    distance.resize(full.x.size());
     double sum = 0.0;
+    bool finite = true;
     for (std::size_t k = 0; k < full.x.size(); ++k) {
+        const double d = std::abs(out.fitted[k] - full.x[k]);
+        distance[k] = d;
         if (full.count[k] <= 0.0)
             continue;
-        const double d = std::abs(out.fitted[k] - full.x[k]);
+        finite = finite && std::isfinite(d);
         sum += d * full.count[k];
         out.emax = std::max(out.emax, d);
-        distances.emplace_back(d, full.count[k]);
     }
     out.ici = sum / n;
-    out.e50 = weightedQuantileType7(distances, 0.5);
-    out.e90 = weightedQuantileType7(distances, 0.9);
+    if (!finite)
+        return false; // a local fit overflowed: no curve rather than a meaningless one
+    const double probabilities[] = {0.5, 0.9};
+    double quantiles[2];
+    weightedQuantilesType7(distance, full.count, n, probabilities, quantiles);
+    out.e50 = quantiles[0];
+    out.e90 = quantiles[1];
+    return true;
+}
+
+std::optional<LoessSummary> loessOnSupport(const RiskPoints& full, const LoessOptions& options)
+{
+    LoessSummary out;
+    if (!loessInto(full, options, out))
+        return std::nullopt;
     return out;
 }
 

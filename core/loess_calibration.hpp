@@ -65,6 +65,9 @@ struct LoessSummary {
 // nullopt when the curve cannot be fitted: fewer than 10 distinct risks (e.g. a points score),
 // or a neighbourhood too small or too tied for a local quadratic.
 std::optional<LoessSummary> loessOnSupport(const RiskPoints& support, const LoessOptions& options = {});
+// The same into `out`, whose buffers are reused (bootstrap replicates); false where the above is
+// nullopt, `out` then unspecified.
+bool loessInto(const RiskPoints& support, const LoessOptions& options, LoessSummary& out);
 inline std::optional<LoessSummary> loessOnSupport(const RiskSupport& support, const LoessOptions& options = {})
 {
     return loessOnSupport(support.points(), options);
@@ -81,8 +84,5 @@ std::optional<LoessCalibration> loessCalibration(std::span<const std::uint8_t> o
 std::optional<LoessCalibration> loessCalibration(std::span<const std::uint8_t> outcome, std::span<const double> risk,
                                                  const LoessOptions& options = {});
 
-// R's type-7 quantile (numpy's default) of a multiset given as values with counts, by weighted
-// selection in expected linear time. Counts are whole numbers; values are reordered.
-double weightedQuantileType7(std::vector<std::pair<double, double>>& valueCounts, double probability);
 
 } // namespace plumbline

@@ -142,16 +142,23 @@ void calibrationFits(const ModelSupport& s, const SupportCounts& c, const FitSta
     // Patients whose outcome contradicts a risk of 0 or 1 are left out, as in the full sample.
     // Buffers kept per thread: a replicate on a million distinct risks would otherwise allocate
     // and fault in fresh megabytes every time.
-    thread_local std::vector<double> events, trials;
+    // Only points holding a patient enter the fits (about a third of a replicate's points hold
+    // none); a point without trials adds exactly zero to every sum, so the fits are unchanged.
+    thread_local std::vector<double> lp, events, trials;
+    lp.resize(s.x.size());
     events.resize(s.x.size());
     trials.resize(s.x.size());
+    std::size_t used = 0;
     for (std::size_t k = 0; k < s.x.size(); ++k) {
         const double agreeingEvents = contradictsOutcome(s.x[k], true) ? 0.0 : c.events[k];
         const double agreeingNonEvents = contradictsOutcome(s.x[k], false) ? 0.0 : c.nonEvents[k];
-        events[k] = agreeingEvents;
-        trials[k] = agreeingEvents + agreeingNonEvents;
+        // Branch-free: written at `used` always, kept only when the point has trials.
+        lp[used] = s.lp[k];
+        events[used] = agreeingEvents;
+        trials[used] = agreeingEvents + agreeingNonEvents;
+        used += trials[used] > 0.0;
     }
-    const BinomialPoints points{s.lp, events, trials};
+    const BinomialPoints points{std::span(lp).first(used), std::span(events).first(used), std::span(trials).first(used)};
     // Estimates only: a replicate reads no standard error or log-likelihood.
     if (const auto intercept = calibrationInterceptEstimate(points, start.calibrationIntercept))
         out[CalibrationIntercept] = *intercept;
@@ -162,7 +169,7 @@ void calibrationFits(const ModelSupport& s, const SupportCounts& c, const FitSta
 }
 
 void smoothedCurve(const ModelSupport& s, const SupportCounts& c, const LoessOptions& options, PanelValues& out,
-                   std::vector<double>* curve)
+                   CurveSample* curve)
 {
     // The fixed risks and the replicate's events are viewed, not copied; only the patient counts
     // are formed (in a buffer kept per thread).
@@ -170,15 +177,18 @@ void smoothedCurve(const ModelSupport& s, const SupportCounts& c, const LoessOpt
     patients.resize(s.x.size());
     for (std::size_t k = 0; k < s.x.size(); ++k)
         patients[k] = c.events[k] + c.nonEvents[k];
-    const auto loess = loessOnSupport(RiskPoints{s.x, patients, c.events}, options);
-    if (!loess)
+    thread_local LoessSummary loess;
+    if (!loessInto(RiskPoints{s.x, patients, c.events}, options, loess))
         return;
-    out[Ici] = loess->ici;
-    out[E50] = loess->e50;
-    out[E90] = loess->e90;
-    out[Emax] = loess->emax;
-    if (curve)
-        *curve = loess->fitted;
+    out[Ici] = loess.ici;
+    out[E50] = loess.e50;
+    out[E90] = loess.e90;
+    out[Emax] = loess.emax;
+    if (curve) {
+        curve->values.clear();
+        for (const std::size_t k : curve->at)
+            curve->values.push_back(loess.fitted[k]);
+    }
 }
 
 } // namespace
@@ -194,7 +204,7 @@ PanelValues smoothedCalibrationValues(const ModelSupport& s, const SupportCounts
 }
 
 PanelValues weightedPanel(const ModelSupport& s, const SupportCounts& c, const FitStart& start,
-                          const LoessOptions* loess, std::vector<double>* curve)
+                          const LoessOptions* loess, CurveSample* curve)
 {
     PanelValues out{};
     const Totals t = totals(c);

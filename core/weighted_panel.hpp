@@ -49,14 +49,19 @@ struct FitStart {
 
 // Every scalar metric of the panel on weighted support points, each undefined value empty.
 // The smoothed-curve metrics (ICI, E50, E90, Emax) are computed only when `loess` is given; the
-// fitted curve at each support point is then left in `curve`.
+// fitted curve at the support points `curve->at` is then left in `curve->values` (empty when the
+// curve cannot be fitted).
 using PanelValues = std::array<std::optional<double>, PanelMetricCount>;
 // Only the smoothed-calibration metrics (ICI, E50, E90, Emax) of weightedPanel, the same values:
 // for the grouped jackknife, which needs nothing else.
 PanelValues smoothedCalibrationValues(const ModelSupport& support, const SupportCounts& counts, const LoessOptions& loess);
 
+struct CurveSample {
+    std::span<const std::size_t> at; // support indices
+    std::vector<double> values;
+};
 PanelValues weightedPanel(const ModelSupport& support, const SupportCounts& counts, const FitStart& start,
-                          const LoessOptions* loess, std::vector<double>* curve = nullptr);
+                          const LoessOptions* loess, CurveSample* curve = nullptr);
 
 // Sensitivity at fixed false-positive rates (linear interpolation along the weighted ROC curve).
 std::vector<double> sensitivityAtFalsePositiveRates(const ModelSupport& support, const SupportCounts& counts,
