@@ -43,25 +43,71 @@ void binInto(const RiskPoints& s, std::size_t bins, RiskSupport& b)
     }
 }
 
-// Local quadratic fit at x0 with tricube weights over the neighbourhood holding q patients.
-std::optional<double> fitAt(const RiskPoints& s, double x0, double q)
+// The neighbourhood of x0 holding q patients: the points taken nearest first (the nearer of
+// the two sides next, the left one on a tie) until they hold q patients; h is the distance of the
+// last one taken. Found by binary search on that distance with cumulative counts (whole numbers,
+// so exact in any order): the same h, and the same fit, as growing the window one point at a
+// time, at a logarithmic instead of a linear cost per fit.
+struct Neighbourhood {
+    std::size_t left, right; // [left, right)
+    double h;
+};
+
+Neighbourhood neighbourhood(const RiskPoints& s, std::span<const double> cumulative, double x0, double q)
 {
-    // The q nearest patients: grow a window around x0 by distance until it holds q patients.
     const std::size_t m = s.x.size();
-    std::size_t right = std::size_t(std::lower_bound(s.x.begin(), s.x.end(), x0) - s.x.begin());
-    std::size_t left = right; // window is [left, right)
-    double held = 0.0, h = 0.0;
-    while (held < q && (left > 0 || right < m)) {
-        const double dl = left > 0 ? x0 - s.x[left - 1] : INFINITY;
-        const double dr = right < m ? s.x[right] - x0 : INFINITY;
-        if (dl <= dr) {
-            held += s.count[--left];
-            h = dl;
-        } else {
-            held += s.count[right++];
-            h = dr;
+    const auto start = std::size_t(std::lower_bound(s.x.begin(), s.x.end(), x0) - s.x.begin());
+    // First left point within h (x0 − x ≤ h), one past the last right point within h (x − x0 ≤ h);
+    // the computed distances are monotone in x, so each is a binary search.
+    auto leftWithin = [&](double h) {
+        return std::size_t(std::partition_point(s.x.begin(), s.x.begin() + std::ptrdiff_t(start),
+                                                [&](double x) { return x0 - x > h; })
+                           - s.x.begin());
+    };
+    auto rightWithin = [&](double h) {
+        return std::size_t(std::partition_point(s.x.begin() + std::ptrdiff_t(start), s.x.end(),
+                                                [&](double x) { return x - x0 <= h; })
+                           - s.x.begin());
+    };
+    auto heldWithin = [&](double h) { return cumulative[rightWithin(h)] - cumulative[leftWithin(h)]; };
+    // The smallest distance of a point, on either side, at which q patients are held.
+    double h = INFINITY;
+    {
+        std::size_t lo = 0, hi = start; // left: the nearest i in [lo, hi) still holding q
+        while (lo < hi) {
+            const std::size_t mid = lo + (hi - lo) / 2;
+            if (heldWithin(x0 - s.x[mid]) >= q)
+                lo = mid + 1;
+            else
+                hi = mid;
         }
+        if (lo > 0)
+            h = x0 - s.x[lo - 1];
     }
+    {
+        std::size_t lo = start, hi = m; // right: the nearest j in [lo, hi) holding q
+        while (lo < hi) {
+            const std::size_t mid = lo + (hi - lo) / 2;
+            if (heldWithin(s.x[mid] - x0) >= q)
+                hi = mid;
+            else
+                lo = mid + 1;
+        }
+        if (lo < m)
+            h = std::min(h, s.x[lo] - x0);
+    }
+    if (h == INFINITY) // fewer than q patients in all: everything, h the farthest
+        return {0, m, std::max(x0 - s.x.front(), s.x.back() - x0)};
+    // Points at distance h itself have weight zero, so which of them the growing window would
+    // have taken changes nothing: all points within h are returned.
+    const std::size_t left = leftWithin(h), right = rightWithin(h);
+    return {left, right, h};
+}
+
+// Local quadratic fit at x0 with tricube weights over the neighbourhood holding q patients.
+std::optional<double> fitAt(const RiskPoints& s, std::span<const double> cumulative, double x0, double q)
+{
+    const auto [left, right, h] = neighbourhood(s, cumulative, x0, q);
     if (!(h > 0.0))
         return std::nullopt; // more than q patients share x0: the local quadratic is singular
     double s0 = 0, s1 = 0, s2 = 0, s3 = 0, s4 = 0, t0 = 0, t1 = 0, t2 = 0;
@@ -138,8 +184,12 @@ bool loessInto(const RiskPoints& full, const LoessOptions& options, LoessSummary
     if (out.binned)
         binInto(full, options.maxSupportPoints, binnedSupport);
     const RiskPoints s = out.binned ? binnedSupport.points() : full;
-    thread_local std::vector<double> curve;
+    thread_local std::vector<double> curve, cumulative;
     curve.assign(s.x.size(), 0.0);
+    cumulative.resize(s.x.size() + 1);
+    cumulative[0] = 0.0;
+    for (std::size_t i = 0; i < s.x.size(); ++i)
+        cumulative[i + 1] = cumulative[i] + s.count[i];
     // Binned: fits at up to maxVertices bin positions, straight lines between them (the bins
     // are dense, the curve smooth). Exact: a fit at every distinct risk.
     const std::size_t stride = out.binned ? (s.x.size() + options.maxVertices - 1) / options.maxVertices : 1;
@@ -153,7 +203,7 @@ bool loessInto(const RiskPoints& full, const LoessOptions& options, LoessSummary
         if (options.stop.stop_requested())
             return false;
         const std::size_t i = vertices[v];
-        const auto value = fitAt(s, s.x[i], q);
+        const auto value = fitAt(s, cumulative, s.x[i], q);
         if (!value)
             return false;
         curve[i] = *value;

@@ -180,3 +180,76 @@ TEST_CASE("Fewer than ten distinct risks give no smoothed curve", "[loess]")
     const std::vector<double> points{1, 2, 3, 4, 5, 6, 7, 8, 9, 1, 2, 3};
     CHECK_FALSE(loessCalibration(y, points)); // 9 distinct values: a points score (common practice; docs/methods.md §12)
 }
+
+namespace {
+
+// The neighbourhood grown one point at a time (nearer side first, the left one on a tie) and the
+// local quadratic by Cramer's rule: the definition of docs/methods.md §12 written out plainly, to
+// hold the binary-searched neighbourhood of the implementation to the same points and h.
+double plainLocalFit(const RiskSupport& s, double x0, double q)
+{
+    const std::size_t m = s.x.size();
+    std::size_t right = std::size_t(std::lower_bound(s.x.begin(), s.x.end(), x0) - s.x.begin()), left = right;
+    double held = 0.0, h = 0.0;
+    while (held < q && (left > 0 || right < m)) {
+        const double dl = left > 0 ? x0 - s.x[left - 1] : INFINITY;
+        const double dr = right < m ? s.x[right] - x0 : INFINITY;
+        if (dl <= dr) {
+            held += s.count[--left];
+            h = dl;
+        } else {
+            held += s.count[right++];
+            h = dr;
+        }
+    }
+    double s0 = 0, s1 = 0, s2 = 0, s3 = 0, s4 = 0, t0 = 0, t1 = 0, t2 = 0;
+    for (std::size_t i = left; i < right; ++i) {
+        const double d = s.x[i] - x0;
+        const double u = std::abs(d) / h;
+        if (u >= 1.0)
+            continue;
+        const double tri = 1.0 - u * u * u;
+        const double w = tri * tri * tri;
+        const double wc = w * s.count[i], wy = w * s.events[i];
+        s0 += wc;
+        s1 += wc * d;
+        s2 += wc * d * d;
+        s3 += wc * d * d * d;
+        s4 += wc * d * d * d * d;
+        t0 += wy;
+        t1 += wy * d;
+        t2 += wy * d * d;
+    }
+    const double det = s0 * (s2 * s4 - s3 * s3) - s1 * (s1 * s4 - s3 * s2) + s2 * (s1 * s3 - s2 * s2);
+    const double det0 = t0 * (s2 * s4 - s3 * s3) - s1 * (t1 * s4 - s3 * t2) + s2 * (t1 * s3 - s2 * t2);
+    return det0 / det;
+}
+
+} // namespace
+
+TEST_CASE("The searched neighbourhood gives the same fits as growing it point by point", "[loess]")
+{
+    RandomStream random(5, 9);
+    for (int trial = 0; trial < 300; ++trial) {
+        // Risks on a coarse grid (so distances to the left and right tie exactly) or spread, some
+        // points without patients, as in a bootstrap replicate.
+        RiskSupport s;
+        const std::size_t m = 12 + random.below(150);
+        const bool grid = trial % 2 == 0;
+        for (std::size_t k = 0; k < m; ++k) {
+            const double x = grid ? double(k + 1) / 256.0 : (s.x.empty() ? 0.0 : s.x.back()) + 1e-4 + random.uniform() * 0.01;
+            s.x.push_back(x);
+            const double count = random.below(4) == 0 ? 0.0 : double(1 + random.below(3));
+            s.count.push_back(count);
+            s.events.push_back(double(random.below(std::uint64_t(count) + 1)));
+        }
+        const auto fit = loessOnSupport(s);
+        if (!fit)
+            continue; // too few occupied points or a singular neighbourhood
+        const double q = std::floor(s.patients() * 0.75);
+        for (std::size_t k = 0; k < m; ++k) {
+            INFO("trial " << trial << " point " << k);
+            CHECK(fit->fitted[k] == plainLocalFit(s, s.x[k], q));
+        }
+    }
+}
