@@ -233,14 +233,14 @@ bool loessInto(const RiskPoints& full, const LoessOptions& options, LoessSummary
     distance.resize(full.x.size());
     double sum = 0.0;
     bool finite = true;
+    // Branch-free (which points hold patients is random): a point without patients adds an
+    // exact zero to the sum and a zero to the maximum.
     for (std::size_t k = 0; k < full.x.size(); ++k) {
         const double d = std::abs(out.fitted[k] - full.x[k]);
         distance[k] = d;
-        if (full.count[k] <= 0.0)
-            continue;
         finite = finite && std::isfinite(d);
         sum += d * full.count[k];
-        out.emax = std::max(out.emax, d);
+        out.emax = std::max(out.emax, full.count[k] > 0.0 ? d : 0.0);
     }
     out.ici = sum / n;
     if (!finite)

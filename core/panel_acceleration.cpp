@@ -19,6 +19,13 @@ constexpr std::string_view grouped = "grouped jackknife (20 groups)";
 // Jackknife-type values for every (support point, class) with patients, weighted by how many.
 class ClassValues {
 public:
+    // Room for every (point, class) at once: growing a million-entry vector by doubling would
+    // copy and fault in its pages again and again.
+    explicit ClassValues(std::size_t points)
+    {
+        m_values.reserve(2 * points);
+        m_counts.reserve(2 * points);
+    }
     void add(double value, double count)
     {
         if (count > 0.0) {
@@ -38,6 +45,17 @@ double expit(double x)
     return 1.0 / (1.0 + std::exp(-x));
 }
 
+// ln p and ln(1 − p) of a support point: precomputed for a risk support, the same functions.
+double logRisk(const ModelSupport& s, std::size_t k)
+{
+    return s.logRisk.size() == s.x.size() ? s.logRisk[k] : std::log(s.x[k]);
+}
+
+double logComplement(const ModelSupport& s, std::size_t k)
+{
+    return s.logComplement.size() == s.x.size() ? s.logComplement[k] : std::log1p(-s.x[k]);
+}
+
 struct Sums {
     double events = 0, nonEvents = 0, riskSum = 0, eventRisk = 0, nonEventRisk = 0, squared = 0, logLikelihood = 0;
 };
@@ -53,7 +71,7 @@ Sums sums(const ModelSupport& s, const SupportCounts& c)
         t.nonEventRisk += f * p;
         t.squared += e * (1 - p) * (1 - p) + f * p * p;
         if (s.risks && p > 0.0 && p < 1.0)
-            t.logLikelihood += e * std::log(p) + f * std::log1p(-p);
+            t.logLikelihood += e * logRisk(s, k) + f * logComplement(s, k);
     }
     t.riskSum = t.eventRisk + t.nonEventRisk;
     return t;
@@ -64,7 +82,7 @@ void cStatistic(const ModelSupport& s, const SupportCounts& c, const Sums& t, do
     if (t.events < 2 || t.nonEvents < 2)
         return;
     const double u = cFull * t.events * t.nonEvents;
-    ClassValues values;
+    ClassValues values(s.x.size());
     double below = 0.0, above = t.events;
     for (std::size_t k = 0; k < s.x.size(); ++k) {
         above -= c.events[k];
@@ -87,7 +105,7 @@ void averagePrecision(const ModelSupport& s, const SupportCounts& c, const Sums&
         precision[k - 1] = tp + fp > 0.0 ? tp / (tp + fp) : 0.0;
         share[k - 1] = tp + fp;
     }
-    ClassValues values;
+    ClassValues values(s.x.size());
     double s1 = 0.0, s2 = 0.0;
     for (std::size_t m = 0; m < d; ++m) {
         if (share[m] > 0.0) {
@@ -106,7 +124,8 @@ void accuracy(const ModelSupport& s, const SupportCounts& c, const Sums& t, cons
               PanelAccelerations& out)
 {
     const double n = t.events + t.nonEvents;
-    ClassValues brier, scaled, logLoss, nagelkerke, oe, slope;
+    ClassValues brier(s.x.size()), scaled(s.x.size()), logLoss(s.x.size()), nagelkerke(s.x.size()), oe(s.x.size()),
+        slope(s.x.size());
     auto nagelkerkeOf = [](double ll, double events, double nonEvents) {
         const double total = events + nonEvents;
         const double ll0 = events * std::log(events / total) + nonEvents * std::log(nonEvents / total);
@@ -128,7 +147,7 @@ void accuracy(const ModelSupport& s, const SupportCounts& c, const Sums& t, cons
                         : t.eventRisk / t.events - (t.nonEventRisk - p) / nonEvents,
                       count);
             if (full[LogLoss]) {
-                const double ll = t.logLikelihood - (y ? std::log(p) : std::log1p(-p));
+                const double ll = t.logLikelihood - (y ? logRisk(s, k) : logComplement(s, k));
                 logLoss.add(-ll / (n - 1), count);
                 nagelkerke.add(nagelkerkeOf(ll, events, nonEvents), count);
             }
@@ -149,7 +168,7 @@ void accuracy(const ModelSupport& s, const SupportCounts& c, const Sums& t, cons
 void fits(const ModelSupport& s, const SupportCounts& c, const FullSampleFits& f, const PanelValues& full,
           PanelAccelerations& out)
 {
-    ClassValues intercept, slope, recalibration;
+    ClassValues intercept(s.x.size()), slope(s.x.size()), recalibration(s.x.size());
     const double iaa = f.slopeInformation[0], iab = f.slopeInformation[1], ibb = f.slopeInformation[2];
     for (std::size_t k = 0; k < s.x.size(); ++k) {
         const double lp = s.lp[k];
