@@ -6,6 +6,7 @@
 #include "cli_simulate_command.hpp"
 #include "cli_update_command.hpp"
 #include "cli_validate_command.hpp"
+#include "huge_pages.hpp"
 #include "version.hpp"
 
 #include <CLI/CLI.hpp>
@@ -15,6 +16,7 @@
 
 int main(int argc, char** argv)
 {
+    plumbline::restartWithHugePages(argv);
     using namespace plumbline::cli;
     CLI::App app{"Plumbline: validate binary-outcome clinical risk models on local data.", "plumbline-cli"};
     app.set_version_flag("--version", std::string("plumbline-cli ") + plumbline::versionString);

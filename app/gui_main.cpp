@@ -5,6 +5,7 @@
 #include "atomic_file.hpp"
 #include "cli_analysis_options.hpp"
 #include "guarded_application.hpp"
+#include "huge_pages.hpp"
 #include "main_window.hpp"
 #include "validation_task.hpp"
 #include "version.hpp"
@@ -70,6 +71,7 @@ bool wantsSnapshot(int argc, char** argv)
 
 int main(int argc, char** argv)
 {
+    plumbline::restartWithHugePages(argv);
     // A snapshot needs no screen: without one, render offscreen rather than fail to start.
     if (wantsSnapshot(argc, argv) && !std::getenv("DISPLAY") && !std::getenv("WAYLAND_DISPLAY") && !std::getenv("QT_QPA_PLATFORM"))
         qputenv("QT_QPA_PLATFORM", "offscreen");

@@ -8,6 +8,7 @@
 //   plumbline-bench bootstrap FILE REPLICATES [curve]
 //                                           the bootstrap of the supplier score's panel on 2
 //                                           threads; with "curve" also ICI and both bands
+#include "huge_pages.hpp"
 #include "intake.hpp"
 #include "bootstrap_engine.hpp"
 #include "sample_size.hpp"
@@ -187,6 +188,7 @@ int benchmarkPlanner()
 
 int main(int argc, char** argv)
 {
+    plumbline::restartWithHugePages(argv); // as the entry points do
     const std::string mode = argc > 1 ? argv[1] : "";
     if (mode == "planner")
         return benchmarkPlanner();
