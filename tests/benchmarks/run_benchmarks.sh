@@ -116,6 +116,17 @@ per_replicate_ms=$(awk -v a="$cpu_short" -v b="$cpu_long" 'BEGIN { printf "%.1f"
 fixed_s=$(awk -v a="$cpu_short" -v b="$cpu_long" 'BEGIN { printf "%.2f", a - 20 * (b - a) / 200 }')
 wall_1000_s=$(awk -v a="$wall_short" -v b="$wall_long" 'BEGIN { printf "%.1f", a + 980 * (b - a) / 200 }')
 echo
+echo "== 10,000,000 rows, 9 decimals, 2 models, --group hospital, --period discharge_date, no bootstrap: whole CLI run"
+large="$work/cohort-10m.csv"
+if [[ ! -f $large ]]; then
+  "$build/app/plumbline-cli" simulate --rows 10000000 --seed 7 --decimals 9 --out "$large" >/dev/null
+fi
+large_run=$( { /usr/bin/time -f "large: wall_s=%e peak_kb=%M" "$build/app/plumbline-cli" validate "$large" \
+  --outcome readmitted_30d --score supplier_score --score local_score --group hospital --period discharge_date \
+  --bootstrap 0 --json "$work/large-result.json" >/dev/null; } 2>&1 | tail -1 | tee /dev/stderr)
+large_wall=$(sed -E 's/.*wall_s=([0-9.]+).*/\1/' <<<"$large_run")
+large_peak_gb=$(sed -E 's/.*peak_kb=([0-9]+).*/\1/' <<<"$large_run" | awk '{ printf "%.2f", $1 / 1024 / 1024 }')
+echo
 echo "== sample-size planner, one answer per typed change (63 changes)"
 planner=$("$build/tests/benchmarks/plumbline-bench" planner | tee /dev/stderr)
 planner_mean=$(sed -E 's/.*mean_ms=([0-9.]+).*/\1/' <<<"$planner")
@@ -138,3 +149,5 @@ printf '%-34s %10s %12s\n' "planner, mean / slowest answer, ms" "$planner_mean /
 printf '%-34s %10s %12s\n' "continuous 1M: CPU ms per replicate" "$per_replicate_ms" "<= 15"
 printf '%-34s %10s %12s\n' "continuous 1M: fixed part, CPU s" "$fixed_s" "<= 0.3"
 printf '%-34s %10s %12s\n' "continuous 1M: B=1000 wall (est.)" "$wall_1000_s" "<= 9"
+printf '%-34s %10s %12s\n' "10M rows, 2 models, group+period, wall" "$large_wall" "<= 8"
+printf '%-34s %10s %12s\n' "  peak memory, GB" "$large_peak_gb" "<= 0.8"
