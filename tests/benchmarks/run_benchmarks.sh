@@ -116,6 +116,14 @@ per_replicate_ms=$(awk -v a="$cpu_short" -v b="$cpu_long" 'BEGIN { printf "%.1f"
 fixed_s=$(awk -v a="$cpu_short" -v b="$cpu_long" 'BEGIN { printf "%.2f", a - 20 * (b - a) / 200 }')
 wall_1000_s=$(awk -v a="$wall_short" -v b="$wall_long" 'BEGIN { printf "%.1f", a + 980 * (b - a) / 200 }')
 echo
+echo "== the window's path on the continuous cohort, B = 200 (offscreen, fresh settings): Run to first charts, Run to end; the CLI's same run"
+window_run=$(QT_QPA_PLATFORM=offscreen XDG_CONFIG_HOME=$(mktemp -d) "$build/tests/benchmarks/plumbline-window-bench" "$continuous" 200 2>/dev/null | tail -1 | tee /dev/stderr)
+cli_run=$( { /usr/bin/time -f "cli: wall_s=%e" "$build/app/plumbline-cli" validate "$continuous" --outcome readmitted_30d \
+  --score supplier_score --bootstrap 200 >/dev/null; } 2>&1 | tail -1 | tee /dev/stderr)
+first_charts=$(sed -E 's/.*first_charts_s=([0-9.]+).*/\1/' <<<"$window_run")
+window_total=$(sed -E 's/.*total_s=([0-9.]+).*/\1/' <<<"$window_run")
+cli_total=$(sed -E 's/.*wall_s=([0-9.]+).*/\1/' <<<"$cli_run")
+echo
 echo "== 10,000,000 rows, 9 decimals, 2 models, --group hospital, --period discharge_date, no bootstrap: whole CLI run"
 large="$work/cohort-10m.csv"
 if [[ ! -f $large ]]; then
@@ -151,3 +159,5 @@ printf '%-34s %10s %12s\n' "continuous 1M: fixed part, CPU s" "$fixed_s" "<= 0.3
 printf '%-34s %10s %12s\n' "continuous 1M: B=1000 wall (est.)" "$wall_1000_s" "<= 9"
 printf '%-34s %10s %12s\n' "10M rows, 2 models, group+period, wall" "$large_wall" "<= 8"
 printf '%-34s %10s %12s\n' "  peak memory, GB" "$large_peak_gb" "<= 0.8"
+printf '%-34s %10s %12s\n' "window: Run to first charts, s" "$first_charts" "<= 2"
+awk -v a="$window_total" -v b="$cli_total" 'BEGIN { printf "%-34s %10s %12s\n", "window total / CLI total (B=200)", sprintf("%.2f", a / b), "<= 1.10" }'
