@@ -247,7 +247,7 @@ bool loessInto(const RiskPoints& full, const LoessOptions& options, LoessSummary
         return false; // a local fit overflowed: no curve rather than a meaningless one
     const double probabilities[] = {0.5, 0.9};
     double quantiles[2];
-    weightedQuantilesType7(distance, full.count, n, probabilities, quantiles);
+    weightedQuantilesType7(distance, full.count, n, probabilities, quantiles, out.emax);
     out.e50 = quantiles[0];
     out.e90 = quantiles[1];
     return true;

@@ -58,11 +58,16 @@ TEST_CASE("Bucketed weighted quantiles equal the expanded definition and the par
         double total = 0.0;
         for (double c : counts)
             total += c;
-        double out[6];
+        double out[6], given[6], largest = 0.0;
         weightedQuantilesType7(values, counts, total, probabilities, out);
+        for (std::size_t k = 0; k < n; ++k)
+            if (counts[k] > 0.0)
+                largest = std::max(largest, values[k]);
+        weightedQuantilesType7(values, counts, total, probabilities, given, largest); // as the loess passes it
         for (std::size_t q = 0; q < 6; ++q) {
             INFO("trial " << trial << " p " << probabilities[q]);
             CHECK(out[q] == expandedType7(values, counts, probabilities[q]));
+            CHECK(given[q] == out[q]);
             std::vector<std::pair<double, double>> pairs;
             for (std::size_t k = 0; k < n; ++k)
                 if (counts[k] > 0.0)
