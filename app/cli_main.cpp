@@ -6,7 +6,7 @@
 #include "cli_simulate_command.hpp"
 #include "cli_update_command.hpp"
 #include "cli_validate_command.hpp"
-#include "version.hpp"
+#include "files/version.hpp"
 
 #include <CLI/CLI.hpp>
 

@@ -1,9 +1,9 @@
 #pragma once
 
-#include "analysis_file.hpp"
-#include "bootstrap_engine.hpp"
-#include "intake_settings.hpp"
-#include "panel_settings.hpp"
+#include "files/analysis_file.hpp"
+#include "analyses/bootstrap_engine.hpp"
+#include "intake/intake_settings.hpp"
+#include "analyses/panel_settings.hpp"
 
 namespace plumbline {
 

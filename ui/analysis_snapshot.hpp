@@ -1,9 +1,9 @@
 #pragma once
 
 #include "analysis_request.hpp"
-#include "intake.hpp"
-#include "model_updating.hpp"
-#include "validation.hpp"
+#include "intake/intake.hpp"
+#include "analyses/model_updating.hpp"
+#include "analyses/validation.hpp"
 
 #include <QMetaType>
 

@@ -2,7 +2,7 @@
 
 #include "chart_style.hpp"
 #include "model_palette.hpp"
-#include "value_text.hpp"
+#include "reporting/value_text.hpp"
 
 #include <QAreaSeries>
 #include <QChart>

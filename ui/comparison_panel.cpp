@@ -1,10 +1,10 @@
 #include "comparison_panel.hpp"
 
-#include "metric_reading.hpp"
+#include "metrics/metric_reading.hpp"
 
-#include "model_comparison.hpp"
+#include "analyses/model_comparison.hpp"
 #include "roc_chart_view.hpp"
-#include "value_text.hpp"
+#include "reporting/value_text.hpp"
 
 #include <QComboBox>
 #include <QCoreApplication>

@@ -1,7 +1,7 @@
 #include "report_writers.hpp"
 
-#include "atomic_file.hpp"
-#include "csv_quoting.hpp"
+#include "files/atomic_file.hpp"
+#include "files/csv_quoting.hpp"
 
 #include <filesystem>
 #include <map>

@@ -1,6 +1,6 @@
 #pragma once
 
-#include "estimate.hpp"
+#include "metrics/estimate.hpp"
 #include "exportable_chart_view.hpp"
 
 #include <optional>

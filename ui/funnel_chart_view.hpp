@@ -1,7 +1,7 @@
 #pragma once
 
 #include "exportable_chart_view.hpp"
-#include "subgroup_analysis.hpp"
+#include "analyses/subgroup_analysis.hpp"
 
 class QGraphicsSimpleTextItem;
 

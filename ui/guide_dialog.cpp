@@ -1,6 +1,6 @@
 #include "guide_dialog.hpp"
 
-#include "cautions.hpp"
+#include "reporting/cautions.hpp"
 
 #include <QDialogButtonBox>
 #include <QTextBrowser>

@@ -1,7 +1,7 @@
 #include "report_writers.hpp"
 
-#include "atomic_file.hpp"
-#include "printable_text.hpp"
+#include "files/atomic_file.hpp"
+#include "intake/printable_text.hpp"
 #include "report_closing_html.hpp"
 
 #include <QString>

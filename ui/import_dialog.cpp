@@ -1,8 +1,8 @@
 #include "import_dialog.hpp"
 
-#include "column_roles.hpp"
+#include "intake/column_roles.hpp"
 #include "copyable_table_view.hpp"
-#include "delimited_table.hpp"
+#include "intake/delimited_table.hpp"
 #include "intake_audit_model.hpp"
 #include "save_location.hpp"
 

@@ -1,8 +1,8 @@
 #pragma once
 
-#include "delimited_table.hpp"
-#include "input_error.hpp"
-#include "intake.hpp"
+#include "intake/delimited_table.hpp"
+#include "intake/input_error.hpp"
+#include "intake/intake.hpp"
 
 #include <QDialog>
 #include <QFutureWatcher>

@@ -1,6 +1,6 @@
 #pragma once
 
-#include "intake_audit.hpp"
+#include "intake/intake_audit.hpp"
 
 #include <QAbstractTableModel>
 

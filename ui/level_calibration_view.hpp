@@ -1,7 +1,7 @@
 #pragma once
 
 #include "exportable_chart_view.hpp"
-#include "model_validation.hpp"
+#include "analyses/model_validation.hpp"
 
 #include <string>
 #include <vector>

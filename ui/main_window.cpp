@@ -1,7 +1,7 @@
 #include "main_window.hpp"
 
 #include "calibration_chart_view.hpp"
-#include "cautions.hpp"
+#include "reporting/cautions.hpp"
 #include "cohort_panel.hpp"
 #include "comparison_panel.hpp"
 #include "copyable_table_view.hpp"
@@ -12,7 +12,7 @@
 #include "metric_table_model.hpp"
 #include "metric_table_view.hpp"
 #include "model_palette.hpp"
-#include "option_lists.hpp"
+#include "intake/option_lists.hpp"
 #include "overview_panel.hpp"
 #include "period_panel.hpp"
 #include "planner_dialog.hpp"
@@ -23,8 +23,8 @@
 #include "threshold_panel.hpp"
 #include "updating_panel.hpp"
 #include "validation_task.hpp"
-#include "value_text.hpp"
-#include "version.hpp"
+#include "reporting/value_text.hpp"
+#include "files/version.hpp"
 
 #include <QAction>
 #include <QApplication>

@@ -3,10 +3,10 @@
 #include "main_window.hpp"
 
 #include "elided_label.hpp"
-#include "atomic_file.hpp"
+#include "files/atomic_file.hpp"
 #include "import_dialog.hpp"
 #include "report_writers.hpp"
-#include "result_json.hpp"
+#include "files/result_json.hpp"
 #include "save_location.hpp"
 #include "settings_panel.hpp"
 #include "threshold_panel.hpp"

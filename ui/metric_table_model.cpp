@@ -1,10 +1,10 @@
 #include "metric_table_model.hpp"
 
-#include "metric_definitions.hpp"
-#include "metric_reading.hpp"
+#include "metrics/metric_definitions.hpp"
+#include "metrics/metric_reading.hpp"
 #include "model_palette.hpp"
-#include "panel_keys.hpp"
-#include "value_text.hpp"
+#include "metrics/panel_keys.hpp"
+#include "reporting/value_text.hpp"
 
 namespace plumbline {
 

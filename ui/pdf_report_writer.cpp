@@ -2,7 +2,7 @@
 
 #include "pdf_outline.hpp"
 
-#include "atomic_file.hpp"
+#include "files/atomic_file.hpp"
 #include "report_closing_html.hpp"
 
 #include <QAbstractTextDocumentLayout>

@@ -1,8 +1,8 @@
 #include "planner_dialog.hpp"
 
-#include "field_values.hpp"
-#include "metric_reading.hpp"
-#include "sample_size.hpp"
+#include "intake/field_values.hpp"
+#include "metrics/metric_reading.hpp"
+#include "analyses/sample_size.hpp"
 
 #include <QDialogButtonBox>
 #include <QDoubleSpinBox>

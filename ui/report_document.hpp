@@ -1,8 +1,8 @@
 #pragma once
 
-#include "analysis_file.hpp"
+#include "files/analysis_file.hpp"
 #include "analysis_snapshot.hpp"
-#include "disclosure_plan.hpp"
+#include "reporting/disclosure_plan.hpp"
 
 #include <optional>
 #include <utility>

@@ -1,7 +1,7 @@
 #include "settings_panel.hpp"
 
-#include "option_lists.hpp"
-#include "settings_check.hpp"
+#include "intake/option_lists.hpp"
+#include "files/settings_check.hpp"
 
 #include <QCheckBox>
 #include <QComboBox>

@@ -4,8 +4,8 @@
 
 #include "forest_chart_view.hpp"
 #include "funnel_chart_view.hpp"
-#include "metric_reading.hpp"
-#include "value_text.hpp"
+#include "metrics/metric_reading.hpp"
+#include "reporting/value_text.hpp"
 
 #include <QComboBox>
 #include <QHBoxLayout>

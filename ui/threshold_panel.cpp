@@ -1,6 +1,6 @@
 #include "threshold_panel.hpp"
 
-#include "panel_settings.hpp"
+#include "analyses/panel_settings.hpp"
 
 #include <QDoubleSpinBox>
 #include <QHBoxLayout>

@@ -2,7 +2,7 @@
 
 #include "model_palette.hpp"
 #include "roc_chart_view.hpp"
-#include "value_text.hpp"
+#include "reporting/value_text.hpp"
 
 #include <QColor>
 #include <QLocale>

@@ -1,7 +1,7 @@
 #pragma once
 
 #include "exportable_chart_view.hpp"
-#include "risk_groups.hpp"
+#include "metrics/risk_groups.hpp"
 
 #include <vector>
 

@@ -1,8 +1,8 @@
 #include "updating_panel.hpp"
 
-#include "metric_reading.hpp"
+#include "metrics/metric_reading.hpp"
 #include "roc_chart_view.hpp"
-#include "value_text.hpp"
+#include "reporting/value_text.hpp"
 #include "update_calibration_view.hpp"
 
 #include <QComboBox>

@@ -1,7 +1,7 @@
 #pragma once
 
 #include "analysis_snapshot.hpp"
-#include "model_updating.hpp"
+#include "analyses/model_updating.hpp"
 
 #include <QFutureWatcher>
 #include <QWidget>

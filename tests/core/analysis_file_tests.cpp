@@ -1,4 +1,4 @@
-#include "analysis_file.hpp"
+#include "files/analysis_file.hpp"
 
 #include <catch2/catch.hpp>
 

@@ -1,4 +1,4 @@
-#include "atomic_file.hpp"
+#include "files/atomic_file.hpp"
 
 #include <catch2/catch.hpp>
 

@@ -1,5 +1,5 @@
-#include "bootstrap_engine.hpp"
-#include "random_stream.hpp"
+#include "analyses/bootstrap_engine.hpp"
+#include "resampling/random_stream.hpp"
 
 #include <catch2/catch.hpp>
 

@@ -1,9 +1,9 @@
-#include "bootstrap_engine.hpp"
+#include "analyses/bootstrap_engine.hpp"
 #include "check_datasets.hpp"
-#include "cohort_simulator.hpp"
+#include "files/cohort_simulator.hpp"
 #include "intake_test_support.hpp"
-#include "random_stream.hpp"
-#include "validation_json.hpp"
+#include "resampling/random_stream.hpp"
+#include "files/validation_json.hpp"
 
 #include <catch2/catch.hpp>
 

@@ -1,6 +1,6 @@
-#include "bootstrap_interval.hpp"
+#include "resampling/bootstrap_interval.hpp"
 #include "check_datasets.hpp"
-#include "discrimination.hpp"
+#include "metrics/discrimination.hpp"
 
 #include <catch2/catch.hpp>
 

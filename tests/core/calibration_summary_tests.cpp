@@ -1,9 +1,9 @@
-#include "binomial_interval.hpp"
-#include "calibration_summary.hpp"
+#include "metrics/binomial_interval.hpp"
+#include "metrics/calibration_summary.hpp"
 #include "check_datasets.hpp"
-#include "overall_accuracy.hpp"
-#include "risk_groups.hpp"
-#include "threshold_metrics.hpp"
+#include "metrics/overall_accuracy.hpp"
+#include "metrics/risk_groups.hpp"
+#include "metrics/threshold_metrics.hpp"
 
 #include <catch2/catch.hpp>
 

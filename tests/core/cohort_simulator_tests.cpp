@@ -1,4 +1,4 @@
-#include "cohort_simulator.hpp"
+#include "files/cohort_simulator.hpp"
 #include "intake_test_support.hpp"
 
 #include <catch2/catch.hpp>

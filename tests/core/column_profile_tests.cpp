@@ -1,6 +1,6 @@
-#include "cohort_simulator.hpp"
-#include "column_profile.hpp"
-#include "column_roles.hpp"
+#include "files/cohort_simulator.hpp"
+#include "intake/column_profile.hpp"
+#include "intake/column_roles.hpp"
 
 #include <algorithm>
 

@@ -1,4 +1,4 @@
-#include "column_suggest.hpp"
+#include "intake/column_suggest.hpp"
 
 #include <catch2/catch.hpp>
 

@@ -1,4 +1,4 @@
-#include "csv_scanner.hpp"
+#include "intake/csv_scanner.hpp"
 
 #include <catch2/catch.hpp>
 

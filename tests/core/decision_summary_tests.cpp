@@ -1,6 +1,6 @@
 #include "check_datasets.hpp"
-#include "decision_summary.hpp"
-#include "validation.hpp"
+#include "reporting/decision_summary.hpp"
+#include "analyses/validation.hpp"
 
 #include <catch2/catch.hpp>
 

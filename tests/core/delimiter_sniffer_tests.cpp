@@ -1,4 +1,4 @@
-#include "delimiter_sniffer.hpp"
+#include "intake/delimiter_sniffer.hpp"
 
 #include <catch2/catch.hpp>
 

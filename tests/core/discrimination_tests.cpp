@@ -1,6 +1,6 @@
 #include "check_datasets.hpp"
-#include "discrimination.hpp"
-#include "random_stream.hpp"
+#include "metrics/discrimination.hpp"
+#include "resampling/random_stream.hpp"
 
 #include <catch2/catch.hpp>
 

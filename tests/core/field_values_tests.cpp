@@ -1,4 +1,4 @@
-#include "field_values.hpp"
+#include "intake/field_values.hpp"
 
 #include <catch2/catch.hpp>
 

@@ -1,5 +1,5 @@
 #include "intake_test_support.hpp"
-#include "random_stream.hpp"
+#include "resampling/random_stream.hpp"
 
 #include <catch2/catch.hpp>
 

@@ -1,11 +1,11 @@
-#include "bootstrap_engine.hpp"
-#include "bootstrap_interval.hpp"
-#include "interval_choice.hpp"
-#include "metric_reading.hpp"
-#include "model_comparison.hpp"
-#include "random_stream.hpp"
-#include "validation.hpp"
-#include "validation_json.hpp"
+#include "analyses/bootstrap_engine.hpp"
+#include "resampling/bootstrap_interval.hpp"
+#include "resampling/interval_choice.hpp"
+#include "metrics/metric_reading.hpp"
+#include "analyses/model_comparison.hpp"
+#include "resampling/random_stream.hpp"
+#include "analyses/validation.hpp"
+#include "files/validation_json.hpp"
 
 #include <catch2/catch.hpp>
 

@@ -9,13 +9,13 @@
 // 1996 type 7, numpy's default); C as the Mann–Whitney probability (Hanley & McNeil 1982); net
 // benefit as in Vickers & Elkin (2006); the jackknife acceleration as in Efron (1987), JASA
 // 82:171, eq. 6.6. See docs/methods.md (bootstrap section).
-#include "bootstrap_engine.hpp"
-#include "loess_calibration.hpp"
-#include "panel_acceleration.hpp"
-#include "random_stream.hpp"
-#include "score_order.hpp"
-#include "validation.hpp"
-#include "weighted_panel.hpp"
+#include "analyses/bootstrap_engine.hpp"
+#include "metrics/loess_calibration.hpp"
+#include "resampling/panel_acceleration.hpp"
+#include "resampling/random_stream.hpp"
+#include "metrics/score_order.hpp"
+#include "analyses/validation.hpp"
+#include "resampling/weighted_panel.hpp"
 
 #include <catch2/catch.hpp>
 

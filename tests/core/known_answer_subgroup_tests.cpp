@@ -9,7 +9,7 @@
 // (2005), Stat Med 24:1185, appendix (rule from memory; docs/methods.md, subgroups section).
 // Larger expected counts and Cochran's Q are checked live on the sample cohort by
 // tests/reference/subgroups_vs_scipy.py.
-#include "subgroup_analysis.hpp"
+#include "analyses/subgroup_analysis.hpp"
 
 #include <catch2/catch.hpp>
 

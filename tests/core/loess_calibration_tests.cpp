@@ -1,9 +1,9 @@
 #include "check_datasets.hpp"
-#include "cohort_simulator.hpp"
+#include "files/cohort_simulator.hpp"
 #include "intake_test_support.hpp"
 #include "test_paths.hpp"
-#include "loess_calibration.hpp"
-#include "random_stream.hpp"
+#include "metrics/loess_calibration.hpp"
+#include "resampling/random_stream.hpp"
 
 #include <catch2/catch.hpp>
 

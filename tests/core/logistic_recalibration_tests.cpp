@@ -1,6 +1,6 @@
 #include "check_datasets.hpp"
-#include "calibration_lr_tests.hpp"
-#include "logistic_recalibration.hpp"
+#include "metrics/calibration_lr_tests.hpp"
+#include "metrics/logistic_recalibration.hpp"
 
 #include <catch2/catch.hpp>
 

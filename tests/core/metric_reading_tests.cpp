@@ -1,4 +1,4 @@
-#include "metric_reading.hpp"
+#include "metrics/metric_reading.hpp"
 
 #include <catch2/catch.hpp>
 

@@ -1,8 +1,8 @@
 #include "check_datasets.hpp"
-#include "distributions.hpp"
-#include "model_comparison.hpp"
-#include "random_stream.hpp"
-#include "validation.hpp"
+#include "metrics/distributions.hpp"
+#include "analyses/model_comparison.hpp"
+#include "resampling/random_stream.hpp"
+#include "analyses/validation.hpp"
 
 #include <catch2/catch.hpp>
 

@@ -1,7 +1,7 @@
 #include "check_datasets.hpp"
-#include "logistic_recalibration.hpp"
-#include "model_updating.hpp"
-#include "random_stream.hpp"
+#include "metrics/logistic_recalibration.hpp"
+#include "analyses/model_updating.hpp"
+#include "resampling/random_stream.hpp"
 
 #include <catch2/catch.hpp>
 

@@ -1,7 +1,7 @@
 #include "check_datasets.hpp"
-#include "model_validation.hpp"
-#include "validation.hpp"
-#include "validation_json.hpp"
+#include "analyses/model_validation.hpp"
+#include "analyses/validation.hpp"
+#include "files/validation_json.hpp"
 
 #include <catch2/catch.hpp>
 

@@ -1,10 +1,10 @@
 // Checks written because a mutation of tests/mutants/mutations.txt survived the other tests
 // (`./plumbline.sh mutants`): each names the mutation it kills and the source of its expected
 // value. Rules of thumb of the project are marked "common practice" as in docs/methods.md.
-#include "interval_choice.hpp"
+#include "resampling/interval_choice.hpp"
 #include "intake_test_support.hpp"
-#include "score_scale.hpp"
-#include "subgroup_analysis.hpp"
+#include "intake/score_scale.hpp"
+#include "analyses/subgroup_analysis.hpp"
 
 #include <catch2/catch.hpp>
 

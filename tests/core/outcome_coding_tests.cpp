@@ -1,4 +1,4 @@
-#include "outcome_coding.hpp"
+#include "intake/outcome_coding.hpp"
 
 #include <catch2/catch.hpp>
 

@@ -1,10 +1,10 @@
-#include "bootstrap_engine.hpp"
+#include "analyses/bootstrap_engine.hpp"
 #include "check_datasets.hpp"
-#include "model_comparison.hpp"
-#include "paired_bootstrap.hpp"
-#include "random_stream.hpp"
-#include "threshold_metrics.hpp"
-#include "validation.hpp"
+#include "analyses/model_comparison.hpp"
+#include "analyses/paired_bootstrap.hpp"
+#include "resampling/random_stream.hpp"
+#include "metrics/threshold_metrics.hpp"
+#include "analyses/validation.hpp"
 
 #include <catch2/catch.hpp>
 

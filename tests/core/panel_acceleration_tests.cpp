@@ -1,8 +1,8 @@
-#include "bootstrap_interval.hpp"
+#include "resampling/bootstrap_interval.hpp"
 #include "check_datasets.hpp"
-#include "logistic_recalibration.hpp"
-#include "model_validation.hpp"
-#include "panel_acceleration.hpp"
+#include "metrics/logistic_recalibration.hpp"
+#include "analyses/model_validation.hpp"
+#include "resampling/panel_acceleration.hpp"
 
 #include <catch2/catch.hpp>
 

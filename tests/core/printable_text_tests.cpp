@@ -1,5 +1,5 @@
-#include "input_error.hpp"
-#include "printable_text.hpp"
+#include "intake/input_error.hpp"
+#include "intake/printable_text.hpp"
 
 #include <catch2/catch.hpp>
 

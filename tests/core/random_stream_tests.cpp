@@ -1,4 +1,4 @@
-#include "random_stream.hpp"
+#include "resampling/random_stream.hpp"
 
 #include <catch2/catch.hpp>
 

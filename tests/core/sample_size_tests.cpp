@@ -1,4 +1,4 @@
-#include "sample_size.hpp"
+#include "analyses/sample_size.hpp"
 
 #include <catch2/catch.hpp>
 

@@ -1,5 +1,5 @@
-#include "random_stream.hpp"
-#include "score_order.hpp"
+#include "resampling/random_stream.hpp"
+#include "metrics/score_order.hpp"
 
 #include <catch2/catch.hpp>
 

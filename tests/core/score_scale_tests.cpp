@@ -1,4 +1,4 @@
-#include "score_scale.hpp"
+#include "intake/score_scale.hpp"
 
 #include <catch2/catch.hpp>
 

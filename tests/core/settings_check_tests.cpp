@@ -1,4 +1,4 @@
-#include "settings_check.hpp"
+#include "files/settings_check.hpp"
 
 #include <catch2/catch.hpp>
 

@@ -1,4 +1,4 @@
-#include "sha256.hpp"
+#include "intake/sha256.hpp"
 
 #include <catch2/catch.hpp>
 

@@ -1,6 +1,6 @@
-#include "disclosure_plan.hpp"
-#include "small_cell_protection.hpp"
-#include "validation.hpp"
+#include "reporting/disclosure_plan.hpp"
+#include "reporting/small_cell_protection.hpp"
+#include "analyses/validation.hpp"
 
 #include <catch2/catch.hpp>
 

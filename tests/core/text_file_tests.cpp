@@ -1,4 +1,4 @@
-#include "text_file.hpp"
+#include "intake/text_file.hpp"
 
 #include <catch2/catch.hpp>
 

@@ -1,11 +1,11 @@
-#include "decision_summary.hpp"
+#include "reporting/decision_summary.hpp"
 #include "check_datasets.hpp"
-#include "cohort_simulator.hpp"
-#include "decision_curve.hpp"
+#include "files/cohort_simulator.hpp"
+#include "analyses/decision_curve.hpp"
 #include "intake_test_support.hpp"
-#include "period_analysis.hpp"
-#include "subgroup_analysis.hpp"
-#include "validation.hpp"
+#include "analyses/period_analysis.hpp"
+#include "analyses/subgroup_analysis.hpp"
+#include "analyses/validation.hpp"
 
 #include <catch2/catch.hpp>
 

@@ -1,4 +1,4 @@
-#include "value_text.hpp"
+#include "reporting/value_text.hpp"
 
 #include <catch2/catch.hpp>
 

@@ -1,7 +1,7 @@
 #include "check_datasets.hpp"
-#include "model_validation.hpp"
-#include "random_stream.hpp"
-#include "weighted_panel.hpp"
+#include "analyses/model_validation.hpp"
+#include "resampling/random_stream.hpp"
+#include "resampling/weighted_panel.hpp"
 
 #include <catch2/catch.hpp>
 

@@ -1,6 +1,6 @@
 // The window as a newcomer meets it: a fresh settings store, File → Open, the import dialog's
 // keys, a 1280×720 screen, a typed threshold, models hidden and shown again.
-#include "analysis_file.hpp"
+#include "files/analysis_file.hpp"
 #include "calibration_chart_view.hpp"
 #include "copyable_table_view.hpp"
 #include "decision_curve_view.hpp"
@@ -13,7 +13,7 @@
 #include "main_window.hpp"
 #include "metric_table_model.hpp"
 #include "overview_panel.hpp"
-#include "panel_keys.hpp"
+#include "metrics/panel_keys.hpp"
 #include "period_chart_view.hpp"
 #include "period_panel.hpp"
 #include "planner_dialog.hpp"

@@ -1,8 +1,8 @@
 #include "analysis_snapshot.hpp"
 #include "pdf_outline.hpp"
 #include "report_writers.hpp"
-#include "result_json.hpp"
-#include "value_text.hpp"
+#include "files/result_json.hpp"
+#include "reporting/value_text.hpp"
 
 #include <QDir>
 #include <QFile>
