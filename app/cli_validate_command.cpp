@@ -1,6 +1,6 @@
 #include "cli_validate_command.hpp"
 
-#include "analysis_snapshot.hpp"
+#include "run/analysis_snapshot.hpp"
 #include "files/atomic_file.hpp"
 #include "cli_analysis_options.hpp"
 #include "cli_exit.hpp"
@@ -8,7 +8,7 @@
 #include "cli_text.hpp"
 #include "intake/intake.hpp"
 #include "analyses/model_updating.hpp"
-#include "report_writers.hpp"
+#include "report/report_writers.hpp"
 #include "files/result_json.hpp"
 #include "files/update_json.hpp"
 #include "files/validation_json.hpp"

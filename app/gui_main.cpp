@@ -6,7 +6,7 @@
 #include "cli_analysis_options.hpp"
 #include "guarded_application.hpp"
 #include "main_window.hpp"
-#include "validation_task.hpp"
+#include "run/validation_task.hpp"
 #include "files/version.hpp"
 
 #include <CLI/CLI.hpp>

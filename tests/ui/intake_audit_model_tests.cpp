@@ -1,4 +1,4 @@
-#include "intake_audit_model.hpp"
+#include "models/intake_audit_model.hpp"
 
 #include <QSignalSpy>
 #include <QTest>

@@ -8,17 +8,17 @@
 #include "fresh_settings_main.hpp"
 #include "window_test_support.hpp"
 
-#include "comparison_panel.hpp"
-#include "decision_curve_view.hpp"
-#include "metric_table_model.hpp"
-#include "overview_panel.hpp"
-#include "period_chart_view.hpp"
-#include "period_panel.hpp"
-#include "risk_group_table_model.hpp"
-#include "subgroup_panel.hpp"
-#include "threshold_panel.hpp"
-#include "threshold_summary_model.hpp"
-#include "updating_panel.hpp"
+#include "panels/comparison_panel.hpp"
+#include "charts/decision_curve_view.hpp"
+#include "models/metric_table_model.hpp"
+#include "panels/overview_panel.hpp"
+#include "charts/period_chart_view.hpp"
+#include "panels/period_panel.hpp"
+#include "models/risk_group_table_model.hpp"
+#include "panels/subgroup_panel.hpp"
+#include "panels/threshold_panel.hpp"
+#include "models/threshold_summary_model.hpp"
+#include "panels/updating_panel.hpp"
 
 #include <QLabel>
 #include <QLineSeries>

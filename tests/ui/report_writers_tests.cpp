@@ -1,6 +1,6 @@
-#include "analysis_snapshot.hpp"
-#include "pdf_outline.hpp"
-#include "report_writers.hpp"
+#include "run/analysis_snapshot.hpp"
+#include "report/pdf_outline.hpp"
+#include "report/report_writers.hpp"
 #include "files/result_json.hpp"
 #include "reporting/value_text.hpp"
 

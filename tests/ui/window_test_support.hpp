@@ -1,9 +1,9 @@
 #pragma once
 
 // What the window tests share: the sample cohort's request and a run that waits for its result.
-#include "analysis_request.hpp"
+#include "run/analysis_request.hpp"
 #include "main_window.hpp"
-#include "validation_task.hpp"
+#include "run/validation_task.hpp"
 
 #include <QSignalSpy>
 #include <QString>
