@@ -23,8 +23,8 @@
 #include "panels/threshold_panel.hpp"
 #include "models/threshold_summary_model.hpp"
 #include "run/validation_task.hpp"
-#include "fresh_settings_main.hpp"
-#include "window_test_support.hpp"
+#include "support/fresh_settings_main.hpp"
+#include "support/window_test_support.hpp"
 
 #include <QDir>
 #include <QElapsedTimer>

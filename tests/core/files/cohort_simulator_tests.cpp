@@ -1,5 +1,5 @@
 #include "files/cohort_simulator.hpp"
-#include "intake_test_support.hpp"
+#include "support/intake_test_support.hpp"
 
 #include <catch2/catch.hpp>
 

@@ -1,4 +1,4 @@
-#include "intake_test_support.hpp"
+#include "support/intake_test_support.hpp"
 
 #include <catch2/catch.hpp>
 

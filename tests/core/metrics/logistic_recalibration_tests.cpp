@@ -1,4 +1,4 @@
-#include "check_datasets.hpp"
+#include "support/check_datasets.hpp"
 #include "metrics/calibration_lr_tests.hpp"
 #include "metrics/logistic_recalibration.hpp"
 

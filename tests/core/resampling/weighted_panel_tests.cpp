@@ -1,4 +1,4 @@
-#include "check_datasets.hpp"
+#include "support/check_datasets.hpp"
 #include "analyses/model_validation.hpp"
 #include "resampling/random_stream.hpp"
 #include "resampling/weighted_panel.hpp"

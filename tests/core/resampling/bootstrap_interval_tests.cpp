@@ -1,5 +1,5 @@
 #include "resampling/bootstrap_interval.hpp"
-#include "check_datasets.hpp"
+#include "support/check_datasets.hpp"
 #include "metrics/discrimination.hpp"
 
 #include <catch2/catch.hpp>

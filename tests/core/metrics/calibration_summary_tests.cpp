@@ -1,6 +1,6 @@
 #include "metrics/binomial_interval.hpp"
 #include "metrics/calibration_summary.hpp"
-#include "check_datasets.hpp"
+#include "support/check_datasets.hpp"
 #include "metrics/overall_accuracy.hpp"
 #include "metrics/risk_groups.hpp"
 #include "metrics/threshold_metrics.hpp"

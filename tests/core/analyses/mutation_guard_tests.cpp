@@ -2,7 +2,7 @@
 // (`./plumbline.sh mutants`): each names the mutation it kills and the source of its expected
 // value. Rules of thumb of the project are marked "common practice" as in docs/methods.md.
 #include "resampling/interval_choice.hpp"
-#include "intake_test_support.hpp"
+#include "support/intake_test_support.hpp"
 #include "intake/score_scale.hpp"
 #include "analyses/subgroup_analysis.hpp"
 

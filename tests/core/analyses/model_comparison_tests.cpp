@@ -1,4 +1,4 @@
-#include "check_datasets.hpp"
+#include "support/check_datasets.hpp"
 #include "metrics/distributions.hpp"
 #include "analyses/model_comparison.hpp"
 #include "resampling/random_stream.hpp"

@@ -1,5 +1,5 @@
 #include "resampling/bootstrap_interval.hpp"
-#include "check_datasets.hpp"
+#include "support/check_datasets.hpp"
 #include "metrics/logistic_recalibration.hpp"
 #include "analyses/model_validation.hpp"
 #include "resampling/panel_acceleration.hpp"

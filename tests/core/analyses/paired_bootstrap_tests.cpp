@@ -1,5 +1,5 @@
 #include "analyses/bootstrap_engine.hpp"
-#include "check_datasets.hpp"
+#include "support/check_datasets.hpp"
 #include "analyses/model_comparison.hpp"
 #include "analyses/paired_bootstrap.hpp"
 #include "resampling/random_stream.hpp"

@@ -1,4 +1,4 @@
-#include "check_datasets.hpp"
+#include "support/check_datasets.hpp"
 #include "metrics/logistic_recalibration.hpp"
 #include "analyses/model_updating.hpp"
 #include "resampling/random_stream.hpp"

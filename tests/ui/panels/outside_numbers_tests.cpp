@@ -5,8 +5,8 @@
 // beside it (rows as in tests/reference/reference_rows.py; y the outcome, a the supplier score,
 // b the local score, lp = log(a / (1 - a))). The other window tests compare widgets with the
 // core's own results; these catch a core and a window that are wrong together.
-#include "fresh_settings_main.hpp"
-#include "window_test_support.hpp"
+#include "support/fresh_settings_main.hpp"
+#include "support/window_test_support.hpp"
 
 #include "panels/comparison_panel.hpp"
 #include "charts/decision_curve_view.hpp"

@@ -1,6 +1,6 @@
-#include "check_datasets.hpp"
+#include "support/check_datasets.hpp"
 #include "files/cohort_simulator.hpp"
-#include "intake_test_support.hpp"
+#include "support/intake_test_support.hpp"
 #include "test_paths.hpp"
 #include "metrics/loess_calibration.hpp"
 #include "resampling/random_stream.hpp"

@@ -1,7 +1,7 @@
 #include "analyses/bootstrap_engine.hpp"
-#include "check_datasets.hpp"
+#include "support/check_datasets.hpp"
 #include "files/cohort_simulator.hpp"
-#include "intake_test_support.hpp"
+#include "support/intake_test_support.hpp"
 #include "resampling/random_stream.hpp"
 #include "files/validation_json.hpp"
 

@@ -1,4 +1,4 @@
-#include "check_datasets.hpp"
+#include "support/check_datasets.hpp"
 #include "reporting/decision_summary.hpp"
 #include "analyses/validation.hpp"
 
