@@ -1,5 +1,6 @@
 #include "analyses/validation.hpp"
 
+#include "analyses/subgroup_analysis.hpp"
 #include "metrics/panel_keys.hpp"
 
 #include <algorithm>

@@ -3,7 +3,7 @@
 #include "intake/cohort.hpp"
 #include "analyses/model_comparison.hpp"
 #include "analyses/model_validation.hpp"
-#include "analyses/subgroup_analysis.hpp"
+#include "analyses/subgroup_results.hpp"
 #include "analyses/panel_settings.hpp"
 
 #include <optional>
