@@ -1,31 +1,19 @@
 #include "analyses/period_analysis.hpp"
 
+#include "intake/written_date.hpp"
 #include "metrics/calibration_summary.hpp"
 #include "metrics/discrimination.hpp"
-#include "intake/field_values.hpp"
 #include "metrics/logistic_recalibration.hpp"
 #include "metrics/distributions.hpp"
 
 #include <algorithm>
-#include <charconv>
 #include <cstdio>
 #include <map>
+#include <stdexcept>
 
 namespace plumbline {
 
 namespace {
-
-bool digits(std::string_view s)
-{
-    return !s.empty() && std::all_of(s.begin(), s.end(), [](char c) { return c >= '0' && c <= '9'; });
-}
-
-int number(std::string_view s)
-{
-    int value = 0;
-    std::from_chars(s.data(), s.data() + s.size(), value);
-    return value;
-}
 
 bool realDate(int year, int month, int day)
 {
@@ -36,25 +24,35 @@ bool realDate(int year, int month, int day)
     return day <= lengths[month - 1] + (month == 2 && leap ? 1 : 0);
 }
 
-// "d/m/yyyy" or "m/d/yyyy" (either separator / or . or -) split into its three numbers.
-bool slashed(std::string_view s, int& first, int& second, int& year)
+struct YearMonth {
+    int year = 0;
+    int month = 0;
+};
+
+// The year and month of a date read at intake, in the given format; nullopt when it is not
+// written that way or is not a real date (2025-02-30).
+std::optional<YearMonth> yearMonth(const WrittenDate& date, DateFormat format)
 {
-    const auto a = s.find_first_of("/.-");
-    const auto b = a == std::string_view::npos ? a : s.find_first_of("/.-", a + 1);
-    if (b == std::string_view::npos)
-        return false;
-    const auto p1 = s.substr(0, a), p2 = s.substr(a + 1, b - a - 1), p3 = s.substr(b + 1);
-    if (!digits(p1) || !digits(p2) || !digits(p3) || p1.size() > 2 || p2.size() > 2 || p3.size() != 4)
-        return false;
-    first = number(p1);
-    second = number(p2);
-    year = number(p3);
-    return true;
+    int month = 0, day = 0;
+    if (format == DateFormat::Iso) {
+        if (date.shape != WrittenDate::Shape::Iso)
+            return std::nullopt;
+        month = date.first;
+        day = date.second;
+    } else {
+        if (date.shape != WrittenDate::Shape::Slashed)
+            return std::nullopt;
+        day = format == DateFormat::DayFirst ? date.first : date.second;
+        month = format == DateFormat::DayFirst ? date.second : date.first;
+    }
+    if (!realDate(date.year, month, day))
+        return std::nullopt;
+    return YearMonth{date.year, month};
 }
 
 std::string periodText(int year, int month, PeriodUnit unit)
 {
-    char buffer[16];
+    char buffer[32]; // room for any int: the compiler cannot see that years stay in 1800-2200
     if (unit == PeriodUnit::Month)
         std::snprintf(buffer, sizeof buffer, "%04d-%02d", year, month);
     else
@@ -69,31 +67,15 @@ int monthIndex(int year, int month)
 
 } // namespace
 
-std::optional<std::string> periodOf(std::string_view raw, DateFormat format, PeriodUnit unit)
+std::optional<std::string> periodOf(std::string_view date, DateFormat format, PeriodUnit unit)
 {
-    const std::string_view s = trimmed(raw);
-    int year = 0, month = 0, day = 0;
-    if (format == DateFormat::Iso) {
-        if (s.size() < 10 || s[4] != '-' || s[7] != '-' || !digits(s.substr(0, 4)) || !digits(s.substr(5, 2)) || !digits(s.substr(8, 2)))
-            return std::nullopt;
-        if (s.size() > 10 && s[10] != 'T' && s[10] != ' ')
-            return std::nullopt; // a time may follow, nothing else
-        year = number(s.substr(0, 4));
-        month = number(s.substr(5, 2));
-        day = number(s.substr(8, 2));
-    } else {
-        int first = 0, second = 0;
-        if (!slashed(s, first, second, year))
-            return std::nullopt;
-        day = format == DateFormat::DayFirst ? first : second;
-        month = format == DateFormat::DayFirst ? second : first;
-    }
-    if (!realDate(year, month, day))
+    const auto read = yearMonth(readWrittenDate(date), format);
+    if (!read)
         return std::nullopt;
-    return periodText(year, month, unit);
+    return periodText(read->year, read->month, unit);
 }
 
-std::expected<void, InputError> checkPeriodDates(const Cohort& cohort, const CategoricalColumn& dates, std::optional<DateFormat> format)
+std::expected<void, InputError> checkPeriodDates(const Cohort& cohort, const DateColumn& dates, std::optional<DateFormat> format)
 {
     auto checked = analysePeriods(cohort, dates, format, PeriodUnit::Month, 0.95, true);
     if (!checked)
@@ -101,20 +83,20 @@ std::expected<void, InputError> checkPeriodDates(const Cohort& cohort, const Cat
     return {};
 }
 
-std::expected<PeriodAnalysis, InputError> analysePeriods(const Cohort& cohort, const CategoricalColumn& dates,
+std::expected<PeriodAnalysis, InputError> analysePeriods(const Cohort& cohort, const DateColumn& dates,
                                                          std::optional<DateFormat> format, PeriodUnit unit, double confidence,
                                                          bool datesOnly)
 {
+    if (dates.written.size() != dates.levels.size())
+        throw std::logic_error("the dates of column '" + dates.name + "' were not read at intake");
     InputError error;
     error.column = dates.name;
     // Without a stated format, ISO dates are read; day/month/year-style dates are refused because
     // 03/04/2025 is 3 April in one convention and March 4 in the other.
     if (!format) {
         for (std::uint32_t code = 0; code < dates.levels.size(); ++code) {
-            const std::string& level = dates.levels[code];
-            int a = 0, b = 0, y = 0;
-            if (slashed(trimmed(level), a, b, y)) {
-                error.value = level;
+            if (dates.written[code].shape == WrittenDate::Shape::Slashed) {
+                error.value = dates.levels[code];
                 // The first row carrying this date, so that the user can find it in the file.
                 const auto row = std::find(dates.codes.begin(), dates.codes.end(), code);
                 if (row != dates.codes.end() && std::size_t(row - dates.codes.begin()) < cohort.sourceLines.size())
@@ -131,10 +113,9 @@ std::expected<PeriodAnalysis, InputError> analysePeriods(const Cohort& cohort, c
     std::vector<int> levelMonth(dates.levels.size(), -1);
     std::string firstUnparsed;
     for (std::size_t k = 0; k < dates.levels.size(); ++k) {
-        levelPeriod[k] = periodOf(dates.levels[k], *format, PeriodUnit::Month);
-        if (levelPeriod[k]) {
-            levelMonth[k] = monthIndex(number(levelPeriod[k]->substr(0, 4)), number(levelPeriod[k]->substr(5, 2)));
-            levelPeriod[k] = periodOf(dates.levels[k], *format, unit);
+        if (const auto read = yearMonth(dates.written[k], *format)) {
+            levelMonth[k] = monthIndex(read->year, read->month);
+            levelPeriod[k] = periodText(read->year, read->month, unit);
         } else if (firstUnparsed.empty() && dates.levels[k] != "(missing)") {
             firstUnparsed = dates.levels[k];
         }

@@ -15,7 +15,8 @@ enum class DateFormat { Iso, DayFirst, MonthFirst };  // YYYY-MM-DD; DD/MM/YYYY;
 enum class PeriodUnit { Month, Quarter };
 
 // The period ("2025-03" or "2025-Q1") of a date written in the given format; nullopt when the
-// text is not such a date (or not a real one: 2025-02-30).
+// text is not such a date (or not a real one: 2025-02-30). The analysis itself works on the
+// dates the intake read (DateColumn::written); this reads a text, for a single date.
 std::optional<std::string> periodOf(std::string_view date, DateFormat format, PeriodUnit unit);
 
 // Performance over time: per period and model, C, O/E and calibration-in-the-large with their
@@ -52,12 +53,12 @@ struct PeriodAnalysis {
 
 // An InputError when dates are ambiguous (DD/MM or MM/DD, and no format given) or none parses.
 // `datesOnly` stops once the dates are known to be readable (nothing is computed).
-std::expected<PeriodAnalysis, InputError> analysePeriods(const Cohort& cohort, const CategoricalColumn& dates,
+std::expected<PeriodAnalysis, InputError> analysePeriods(const Cohort& cohort, const DateColumn& dates,
                                                          std::optional<DateFormat> format, PeriodUnit unit,
                                                          double confidence, bool datesOnly = false);
 
 // The same refusals as analysePeriods (ambiguous or unreadable dates) without the analysis: for
 // the command line's check before a long run.
-std::expected<void, InputError> checkPeriodDates(const Cohort& cohort, const CategoricalColumn& dates, std::optional<DateFormat> format);
+std::expected<void, InputError> checkPeriodDates(const Cohort& cohort, const DateColumn& dates, std::optional<DateFormat> format);
 
 } // namespace plumbline

@@ -5,6 +5,7 @@
 #include "intake/joined_files_intake.hpp"
 #include "intake/sha256.hpp"
 #include "intake/single_file_intake.hpp"
+#include "intake/written_date.hpp"
 
 #include <algorithm>
 #include <future>
@@ -184,7 +185,11 @@ std::expected<IntakeResult, InputError> runIntake(const IntakeSettings& asked, T
     if (asked.periodColumn) {
         auto& groups = result.cohort.groups;
         const auto it = std::find_if(groups.begin(), groups.end(), [&](const CategoricalColumn& c) { return c.name == *asked.periodColumn; });
-        result.cohort.period = *it;
+        result.cohort.period = DateColumn{*it, {}};
+        // Each distinct date text is read once, here; the period analysis only applies the
+        // day/month order the user chose to what was read.
+        for (const auto& level : result.cohort.period->levels)
+            result.cohort.period->written.push_back(readWrittenDate(level));
         if (!periodAlsoGroup)
             groups.erase(it);
     }

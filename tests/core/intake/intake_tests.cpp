@@ -222,6 +222,25 @@ TEST_CASE("Group columns are dictionary-coded over the rows used missing as its 
     CHECK(site.codes == std::vector<std::uint32_t>{0, 1, 2, 0});
 }
 
+TEST_CASE("The period column's dates are read once at intake one per distinct text", "[intake][periods]")
+{
+    auto settings = settingsFor({"p"});
+    settings.periodColumn = "d";
+    const auto result = intakeOf(settings, "y,p,d\n1,0.5,2025-03-31\n0,0.2,03/04/2025\n0,0.1,2025-03-31\n1,0.4,soon\n0,0.3,\n");
+    REQUIRE(result);
+    REQUIRE(result->cohort.period);
+    const DateColumn& dates = *result->cohort.period;
+    CHECK(result->cohort.groups.empty()); // a period column is not also a group unless asked
+    CHECK(dates.levels == std::vector<std::string>{"2025-03-31", "03/04/2025", "soon", "(missing)"});
+    CHECK(dates.codes == std::vector<std::uint32_t>{0, 1, 0, 2, 3});
+    REQUIRE(dates.written.size() == dates.levels.size());
+    using Shape = WrittenDate::Shape;
+    CHECK((dates.written[0].shape == Shape::Iso && dates.written[0].year == 2025 && dates.written[0].first == 3 && dates.written[0].second == 31));
+    CHECK((dates.written[1].shape == Shape::Slashed && dates.written[1].year == 2025 && dates.written[1].first == 3 && dates.written[1].second == 4));
+    CHECK(dates.written[2].shape == Shape::Unreadable);
+    CHECK(dates.written[3].shape == Shape::Unreadable);
+}
+
 TEST_CASE("A missing column names the closest columns", "[intake][errors]")
 {
     const auto result = intakeOf(settingsFor({"supplier_scor"}, "readmitted"), "readmitted,supplier_score,local_score\n1,0.2,0.3\n");
