@@ -87,7 +87,7 @@ struct ReportDocument {
     std::vector<const ReportTable*> tables() const;
 };
 
-// The small-cell plan of a report on this snapshot (see core/disclosure_plan.hpp).
+// The small-cell plan of a report on this snapshot (see core/reporting/disclosure_plan.hpp).
 DisclosurePlan disclosurePlanOf(const AnalysisSnapshot& s, std::size_t minimumCell);
 // The snapshot as a report's charts may draw it: what the plan withholds left out.
 SnapshotPointer snapshotForReport(const AnalysisSnapshot& s, std::size_t minimumCell);
