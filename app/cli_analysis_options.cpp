@@ -1,6 +1,6 @@
 #include "cli_analysis_options.hpp"
 
-#include "settings_check.hpp"
+#include "files/settings_check.hpp"
 
 namespace plumbline::cli {
 

@@ -1,6 +1,6 @@
 #pragma once
 
-#include "analysis_file.hpp"
+#include "files/analysis_file.hpp"
 #include "cli_bootstrap_options.hpp"
 #include "cli_intake_options.hpp"
 #include "cli_panel_options.hpp"

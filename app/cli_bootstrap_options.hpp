@@ -1,6 +1,6 @@
 #pragma once
 
-#include "bootstrap_engine.hpp"
+#include "analyses/bootstrap_engine.hpp"
 
 #include <CLI/CLI.hpp>
 

@@ -1,6 +1,6 @@
 #pragma once
 
-#include "input_error.hpp"
+#include "intake/input_error.hpp"
 
 namespace plumbline::cli {
 

@@ -2,8 +2,8 @@
 
 #include "cli_exit.hpp"
 #include "cli_text.hpp"
-#include "column_profile.hpp"
-#include "delimiter_sniffer.hpp"
+#include "intake/column_profile.hpp"
+#include "intake/delimiter_sniffer.hpp"
 
 #include <iomanip>
 #include <iostream>

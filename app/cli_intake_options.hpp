@@ -1,7 +1,7 @@
 #pragma once
 
-#include "input_error.hpp"
-#include "intake_settings.hpp"
+#include "intake/input_error.hpp"
+#include "intake/intake_settings.hpp"
 
 #include <CLI/CLI.hpp>
 

@@ -7,7 +7,7 @@
 #include "cli_update_command.hpp"
 #include "cli_validate_command.hpp"
 #include "huge_pages.hpp"
-#include "version.hpp"
+#include "files/version.hpp"
 
 #include <CLI/CLI.hpp>
 

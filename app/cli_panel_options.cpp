@@ -1,6 +1,6 @@
 #include "cli_panel_options.hpp"
 
-#include "option_lists.hpp"
+#include "intake/option_lists.hpp"
 
 namespace plumbline::cli {
 

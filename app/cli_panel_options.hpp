@@ -1,7 +1,7 @@
 #pragma once
 
-#include "input_error.hpp"
-#include "panel_settings.hpp"
+#include "intake/input_error.hpp"
+#include "analyses/panel_settings.hpp"
 
 #include <CLI/CLI.hpp>
 

@@ -1,7 +1,7 @@
 #include "cli_panel_report.hpp"
 
-#include "metric_reading.hpp"
-#include "value_text.hpp"
+#include "metrics/metric_reading.hpp"
+#include "reporting/value_text.hpp"
 
 #include <algorithm>
 #include <cstdio>

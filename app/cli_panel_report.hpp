@@ -1,6 +1,6 @@
 #pragma once
 
-#include "validation.hpp"
+#include "analyses/validation.hpp"
 
 #include <ostream>
 

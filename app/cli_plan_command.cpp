@@ -1,7 +1,7 @@
 #include "cli_plan_command.hpp"
 
 #include "cli_exit.hpp"
-#include "sample_size.hpp"
+#include "analyses/sample_size.hpp"
 
 #include <iostream>
 #include <memory>

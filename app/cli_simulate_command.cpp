@@ -1,8 +1,8 @@
 #include "cli_simulate_command.hpp"
 
-#include "atomic_file.hpp"
+#include "files/atomic_file.hpp"
 #include "cli_exit.hpp"
-#include "cohort_simulator.hpp"
+#include "files/cohort_simulator.hpp"
 
 #include <iostream>
 #include <memory>

@@ -1,7 +1,7 @@
 #include "cli_text.hpp"
 
-#include "cautions.hpp"
-#include "version.hpp"
+#include "reporting/cautions.hpp"
+#include "files/version.hpp"
 
 #include <cstdio>
 #include <iomanip>

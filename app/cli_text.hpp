@@ -1,6 +1,6 @@
 #pragma once
 
-#include "intake.hpp"
+#include "intake/intake.hpp"
 
 #include <cstddef>
 #include <ostream>

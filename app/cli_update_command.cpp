@@ -1,16 +1,16 @@
 #include "cli_update_command.hpp"
 
-#include "atomic_file.hpp"
+#include "files/atomic_file.hpp"
 #include "cli_exit.hpp"
 #include "cli_intake_options.hpp"
 #include "cli_text.hpp"
-#include "csv_quoting.hpp"
-#include "intake.hpp"
-#include "metric_reading.hpp"
-#include "model_updating.hpp"
-#include "result_json.hpp"
-#include "update_json.hpp"
-#include "value_text.hpp"
+#include "files/csv_quoting.hpp"
+#include "intake/intake.hpp"
+#include "metrics/metric_reading.hpp"
+#include "analyses/model_updating.hpp"
+#include "files/result_json.hpp"
+#include "files/update_json.hpp"
+#include "reporting/value_text.hpp"
 
 #include <charconv>
 #include <iomanip>

@@ -1,17 +1,17 @@
 #include "cli_validate_command.hpp"
 
-#include "analysis_snapshot.hpp"
-#include "atomic_file.hpp"
+#include "run/analysis_snapshot.hpp"
+#include "files/atomic_file.hpp"
 #include "cli_analysis_options.hpp"
 #include "cli_exit.hpp"
 #include "cli_panel_report.hpp"
 #include "cli_text.hpp"
-#include "intake.hpp"
-#include "model_updating.hpp"
-#include "report_writers.hpp"
-#include "result_json.hpp"
-#include "update_json.hpp"
-#include "validation_json.hpp"
+#include "intake/intake.hpp"
+#include "analyses/model_updating.hpp"
+#include "report/report_writers.hpp"
+#include "files/result_json.hpp"
+#include "files/update_json.hpp"
+#include "files/validation_json.hpp"
 
 #include <QApplication>
 

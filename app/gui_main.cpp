@@ -2,13 +2,13 @@
 // directly when --outcome and --score are given); `plumbline --snapshot OUT.png FILE [validate
 // options]` runs the analysis, renders the whole window to OUT.png and exits — no display needed.
 // As the composition root it catches what escapes and shows it once.
-#include "atomic_file.hpp"
+#include "files/atomic_file.hpp"
 #include "cli_analysis_options.hpp"
 #include "guarded_application.hpp"
 #include "huge_pages.hpp"
 #include "main_window.hpp"
-#include "validation_task.hpp"
-#include "version.hpp"
+#include "run/validation_task.hpp"
+#include "files/version.hpp"
 
 #include <CLI/CLI.hpp>
 

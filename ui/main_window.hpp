@@ -1,6 +1,6 @@
 #pragma once
 
-#include "analysis_snapshot.hpp"
+#include "run/analysis_snapshot.hpp"
 
 #include <QMainWindow>
 

@@ -2,14 +2,14 @@
 // tables, recent files and dropped files.
 #include "main_window.hpp"
 
-#include "elided_label.hpp"
-#include "atomic_file.hpp"
-#include "import_dialog.hpp"
-#include "report_writers.hpp"
-#include "result_json.hpp"
-#include "save_location.hpp"
-#include "settings_panel.hpp"
-#include "threshold_panel.hpp"
+#include "widgets/elided_label.hpp"
+#include "files/atomic_file.hpp"
+#include "dialogs/import_dialog.hpp"
+#include "report/report_writers.hpp"
+#include "files/result_json.hpp"
+#include "widgets/save_location.hpp"
+#include "panels/settings_panel.hpp"
+#include "panels/threshold_panel.hpp"
 
 #include <QAction>
 #include <QDesktopServices>

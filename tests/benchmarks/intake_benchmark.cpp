@@ -9,10 +9,10 @@
 //                                           the bootstrap of the supplier score's panel on 2
 //                                           threads; with "curve" also ICI and both bands
 #include "huge_pages.hpp"
-#include "intake.hpp"
-#include "bootstrap_engine.hpp"
-#include "sample_size.hpp"
-#include "validation.hpp"
+#include "intake/intake.hpp"
+#include "analyses/bootstrap_engine.hpp"
+#include "analyses/sample_size.hpp"
+#include "analyses/validation.hpp"
 
 #include <sys/resource.h>
 

@@ -4,10 +4,10 @@
 // QT_QPA_PLATFORM=offscreen and compares the total with the CLI's run of the same analysis.
 //
 //   plumbline-window-bench FILE REPLICATES
-#include "analysis_request.hpp"
+#include "run/analysis_request.hpp"
 #include "huge_pages.hpp"
 #include "main_window.hpp"
-#include "validation_task.hpp"
+#include "run/validation_task.hpp"
 
 #include <QApplication>
 #include <QElapsedTimer>

@@ -1,7 +1,7 @@
 // libFuzzer harness of the analysis-file reader: any bytes as a *.plumbline.json. Nothing may
 // crash, hang, leak or escape as an exception; whatever is accepted must pass the settings check.
-#include "analysis_file.hpp"
-#include "settings_check.hpp"
+#include "files/analysis_file.hpp"
+#include "files/settings_check.hpp"
 
 #include <cstddef>
 #include <cstdint>

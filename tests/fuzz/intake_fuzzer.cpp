@@ -1,10 +1,10 @@
 // libFuzzer harness of the intake: any bytes as a cohort file, read with the mapping the import
 // dialog would guess and with a fixed one. Nothing may crash, hang or leak, and every audit that
 // comes back must balance (rows read = rows used + rows excluded).
-#include "column_profile.hpp"
-#include "column_roles.hpp"
-#include "delimited_table.hpp"
-#include "intake.hpp"
+#include "intake/column_profile.hpp"
+#include "intake/column_roles.hpp"
+#include "intake/delimited_table.hpp"
+#include "intake/intake.hpp"
 
 #include <cstddef>
 #include <cstdint>

@@ -1,0 +1,82 @@
+#include "analyses/paired_bootstrap.hpp"
+
+#include "resampling/bootstrap_interval.hpp"
+#include "analyses/model_comparison.hpp"
+
+#include <algorithm>
+#include <cmath>
+
+namespace plumbline {
+
+PairMoves pairMoves(std::span<const double> riskA, std::span<const double> riskB, std::size_t a, std::size_t b,
+                    const std::vector<double>& cutPoints)
+{
+    PairMoves moves;
+    moves.modelA = a;
+    moves.modelB = b;
+    moves.categorical.resize(riskA.size());
+    moves.continuous.resize(riskA.size());
+    for (std::size_t i = 0; i < riskA.size(); ++i) {
+        const std::size_t ca = riskCategory(riskA[i], cutPoints), cb = riskCategory(riskB[i], cutPoints);
+        moves.categorical[i] = static_cast<std::int8_t>(cb > ca ? 1 : cb < ca ? -1 : 0);
+        moves.continuous[i] = static_cast<std::int8_t>(riskB[i] > riskA[i] ? 1 : riskB[i] < riskA[i] ? -1 : 0);
+    }
+    return moves;
+}
+
+PairReplicate pairReplicate(const PairMoves& moves, std::span<const std::uint8_t> outcome,
+                            std::span<const std::uint16_t> rowCounts)
+{
+    double events = 0, nonEvents = 0, catEvents = 0, catNonEvents = 0, contEvents = 0, contNonEvents = 0;
+    for (std::size_t i = 0; i < outcome.size(); ++i) {
+        const double c = rowCounts[i];
+        if (outcome[i]) {
+            events += c;
+            catEvents += c * moves.categorical[i];
+            contEvents += c * moves.continuous[i];
+        } else {
+            nonEvents += c;
+            catNonEvents -= c * moves.categorical[i];
+            contNonEvents -= c * moves.continuous[i];
+        }
+    }
+    return {catEvents / events, catNonEvents / nonEvents, contEvents / events, contNonEvents / nonEvents};
+}
+
+std::vector<double> netBenefitAt(const ModelSupport& support, const SupportCounts& counts,
+                                 std::span<const double> thresholds)
+{
+    // Counts at or above each support point, from the top.
+    const std::size_t d = support.x.size();
+    std::vector<double> eventsAbove(d + 1, 0.0), nonEventsAbove(d + 1, 0.0);
+    for (std::size_t k = d; k > 0; --k) {
+        eventsAbove[k - 1] = eventsAbove[k] + counts.events[k - 1];
+        nonEventsAbove[k - 1] = nonEventsAbove[k] + counts.nonEvents[k - 1];
+    }
+    const double n = eventsAbove[0] + nonEventsAbove[0];
+    std::vector<double> out;
+    for (double t : thresholds) {
+        const auto k = static_cast<std::size_t>(std::lower_bound(support.x.begin(), support.x.end(), t) - support.x.begin());
+        out.push_back(eventsAbove[k] / n - nonEventsAbove[k] / n * t / (1.0 - t));
+    }
+    return out;
+}
+
+MetricBootstrap pairedSummary(const std::vector<double>& replicates, double confidence)
+{
+    std::vector<double> sorted;
+    for (double v : replicates)
+        if (std::isfinite(v))
+            sorted.push_back(v);
+    std::sort(sorted.begin(), sorted.end());
+    MetricBootstrap b;
+    b.replicatesUsed = sorted.size();
+    if (sorted.size() < 2)
+        return b;
+    b.se = replicateStandardDeviation(sorted);
+    b.percentile = percentileInterval(sorted, confidence);
+    b.accelerationMethod = "none (percentile interval of paired differences)";
+    return b;
+}
+
+} // namespace plumbline

@@ -1,0 +1,93 @@
+#include "analyses/validation.hpp"
+
+#include "analyses/subgroup_analysis.hpp"
+#include "metrics/panel_keys.hpp"
+
+#include <algorithm>
+#include <exception>
+#include <thread>
+
+namespace plumbline {
+
+namespace {
+
+// Precision cautions about the cohort as a whole.
+std::vector<std::string> cohortWarnings(const Cohort& cohort)
+{
+    std::vector<std::string> out;
+    const std::size_t events = cohort.events();
+    const std::size_t nonEvents = cohort.rows() - events;
+    const std::size_t smaller = std::min(events, nonEvents);
+    if (smaller < 100)
+        out.push_back("Only " + std::to_string(smaller) + " patients in the smaller outcome class: estimates are imprecise; at least 100 events, ideally 200, are recommended for external validation (Collins, Ogundimu & Altman 2016, Stat Med 35:214).");
+    else if (smaller < 200 && scaleIsProbabilistic(cohort.scale))
+        out.push_back("Fewer than 200 events or non-events: the smoothed calibration curve is imprecise (Van Calster et al. 2016 suggest 200 of each; from memory).");
+    return out;
+}
+
+} // namespace
+
+const ModelValidation* ValidationResult::model(const std::string& name) const
+{
+    for (const auto& m : models)
+        if (m.name == name)
+            return &m;
+    return nullptr;
+}
+
+ValidationResult runValidation(const Cohort& cohort, const PanelSettings& settings, unsigned threads)
+{
+    ValidationResult result;
+    result.settings = settings;
+    result.models.resize(cohort.models.size());
+    const std::size_t workers = std::clamp<std::size_t>(threads, 1, std::max<std::size_t>(1, cohort.models.size()));
+    // Model m goes to worker m % workers; each writes only its own slot. A failure in a worker
+    // (out of memory, a library error) is carried back and rethrown here, never lost.
+    std::vector<std::exception_ptr> failures(workers);
+    auto work = [&](std::size_t w) {
+        try {
+            for (std::size_t m = w; m < cohort.models.size(); m += workers)
+                result.models[m] = validateModel(cohort.outcome, cohort.models[m], cohort.scale, settings, cohort.sourceLines);
+        } catch (...) {
+            failures[w] = std::current_exception();
+        }
+    };
+    std::vector<std::thread> pool;
+    for (std::size_t w = 1; w < workers; ++w)
+        pool.emplace_back(work, w);
+    work(0);
+    for (auto& thread : pool)
+        thread.join();
+    for (const auto& failure : failures)
+        if (failure)
+            std::rethrow_exception(failure);
+    result.comparisons = compareModels(cohort, result, settings, settings.cutPoints());
+    if (!cohort.groups.empty())
+        result.subgroups = analyseSubgroups(cohort, settings, settings.minimumCell);
+    std::string periodProblem;
+    if (cohort.period) {
+        // The command line refuses such a run before it starts; the window still shows the rest
+        // of the validation and says why there is no view over time.
+        if (auto periods = analysePeriods(cohort, *cohort.period, settings.dateFormat, settings.periodUnit, settings.confidence))
+            result.periods = std::move(*periods);
+        else
+            periodProblem = "No view over time: " + periods.error().message();
+    }
+    // Achieved precision beside the widths commonly aimed at (Riley et al. 2021 examples; from memory).
+    for (const auto& model : result.models)
+        for (const auto& [metric, target] : {std::pair<PanelMetric, double>{CStatistic, 0.1}, {OeRatio, 0.2}, {CalibrationSlope, 0.2}}) {
+            const Estimate& e = model.metrics[metric].estimate;
+            if (e.lower && e.upper)
+                result.precision.push_back({model.name, std::string(panelKeys[metric]), *e.upper - *e.lower, target});
+        }
+    result.warnings = cohortWarnings(cohort);
+    if (!periodProblem.empty())
+        result.warnings.push_back(periodProblem);
+    if (result.periods)
+        result.warnings.insert(result.warnings.end(), result.periods->warnings.begin(), result.periods->warnings.end());
+    for (const auto& model : result.models)
+        result.warnings.insert(result.warnings.end(), model.warnings.begin(), model.warnings.end());
+    return result;
+}
+
+} // namespace plumbline

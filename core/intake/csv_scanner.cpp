@@ -1,0 +1,128 @@
+#include "intake/csv_scanner.hpp"
+
+namespace plumbline {
+
+CsvScanner::CsvScanner(std::string_view text, char delimiter)
+    : m_text(text)
+    , m_delimiter(delimiter)
+{
+}
+
+bool CsvScanner::atRecordEnd() const
+{
+    return m_pos >= m_text.size() || m_text[m_pos] == '\n' || m_text[m_pos] == '\r';
+}
+
+void CsvScanner::consumeRecordEnd()
+{
+    if (m_pos < m_text.size() && m_text[m_pos] == '\r')
+        ++m_pos;
+    if (m_pos < m_text.size() && m_text[m_pos] == '\n')
+        ++m_pos;
+    ++m_line;
+}
+
+bool CsvScanner::next()
+{
+    m_fields.clear();
+    m_unescapedUsed = 0;
+    m_strayQuote = false;
+    // Skip blank lines (including a lone CR or trailing blank lines at the end of the file).
+    while (m_pos < m_text.size() && (m_text[m_pos] == '\n' || m_text[m_pos] == '\r')) {
+        consumeRecordEnd();
+        ++m_blankLines;
+    }
+    if (m_pos >= m_text.size())
+        return false;
+    m_recordLine = m_line;
+    for (;;) {
+        if (m_pos < m_text.size() && m_text[m_pos] == '"')
+            readQuoted();
+        else
+            readUnquoted();
+        if (m_unclosedQuote)
+            return true;
+        if (m_pos < m_text.size() && m_text[m_pos] == m_delimiter) {
+            ++m_pos;
+            continue;
+        }
+        consumeRecordEnd();
+        return true;
+    }
+}
+
+void CsvScanner::readUnquoted()
+{
+    const std::size_t start = m_pos;
+    const char* data = m_text.data();
+    const std::size_t size = m_text.size();
+    std::size_t i = m_pos;
+    while (i < size) {
+        const char c = data[i];
+        if (c == m_delimiter || c == '\n' || c == '\r')
+            break;
+        ++i;
+    }
+    m_pos = i;
+    m_fields.emplace_back(data + start, i - start);
+}
+
+void CsvScanner::readQuoted()
+{
+    const std::size_t fieldStart = ++m_pos; // after the opening quote
+    bool hasDoubledQuote = false;
+    std::size_t i = m_pos;
+    const std::size_t lineAtStart = m_line;
+    for (;;) {
+        const std::size_t quote = m_text.find('"', i);
+        if (quote == std::string_view::npos) {
+            m_unclosedQuote = true;
+            m_unclosedField = m_fields.size();
+            m_line = lineAtStart;
+            m_pos = m_text.size();
+            m_fields.emplace_back(m_text.substr(fieldStart));
+            return;
+        }
+        if (quote + 1 < m_text.size() && m_text[quote + 1] == '"') {
+            hasDoubledQuote = true;
+            i = quote + 2;
+            continue;
+        }
+        i = quote;
+        break;
+    }
+    const std::string_view raw = m_text.substr(fieldStart, i - fieldStart);
+    for (char c : raw)
+        if (c == '\n')
+            ++m_line;
+    m_pos = i + 1; // after the closing quote
+    std::string_view field = raw;
+    if (hasDoubledQuote) {
+        if (m_unescapedUsed == m_unescaped.size())
+            m_unescaped.emplace_back();
+        std::string& buffer = m_unescaped[m_unescapedUsed++];
+        buffer.clear();
+        for (std::size_t k = 0; k < raw.size(); ++k) {
+            buffer += raw[k];
+            if (raw[k] == '"')
+                ++k; // skip the second quote of a doubled pair
+        }
+        field = buffer;
+    }
+    // Text between the closing quote and the delimiter is malformed; keep it so nothing is lost.
+    if (!atRecordEnd() && m_text[m_pos] != m_delimiter) {
+        m_strayQuote = true;
+        const std::size_t tailStart = m_pos;
+        while (!atRecordEnd() && m_text[m_pos] != m_delimiter)
+            ++m_pos;
+        if (m_unescapedUsed == m_unescaped.size())
+            m_unescaped.emplace_back();
+        std::string& buffer = m_unescaped[m_unescapedUsed++];
+        buffer.assign(field);
+        buffer.append(m_text.substr(tailStart, m_pos - tailStart));
+        field = buffer;
+    }
+    m_fields.push_back(field);
+}
+
+} // namespace plumbline

@@ -1,0 +1,202 @@
+#include "intake/intake.hpp"
+
+#include "intake/cohort_assembler.hpp"
+#include "intake/delimited_table.hpp"
+#include "intake/joined_files_intake.hpp"
+#include "intake/sha256.hpp"
+#include "intake/single_file_intake.hpp"
+#include "intake/written_date.hpp"
+
+#include <algorithm>
+#include <future>
+#include <unordered_set>
+
+namespace plumbline {
+
+namespace {
+
+std::expected<void, InputError> checkSettings(const IntakeSettings& settings)
+{
+    InputError error;
+    error.file = settings.cohortFile;
+    if (settings.cohortFile.empty()) {
+        error.problem = "no cohort file was given.";
+        error.remedy = "name the file with the scores (and outcomes), or open a saved analysis (File → Open analysis, or --settings).";
+        return std::unexpected(error);
+    }
+    if (settings.outcomeColumn.empty()) {
+        error.problem = "no outcome column was given.";
+        error.remedy = "choose the column with the observed outcome (Outcome column in the window, --outcome COLUMN on the command line).";
+        return std::unexpected(error);
+    }
+    if (settings.scoreColumns.empty()) {
+        error.problem = "no score column was given.";
+        error.remedy = "choose the model's score column (Score columns in the window, --score COLUMN on the command line; several to compare models).";
+        return std::unexpected(error);
+    }
+    std::unordered_set<std::string> seen;
+    for (const auto& column : settings.scoreColumns) {
+        if (!seen.insert(column).second || column == settings.outcomeColumn) {
+            error.column = column;
+            error.problem = column == settings.outcomeColumn ? "the outcome column is also given as a score column."
+                                                             : "the score column is given twice.";
+            error.remedy = "give each score column once, and never the outcome as a score.";
+            return std::unexpected(error);
+        }
+    }
+    if (settings.outcomesFile && !settings.idColumn) {
+        error.file = *settings.outcomesFile;
+        error.problem = "outcomes in a second file need an id to join the two files on.";
+        error.remedy = "choose the id column that links the two files (Id column in the window, --id COLUMN and, if the outcomes file calls it differently, --outcomes-id on the command line).";
+        return std::unexpected(error);
+    }
+    return {};
+}
+
+// Reaching here means every row was read but the cohort cannot carry a validation.
+std::expected<void, InputError> checkEnoughRows(const IntakeAudit& audit, const IntakeSettings& settings)
+{
+    if (audit.events > 0 && audit.nonEvents > 0)
+        return {};
+    InputError error;
+    error.kind = ErrorKind::ImpossibleAnalysis;
+    error.file = settings.cohortFile;
+    error.column = settings.outcomeColumn;
+    std::string biggest;
+    std::size_t biggestRows = 0;
+    for (const auto& tally : audit.exclusions)
+        if (tally.rows > biggestRows) {
+            biggestRows = tally.rows;
+            biggest = exclusionReasonText(tally.reason) + (tally.column.empty() ? "" : " ('" + tally.column + "')");
+        }
+    error.problem = "after exclusions " + std::to_string(audit.rowsUsed) + " of " + std::to_string(audit.rowsRead)
+        + " rows remain, with " + std::to_string(audit.events) + " events and " + std::to_string(audit.nonEvents)
+        + " non-events; a validation needs both."
+        + (biggestRows > 0 ? " Most rows were lost to: " + biggest + " (" + std::to_string(biggestRows) + " rows)." : "");
+    error.remedy = "check the column mapping, the scale and the outcome definition against the file.";
+    return std::unexpected(error);
+}
+
+// Before the outcome is coded: a file of a header alone, or rows that all fell at the structural
+// or join checks, would otherwise be reported as "the outcome holds no values".
+std::expected<void, InputError> checkRowsToUse(const IntakeAudit& audit, std::size_t staged, const ExclusionCounter& exclusions,
+                                               const std::string& file, bool joined)
+{
+    if (staged > 0)
+        return {};
+    InputError error;
+    error.file = file;
+    if (audit.rowsRead == 0) {
+        error.problem = "the file has a header row but no data rows.";
+        error.remedy = "choose the file with one row per patient under the header.";
+        return std::unexpected(error);
+    }
+    error.kind = ErrorKind::ImpossibleAnalysis;
+    std::string reasons;
+    for (const auto& tally : exclusions.tallies())
+        reasons += (reasons.empty() ? "" : "; ") + exclusionReasonText(tally.reason) + (tally.column.empty() ? "" : " ('" + tally.column + "')")
+            + ": " + std::to_string(tally.rows) + " rows";
+    error.problem = "none of the " + std::to_string(audit.rowsRead) + " rows can be used (" + reasons + ").";
+    error.remedy = joined ? "check the id columns of both files: each patient's id must appear once in each file."
+                          : "check that every row has as many fields as the header and that quoted fields are closed.";
+    return std::unexpected(error);
+}
+
+} // namespace
+
+std::expected<IntakeResult, InputError> runIntake(const IntakeSettings& settings)
+{
+    if (auto ok = checkSettings(settings); !ok)
+        return std::unexpected(ok.error());
+    auto cohortFile = TextFile::load(settings.cohortFile, settings.maxLineBytes);
+    if (!cohortFile)
+        return std::unexpected(cohortFile.error());
+    std::optional<TextFile> outcomesFile;
+    if (settings.outcomesFile) {
+        auto loaded = TextFile::load(*settings.outcomesFile, settings.maxLineBytes);
+        if (!loaded)
+            return std::unexpected(loaded.error());
+        outcomesFile = std::move(*loaded);
+    }
+    return runIntake(settings, std::move(*cohortFile), std::move(outcomesFile));
+}
+
+std::expected<IntakeResult, InputError> runIntake(const IntakeSettings& asked, TextFile cohortFile,
+                                                  std::optional<TextFile> outcomesFile)
+{
+    if (auto ok = checkSettings(asked); !ok)
+        return std::unexpected(ok.error());
+    // The period column is read like a group column (its date texts dictionary-coded) and moved
+    // to the cohort's period afterwards.
+    IntakeSettings settings = asked;
+    const bool periodAlsoGroup = asked.periodColumn
+        && std::find(asked.groupColumns.begin(), asked.groupColumns.end(), *asked.periodColumn) != asked.groupColumns.end();
+    if (asked.periodColumn && !periodAlsoGroup)
+        settings.groupColumns.push_back(*asked.periodColumn);
+    auto cohortTable = DelimitedTable::open(std::move(cohortFile), settings.delimiter);
+    if (!cohortTable)
+        return std::unexpected(cohortTable.error());
+    // Fingerprint on the second core while the first one parses; the table (and so its bytes)
+    // outlives the future, whose destructor waits.
+    const std::string& cohortBytes = cohortTable->file().bytes();
+    auto cohortHash = std::async(std::launch::async, [&cohortBytes] { return sha256Hex(cohortBytes); });
+
+    IntakeResult result;
+    IntakeAudit& audit = result.audit;
+    audit.delimiter = cohortTable->delimiter();
+    audit.delimiterSniffed = cohortTable->delimiterSniffed();
+    ExclusionCounter exclusions;
+    StagedSources sources{cohortTable->fileName(), cohortTable->fileName()};
+    std::expected<StagedFile, InputError> staged = std::unexpected(InputError{});
+    std::optional<DelimitedTable> outcomesTable;
+    std::string outcomesHash;
+    if (outcomesFile) {
+        outcomesHash = sha256Hex(outcomesFile->bytes());
+        auto opened = DelimitedTable::open(std::move(*outcomesFile), settings.delimiter);
+        if (!opened)
+            return std::unexpected(opened.error());
+        outcomesTable = std::move(*opened);
+        sources.outcomeFile = outcomesTable->fileName();
+        staged = stageJoinedFiles(*cohortTable, *outcomesTable, settings, exclusions, audit);
+    } else {
+        staged = stageSingleFile(*cohortTable, settings, exclusions, audit);
+    }
+    if (!staged)
+        return std::unexpected(staged.error());
+
+    if (outcomesTable == std::nullopt && !staged->rows.ids.empty()) {
+        std::unordered_set<std::string_view> seen;
+        std::size_t repeated = 0;
+        for (const auto& id : staged->rows.ids)
+            repeated += seen.insert(id).second ? 0 : 1;
+        if (repeated > 0)
+            audit.warnings.push_back(std::to_string(repeated) + " rows repeat an id already seen in column '"
+                                     + *settings.idColumn + "'; with one file they are kept, check that rows are not duplicated.");
+    }
+    if (auto usable = checkRowsToUse(audit, staged->rows.size(), exclusions, sources.cohortFile, outcomesTable.has_value()); !usable)
+        return std::unexpected(usable.error());
+    auto cohort = assembleCohort(std::move(staged->rows), staged->outcomeLevels.levels(), settings, sources, exclusions, audit);
+    if (!cohort)
+        return std::unexpected(cohort.error());
+    audit.exclusions = exclusions.tallies();
+    if (auto enough = checkEnoughRows(audit, settings); !enough)
+        return std::unexpected(enough.error());
+    result.cohort = std::move(*cohort);
+    if (asked.periodColumn) {
+        auto& groups = result.cohort.groups;
+        const auto it = std::find_if(groups.begin(), groups.end(), [&](const CategoricalColumn& c) { return c.name == *asked.periodColumn; });
+        result.cohort.period = DateColumn{*it, {}};
+        // Each distinct date text is read once, here; the period analysis only applies the
+        // day/month order the user chose to what was read.
+        for (const auto& level : result.cohort.period->levels)
+            result.cohort.period->written.push_back(readWrittenDate(level));
+        if (!periodAlsoGroup)
+            groups.erase(it);
+    }
+    result.inputs.push_back({"cohort", settings.cohortFile, cohortHash.get(), audit.rowsRead});
+    if (outcomesTable)
+        result.inputs.push_back({"outcomes", *settings.outcomesFile, outcomesHash, audit.join->outcomeRows});
+    return result;
+}
+
+} // namespace plumbline

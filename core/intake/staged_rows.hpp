@@ -1,0 +1,70 @@
+#pragma once
+
+#include "intake/csv_scanner.hpp"
+#include "intake/intake_audit.hpp"
+#include "intake/outcome_coding.hpp"
+
+#include <cstddef>
+#include <cstdint>
+#include <optional>
+#include <string>
+#include <string_view>
+#include <unordered_map>
+#include <vector>
+
+namespace plumbline {
+
+// How a score field read, before the scale is applied.
+// Underflow: a number nearer to 0 than the smallest normal double (|x| < 2.2e-308, written
+// 1e-400 or -1e-310): read as 0, whatever its sign, and counted.
+enum class ScoreFieldStatus : std::uint8_t { Number, Missing, NotANumber, Underflow };
+
+// Rows that passed the structural and join checks, with their raw values, waiting for the
+// outcome coding and the scale (both need the whole column first).
+struct StagedRows {
+    static constexpr std::uint8_t missingOutcome = 0xFF;
+
+    std::vector<std::uint32_t> lines;          // line in the cohort file
+    std::vector<std::uint32_t> outcomeLines;   // line of the outcome (differs with two files)
+    std::vector<std::uint8_t> outcomeLevel;    // index into levels, or missingOutcome
+    std::vector<std::vector<double>> rawScores;              // [column][row]
+    std::vector<std::vector<ScoreFieldStatus>> scoreStatus;  // [column][row]
+    std::vector<std::vector<std::uint32_t>> groupCodes;      // [group][row]
+    std::vector<std::vector<std::string>> groupLevels;       // [group][code]
+    std::vector<std::string> ids;
+
+    std::size_t size() const { return lines.size(); }
+};
+
+// Collects the distinct outcome values; more than a few means the column is not binary and
+// the intake stops, so the list is capped.
+class OutcomeLevelCollector {
+public:
+    static constexpr std::size_t cap = 64;
+    // Returns the level index, or StagedRows::missingOutcome for a missing token.
+    std::uint8_t add(std::string_view field, std::size_t line);
+    const std::vector<OutcomeLevel>& levels() const { return m_levels; }
+
+private:
+    std::vector<OutcomeLevel> m_levels;
+};
+
+// Dictionary-codes one categorical column.
+class LevelDictionary {
+public:
+    std::uint32_t code(std::string_view field);
+    std::vector<std::string> takeLevels() { return std::move(m_levels); }
+
+private:
+    std::unordered_map<std::string, std::uint32_t> m_codes;
+    std::vector<std::string> m_levels;
+};
+
+// The reason a record cannot be read as a row at all (wrong field count, text after a closing
+// quote), or nullopt when its shape is sound.
+std::optional<ExclusionReason> recordShapeProblem(const CsvScanner& scanner, std::size_t width);
+
+// Reads one score field: a number, a missing token, or text that is not a number.
+ScoreFieldStatus readScoreField(std::string_view field, bool decimalComma, double& value);
+
+} // namespace plumbline

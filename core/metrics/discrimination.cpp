@@ -1,0 +1,213 @@
+#include "metrics/discrimination.hpp"
+
+#include "metrics/distributions.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <numeric>
+
+namespace plumbline {
+
+Placements delongPlacements(std::span<const std::uint8_t> outcome, std::span<const double> score,
+                            const ScoreOrder& order)
+{
+    const std::size_t total = outcome.size();
+    const auto m = static_cast<std::size_t>(std::count(outcome.begin(), outcome.end(), std::uint8_t{1}));
+    const std::size_t n = total - m;
+    Placements out;
+    if (m == 0 || n == 0)
+        return out;
+    // Position of each row among the events (or non-events) in data order.
+    std::vector<std::uint32_t> classIndex(total);
+    std::size_t eventsSeen = 0, nonEventsSeen = 0;
+    for (std::size_t i = 0; i < total; ++i)
+        classIndex[i] = static_cast<std::uint32_t>(outcome[i] ? eventsSeen++ : nonEventsSeen++);
+    out.eventPlacements.resize(m);
+    out.nonEventPlacements.resize(n);
+    // Sun & Xu: V10 = (rank among all − rank among events)/n, V01 = 1 − (rank among all − rank
+    // among non-events)/m, all ranks mid-ranks; a tie block shares them.
+    double eventRankSum = 0.0;
+    std::size_t below = 0, eventsBelow = 0, nonEventsBelow = 0;
+    for (std::size_t k = 0; k < total;) {
+        std::size_t end = k;
+        std::size_t blockEvents = 0;
+        while (end < total && score[order[end]] == score[order[k]])
+            blockEvents += outcome[order[end++]];
+        const std::size_t size = end - k;
+        const std::size_t blockNonEvents = size - blockEvents;
+        const double rankAll = double(below) + (double(size) + 1.0) / 2.0;
+        const double rankEvents = double(eventsBelow) + (double(blockEvents) + 1.0) / 2.0;
+        const double rankNonEvents = double(nonEventsBelow) + (double(blockNonEvents) + 1.0) / 2.0;
+        for (std::size_t j = k; j < end; ++j) {
+            const std::uint32_t row = order[j];
+            if (outcome[row]) {
+                out.eventPlacements[classIndex[row]] = (rankAll - rankEvents) / double(n);
+                eventRankSum += rankAll;
+            } else {
+                out.nonEventPlacements[classIndex[row]] = 1.0 - (rankAll - rankNonEvents) / double(m);
+            }
+        }
+        below += size;
+        eventsBelow += blockEvents;
+        nonEventsBelow += blockNonEvents;
+        k = end;
+    }
+    out.c = (eventRankSum - double(m) * double(m + 1) / 2.0) / (double(m) * double(n));
+    return out;
+}
+
+Placements delongPlacements(std::span<const std::uint8_t> outcome, std::span<const double> score)
+{
+    return delongPlacements(outcome, score, ascendingOrder(score));
+}
+
+namespace {
+double sampleCovariance(const std::vector<double>& a, double meanA, const std::vector<double>& b, double meanB)
+{
+    double sum = 0.0;
+    for (std::size_t i = 0; i < a.size(); ++i)
+        sum += (a[i] - meanA) * (b[i] - meanB);
+    return sum / double(a.size() - 1);
+}
+} // namespace
+
+double delongCovariance(const Placements& a, const Placements& b)
+{
+    const double s10 = sampleCovariance(a.eventPlacements, a.c, b.eventPlacements, b.c);
+    const double s01 = sampleCovariance(a.nonEventPlacements, a.c, b.nonEventPlacements, b.c);
+    return s10 / double(a.eventPlacements.size()) + s01 / double(a.nonEventPlacements.size());
+}
+
+double delongVariance(const Placements& placements)
+{
+    return delongCovariance(placements, placements);
+}
+
+Estimate cStatistic(std::span<const std::uint8_t> outcome, std::span<const double> score, CStatisticScale scale,
+                    double confidence)
+{
+    return cStatistic(delongPlacements(outcome, score), scale, confidence);
+}
+
+Estimate cStatistic(const Placements& placements, CStatisticScale scale, double confidence)
+{
+    if (placements.eventPlacements.empty() || placements.nonEventPlacements.empty())
+        return Estimate::undefined();
+    Estimate estimate = Estimate::point(placements.c);
+    if (placements.eventPlacements.size() < 2 || placements.nonEventPlacements.size() < 2)
+        return estimate;
+    const double se = std::sqrt(std::max(0.0, delongVariance(placements)));
+    estimate.se = se;
+    const double z = zForConfidence(confidence);
+    const double c = placements.c;
+    if (scale == CStatisticScale::Plain) {
+        estimate.lower = std::max(0.0, c - z * se);
+        estimate.upper = std::min(1.0, c + z * se);
+        estimate.ciMethod = CiMethod::DeLongPlain;
+        return estimate;
+    }
+    if (c <= 0.0 || c >= 1.0)
+        return estimate; // the logit interval does not exist at the boundary
+    const double centre = std::log(c / (1.0 - c));
+    const double half = z * se / (c * (1.0 - c));
+    estimate.lower = 1.0 / (1.0 + std::exp(-(centre - half)));
+    estimate.upper = 1.0 / (1.0 + std::exp(-(centre + half)));
+    estimate.ciMethod = CiMethod::DeLongLogit;
+    return estimate;
+}
+
+std::vector<RocPoint> rocCurve(std::span<const std::uint8_t> outcome, std::span<const double> score)
+{
+    return rocCurve(outcome, score, ascendingOrder(score));
+}
+
+std::vector<RocPoint> rocCurve(std::span<const std::uint8_t> outcome, std::span<const double> score,
+                               const ScoreOrder& ascending)
+{
+    const double events = double(std::count(outcome.begin(), outcome.end(), std::uint8_t{1}));
+    const double nonEvents = double(outcome.size()) - events;
+    std::vector<RocPoint> curve;
+    if (events == 0 || nonEvents == 0)
+        return curve;
+    // Highest score first: walk the shared ascending order backwards, one point per tie block.
+    curve.push_back({score[ascending.back()] + 1.0, 0.0, 1.0});
+    double tp = 0.0;
+    double fp = 0.0;
+    for (std::size_t k = ascending.size(); k > 0;) {
+        const double threshold = score[ascending[k - 1]];
+        while (k > 0 && score[ascending[k - 1]] == threshold) {
+            (outcome[ascending[k - 1]] ? tp : fp) += 1.0;
+            --k;
+        }
+        curve.push_back({threshold, tp / events, 1.0 - fp / nonEvents});
+    }
+    return curve;
+}
+
+std::vector<RocPoint> thinRocCurve(const std::vector<RocPoint>& curve, std::size_t maxPoints)
+{
+    if (curve.size() <= maxPoints || maxPoints < 2)
+        return curve;
+    // Drop collinear interior points first: they carry no area. Then keep an even spread by
+    // false-positive rate, always keeping the ends, so the chart keeps its shape.
+    std::vector<RocPoint> kept{curve.front()};
+    for (std::size_t i = 1; i + 1 < curve.size(); ++i) {
+        const RocPoint& a = kept.back();
+        const RocPoint& b = curve[i];
+        const RocPoint& c = curve[i + 1];
+        const double cross = (b.specificity - a.specificity) * (c.sensitivity - a.sensitivity)
+            - (c.specificity - a.specificity) * (b.sensitivity - a.sensitivity);
+        if (std::abs(cross) > 1e-15)
+            kept.push_back(b);
+    }
+    kept.push_back(curve.back());
+    if (kept.size() <= maxPoints)
+        return kept;
+    std::vector<RocPoint> thinned;
+    const double step = double(kept.size() - 1) / double(maxPoints - 1);
+    for (std::size_t k = 0; k < maxPoints; ++k)
+        thinned.push_back(kept[static_cast<std::size_t>(std::llround(double(k) * step))]);
+    return thinned;
+}
+
+std::optional<double> averagePrecision(std::span<const std::uint8_t> outcome, std::span<const double> score)
+{
+    const auto events = static_cast<std::size_t>(std::count(outcome.begin(), outcome.end(), std::uint8_t{1}));
+    return averagePrecision(rocCurve(outcome, score), events, outcome.size() - events);
+}
+
+std::optional<double> averagePrecision(const std::vector<RocPoint>& curve, std::size_t eventCount, std::size_t nonEventCount)
+{
+    if (curve.empty())
+        return std::nullopt;
+    const double events = double(eventCount);
+    const double nonEvents = double(nonEventCount);
+    double ap = 0.0;
+    for (std::size_t k = 1; k < curve.size(); ++k) {
+        const double tp = curve[k].sensitivity * events;
+        const double fp = (1.0 - curve[k].specificity) * nonEvents;
+        const double precision = tp + fp > 0.0 ? tp / (tp + fp) : 1.0;
+        ap += (curve[k].sensitivity - curve[k - 1].sensitivity) * precision;
+    }
+    return ap;
+}
+
+std::optional<double> discriminationSlope(std::span<const std::uint8_t> outcome, std::span<const double> risk)
+{
+    double sumEvents = 0.0, sumNonEvents = 0.0;
+    std::size_t events = 0, nonEvents = 0;
+    for (std::size_t i = 0; i < outcome.size(); ++i) {
+        if (outcome[i]) {
+            sumEvents += risk[i];
+            ++events;
+        } else {
+            sumNonEvents += risk[i];
+            ++nonEvents;
+        }
+    }
+    if (events == 0 || nonEvents == 0)
+        return std::nullopt;
+    return sumEvents / double(events) - sumNonEvents / double(nonEvents);
+}
+
+} // namespace plumbline

@@ -1,0 +1,287 @@
+#include "metrics/logistic_recalibration.hpp"
+
+#include <Eigen/Core>
+
+#include <algorithm>
+#include <cmath>
+#include <vector>
+
+namespace plumbline {
+
+namespace {
+
+constexpr int maxIterations = 100;
+// A replicate's Newton step below this ends its fit after one more order of correction: the
+// error left is then of order 1e-15 (cubed), far inside the 1e-10 the fits are held to.
+constexpr double converged = 1e-5;
+// Steps smaller than this (in the linear predictor) get the second-order correction; a larger
+// one, far from the root, is a plain Newton step.
+constexpr double correctable = 0.1;
+
+double expit(double x)
+{
+    return 1.0 / (1.0 + std::exp(-x));
+}
+
+// log(expit(x)) without cancellation for large |x|.
+double logExpit(double x)
+{
+    return x >= 0 ? -std::log1p(std::exp(-x)) : x - std::log1p(std::exp(x));
+}
+
+double binomialLogLikelihood(const BinomialPoints& d, double a, double b)
+{
+    double ll = 0.0;
+    for (std::size_t k = 0; k < d.lp.size(); ++k) {
+        if (d.trials[k] <= 0.0)
+            continue;
+        const double linear = a + b * d.lp[k];
+        const double nonEvents = d.trials[k] - d.events[k];
+        ll += (d.events[k] > 0.0 ? d.events[k] * logExpit(linear) : 0.0)
+            + (nonEvents > 0.0 ? nonEvents * logExpit(-linear) : 0.0);
+    }
+    return ll;
+}
+
+// expit(a + b·lp) at every point into `out`, with Eigen's vectorised exp: the replicates' Newton
+// passes spend most of their time here. A point without trials gets a value too; its weight in
+// every sum is zero.
+void expitInto(const BinomialPoints& d, double a, double b, std::vector<double>& out)
+{
+    out.resize(d.lp.size());
+    const Eigen::Map<const Eigen::ArrayXd> lp(d.lp.data(), Eigen::Index(d.lp.size()));
+    Eigen::Map<Eigen::ArrayXd> pi(out.data(), Eigen::Index(out.size()));
+    pi = (1.0 + (-(a + b * lp)).exp()).inverse();
+}
+
+// A buffer per thread for the predicted risks, kept between replicates.
+std::vector<double>& riskBuffer()
+{
+    thread_local std::vector<double> buffer;
+    return buffer;
+}
+
+// Rows (0/1 outcome, optional frequency weights) as grouped data, one point per row.
+struct RowPoints {
+    std::vector<double> events;
+    std::vector<double> trials;
+    RowPoints(std::span<const std::uint8_t> outcome, std::span<const double> weights)
+        : events(outcome.size())
+        , trials(outcome.size())
+    {
+        for (std::size_t i = 0; i < outcome.size(); ++i) {
+            trials[i] = weights.empty() ? 1.0 : weights[i];
+            events[i] = outcome[i] ? trials[i] : 0.0;
+        }
+    }
+};
+
+} // namespace
+
+std::vector<double> clampedLogits(std::span<const double> risk, std::size_t* clampedCount)
+{
+    std::vector<double> lp(risk.size());
+    std::size_t clamped = 0;
+    for (std::size_t i = 0; i < risk.size(); ++i) {
+        double p = risk[i];
+        if (p < certaintyMargin || p > 1.0 - certaintyMargin) {
+            p = std::clamp(p, certaintyMargin, 1.0 - certaintyMargin);
+            ++clamped;
+        }
+        lp[i] = std::log(p / (1.0 - p));
+    }
+    if (clampedCount)
+        *clampedCount = clamped;
+    return lp;
+}
+
+double logLikelihoodOfLogits(const BinomialPoints& points)
+{
+    return binomialLogLikelihood(points, 0.0, 1.0);
+}
+
+double logLikelihoodOfLogits(std::span<const std::uint8_t> outcome, std::span<const double> lp,
+                             std::span<const double> weights)
+{
+    const RowPoints rows(outcome, weights);
+    return logLikelihoodOfLogits(BinomialPoints{lp, rows.events, rows.trials});
+}
+
+std::optional<InterceptFit> fitCalibrationIntercept(const BinomialPoints& d, double start)
+{
+    double alpha = start;
+    for (int iteration = 0; iteration < maxIterations; ++iteration) {
+        double score = 0.0;
+        double information = 0.0;
+        for (std::size_t k = 0; k < d.lp.size(); ++k) {
+            if (d.trials[k] <= 0.0)
+                continue;
+            const double pi = expit(alpha + d.lp[k]);
+            score += d.events[k] - d.trials[k] * pi;
+            information += d.trials[k] * pi * (1.0 - pi);
+        }
+        if (!(information > 0.0))
+            return std::nullopt;
+        const double step = score / information;
+        alpha += step;
+        if (!std::isfinite(alpha) || std::abs(alpha) > 50.0)
+            return std::nullopt;
+        if (std::abs(step) < 1e-10) {
+            double finalInformation = 0.0;
+            for (std::size_t k = 0; k < d.lp.size(); ++k) {
+                const double pi = expit(alpha + d.lp[k]);
+                finalInformation += d.trials[k] * pi * (1.0 - pi);
+            }
+            return InterceptFit{alpha, 1.0 / std::sqrt(finalInformation), binomialLogLikelihood(d, alpha, 1.0)};
+        }
+    }
+    return std::nullopt;
+}
+
+std::optional<double> calibrationInterceptEstimate(const BinomialPoints& d, double start)
+{
+    // Chebyshev's method: the Newton step s = S/I corrected by its second-order term,
+    // δ = s − ½(J/I)s² with J = Σ n·p(1−p)(1−2p), so each pass leaves an error of order s³
+    // instead of s². From the full-sample fit the first step is a few thousandths; the second
+    // pass's step is then of order 1e-7 and its corrected result within about 1e-20 of the root
+    // (the earlier rule, stop when a Newton step is below 1e-10, needed a third pass).
+    double alpha = start;
+    std::vector<double>& pi = riskBuffer();
+    for (int iteration = 0; iteration < maxIterations; ++iteration) {
+        expitInto(d, alpha, 1.0, pi);
+        double score = 0.0, information = 0.0, skew = 0.0;
+        for (std::size_t k = 0; k < pi.size(); ++k) {
+            const double v = d.trials[k] * pi[k] * (1.0 - pi[k]);
+            score += d.events[k] - d.trials[k] * pi[k];
+            information += v;
+            skew += v * (1.0 - 2.0 * pi[k]);
+        }
+        if (!(information > 0.0))
+            return std::nullopt;
+        const double newton = score / information;
+        const bool close = std::abs(newton) < converged;
+        const bool corrected = std::abs(newton) < correctable;
+        alpha += corrected ? newton - 0.5 * skew / information * newton * newton : newton;
+        if (!std::isfinite(alpha) || std::abs(alpha) > 50.0)
+            return std::nullopt;
+        if (close)
+            return alpha;
+    }
+    return std::nullopt;
+}
+
+std::optional<InterceptFit> fitCalibrationIntercept(std::span<const std::uint8_t> outcome, std::span<const double> lp,
+                                                    std::span<const double> weights)
+{
+    const RowPoints rows(outcome, weights);
+    return fitCalibrationIntercept(BinomialPoints{lp, rows.events, rows.trials});
+}
+
+std::optional<SlopeFit> fitCalibrationSlope(const BinomialPoints& d, double startIntercept, double startSlope)
+{
+    double a = startIntercept;
+    double b = startSlope;
+    auto information = [&](double& h00, double& h01, double& h11, double* g0, double* g1) {
+        h00 = h01 = h11 = 0.0;
+        if (g0) *g0 = 0.0;
+        if (g1) *g1 = 0.0;
+        for (std::size_t k = 0; k < d.lp.size(); ++k) {
+            if (d.trials[k] <= 0.0)
+                continue;
+            const double x = d.lp[k];
+            const double pi = expit(a + b * x);
+            const double v = d.trials[k] * pi * (1.0 - pi);
+            h00 += v;
+            h01 += v * x;
+            h11 += v * x * x;
+            if (g0) {
+                const double r = d.events[k] - d.trials[k] * pi;
+                *g0 += r;
+                *g1 += r * x;
+            }
+        }
+    };
+    for (int iteration = 0; iteration < maxIterations; ++iteration) {
+        double g0 = 0.0, g1 = 0.0, h00 = 0.0, h01 = 0.0, h11 = 0.0;
+        information(h00, h01, h11, &g0, &g1);
+        const double det = h00 * h11 - h01 * h01;
+        if (!(det > 1e-12 * std::max(1.0, h00 * h11)))
+            return std::nullopt; // constant lp or a degenerate fit
+        const double da = (h11 * g0 - h01 * g1) / det;
+        const double db = (h00 * g1 - h01 * g0) / det;
+        a += da;
+        b += db;
+        if (!std::isfinite(a) || !std::isfinite(b) || std::abs(b) > 1e3)
+            return std::nullopt; // diverging: (quasi-)separation
+        if (std::abs(da) < 1e-10 && std::abs(db) < 1e-10) {
+            double k00 = 0.0, k01 = 0.0, k11 = 0.0;
+            information(k00, k01, k11, nullptr, nullptr);
+            const double det2 = k00 * k11 - k01 * k01;
+            return SlopeFit{a, b, std::sqrt(k11 / det2), std::sqrt(k00 / det2), binomialLogLikelihood(d, a, b),
+                            {k00, k01, k11}};
+        }
+    }
+    return std::nullopt;
+}
+
+std::optional<SlopeEstimate> calibrationSlopeEstimate(const BinomialPoints& d, double startIntercept, double startSlope)
+{
+    // Chebyshev's method in two parameters (as calibrationInterceptEstimate): the Newton step
+    // s = H⁻¹g corrected by −½H⁻¹T[s,s], T the third derivative of the log-likelihood, whose
+    // contraction needs the moments Σ n·p(1−p)(1−2p)·lp^j, j = 0…3, gathered in the same pass.
+    double a = startIntercept, b = startSlope;
+    double largestLp = 0.0;
+    for (const double x : d.lp)
+        largestLp = std::max(largestLp, std::abs(x));
+    std::vector<double>& pi = riskBuffer();
+    for (int iteration = 0; iteration < maxIterations; ++iteration) {
+        expitInto(d, a, b, pi);
+        double g0 = 0.0, g1 = 0.0, h00 = 0.0, h01 = 0.0, h11 = 0.0, t0 = 0.0, t1 = 0.0, t2 = 0.0, t3 = 0.0;
+        for (std::size_t k = 0; k < pi.size(); ++k) {
+            const double x = d.lp[k];
+            const double v = d.trials[k] * pi[k] * (1.0 - pi[k]);
+            const double r = d.events[k] - d.trials[k] * pi[k];
+            const double w = v * (1.0 - 2.0 * pi[k]);
+            h00 += v;
+            h01 += v * x;
+            h11 += v * x * x;
+            g0 += r;
+            g1 += r * x;
+            t0 += w;
+            t1 += w * x;
+            t2 += w * x * x;
+            t3 += w * x * x * x;
+        }
+        const double det = h00 * h11 - h01 * h01;
+        if (!(det > 1e-12 * std::max(1.0, h00 * h11)))
+            return std::nullopt;
+        const double da = (h11 * g0 - h01 * g1) / det;
+        const double db = (h00 * g1 - h01 * g0) / det;
+        // Converged when the step moves no patient's linear predictor by more than `converged`.
+        const double move = std::abs(da) + std::abs(db) * largestLp;
+        const bool close = move < converged;
+        if (move < correctable) {
+            const double c0 = da * da * t0 + 2.0 * da * db * t1 + db * db * t2;
+            const double c1 = da * da * t1 + 2.0 * da * db * t2 + db * db * t3;
+            a += da - 0.5 * (h11 * c0 - h01 * c1) / det;
+            b += db - 0.5 * (h00 * c1 - h01 * c0) / det;
+        } else {
+            a += da;
+            b += db;
+        }
+        if (!std::isfinite(a) || !std::isfinite(b) || std::abs(b) > 1e3)
+            return std::nullopt;
+        if (close)
+            return SlopeEstimate{a, b};
+    }
+    return std::nullopt;
+}
+
+std::optional<SlopeFit> fitCalibrationSlope(std::span<const std::uint8_t> outcome, std::span<const double> lp,
+                                            std::span<const double> weights, double startIntercept, double startSlope)
+{
+    const RowPoints rows(outcome, weights);
+    return fitCalibrationSlope(BinomialPoints{lp, rows.events, rows.trials}, startIntercept, startSlope);
+}
+
+} // namespace plumbline
