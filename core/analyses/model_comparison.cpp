@@ -81,7 +81,7 @@ void addNri(std::vector<DifferenceEstimate>& out, const std::string& prefix, con
 }
 
 ModelComparison comparePair(const Cohort& cohort, std::size_t a, std::size_t b, const ValidationResult& result,
-                            const PanelSettings& settings, const std::vector<double>& cuts)
+                            const PanelSettings& settings, const std::vector<double>& cuts, const std::vector<ScoreOrder>* orders)
 {
     const auto& y = cohort.outcome;
     const auto& pa = cohort.models[a].values;
@@ -91,8 +91,8 @@ ModelComparison comparePair(const Cohort& cohort, std::size_t a, std::size_t b, 
     out.modelA = cohort.models[a].name;
     out.modelB = cohort.models[b].name;
 
-    const Placements placementsA = delongPlacements(y, pa);
-    const Placements placementsB = delongPlacements(y, pb);
+    const Placements placementsA = orders ? delongPlacements(y, pa, (*orders)[a]) : delongPlacements(y, pa);
+    const Placements placementsB = orders ? delongPlacements(y, pb, (*orders)[b]) : delongPlacements(y, pb);
     const double varDiff = delongVariance(placementsA) + delongVariance(placementsB) - 2.0 * delongCovariance(placementsA, placementsB);
     out.differences.push_back(normalDifference("c_statistic_difference", placementsB.c - placementsA.c,
                                                std::sqrt(std::max(0.0, varDiff)), confidence, CiMethod::DeLongPlain));
@@ -162,14 +162,15 @@ ModelComparison comparePair(const Cohort& cohort, std::size_t a, std::size_t b, 
 } // namespace
 
 std::vector<ModelComparison> compareModels(const Cohort& cohort, const ValidationResult& result,
-                                           const PanelSettings& settings, const std::vector<double>& cutPoints)
+                                           const PanelSettings& settings, const std::vector<double>& cutPoints,
+                                           const std::vector<ScoreOrder>* orders)
 {
     std::vector<double> cuts = cutPoints;
     std::sort(cuts.begin(), cuts.end());
     std::vector<ModelComparison> out;
     for (std::size_t a = 0; a < cohort.models.size(); ++a)
         for (std::size_t b = a + 1; b < cohort.models.size(); ++b)
-            out.push_back(comparePair(cohort, a, b, result, settings, cuts));
+            out.push_back(comparePair(cohort, a, b, result, settings, cuts, orders));
     return out;
 }
 

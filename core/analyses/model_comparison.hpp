@@ -2,6 +2,7 @@
 
 #include "intake/cohort.hpp"
 #include "metrics/estimate.hpp"
+#include "metrics/score_order.hpp"
 #include "resampling/metric_bootstrap.hpp"
 #include "analyses/panel_settings.hpp"
 
@@ -48,8 +49,10 @@ struct ModelComparison {
 // non-event components (Pencina et al. 2008; p from SE0, interval from SE1, both from memory —
 // docs/methods.md §18); IDI with its SE (Pencina et al. 2008, from memory); Δ calibration slope,
 // ΔICI and ΔNB as point estimates (their intervals come from the paired bootstrap).
+// `orders`, when given, holds each model's ascendingOrder (sorted once by the caller).
 std::vector<ModelComparison> compareModels(const Cohort& cohort, const struct ValidationResult& result,
-                                           const PanelSettings& settings, const std::vector<double>& cutPoints);
+                                           const PanelSettings& settings, const std::vector<double>& cutPoints,
+                                           const std::vector<ScoreOrder>* orders = nullptr);
 
 // What a reader must keep in mind about these comparisons (docs/methods.md §18).
 std::vector<std::string> comparisonCautions();

@@ -30,12 +30,12 @@ Estimate optionalPoint(const std::optional<double>& value)
 class PanelBuilder {
 public:
     PanelBuilder(const std::vector<std::uint8_t>& outcome, const ModelScores& model, const PanelSettings& settings,
-                 std::span<const std::uint32_t> lines)
+                 std::span<const std::uint32_t> lines, ScoreOrder order)
         : m_y(outcome)
         , m_p(model.values)
         , m_settings(settings)
         , m_lines(lines)
-        , m_order(ascendingOrder(model.values))
+        , m_order(order.size() == model.values.size() ? std::move(order) : ascendingOrder(model.values))
     {
         m_result.name = model.name;
         for (std::string_view key : panelKeys)
@@ -232,9 +232,9 @@ void readMetrics(std::vector<MetricEntry>& metrics)
 }
 
 ModelValidation validateModel(const std::vector<std::uint8_t>& outcome, const ModelScores& model, ScoreScale scale,
-                              const PanelSettings& settings, std::span<const std::uint32_t> sourceLines)
+                              const PanelSettings& settings, std::span<const std::uint32_t> sourceLines, ScoreOrder order)
 {
-    PanelBuilder builder(outcome, model, settings, sourceLines);
+    PanelBuilder builder(outcome, model, settings, sourceLines, std::move(order));
     const bool risks = scaleIsProbabilistic(scale);
     builder.discrimination(risks);
     if (!risks) {

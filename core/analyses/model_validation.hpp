@@ -5,6 +5,7 @@
 #include "intake/cohort.hpp"
 #include "metrics/discrimination.hpp"
 #include "metrics/estimate.hpp"
+#include "metrics/score_order.hpp"
 #include "analyses/decision_curve.hpp"
 #include "resampling/metric_bootstrap.hpp"
 #include "metrics/operating_points.hpp"
@@ -66,7 +67,9 @@ struct ModelValidation {
 // two readings that seem to disagree (scaled Brier and Nagelkerke R2).
 void readMetrics(std::vector<MetricEntry>& metrics);
 
+// `order`, when given, is the model's ascendingOrder (computed once by the caller and shared).
 ModelValidation validateModel(const std::vector<std::uint8_t>& outcome, const ModelScores& model, ScoreScale scale,
-                              const PanelSettings& settings, std::span<const std::uint32_t> sourceLines = {});
+                              const PanelSettings& settings, std::span<const std::uint32_t> sourceLines = {},
+                              ScoreOrder order = {});
 
 } // namespace plumbline

@@ -69,7 +69,8 @@ HeterogeneityTest cochranQ(const std::string& column, const std::string& model, 
 
 } // namespace
 
-SubgroupAnalysis analyseSubgroups(const Cohort& cohort, const PanelSettings& settings, std::size_t minimumCell)
+SubgroupAnalysis analyseSubgroups(const Cohort& cohort, const PanelSettings& settings, std::size_t minimumCell,
+                                  const std::vector<ScoreOrder>& orders)
 {
     SubgroupAnalysis out;
     for (const CategoricalColumn& column : cohort.groups) {
@@ -87,6 +88,24 @@ SubgroupAnalysis analyseSubgroups(const Cohort& cohort, const PanelSettings& set
             std::vector<double> expected; // Σ risk per model
         };
         std::vector<LevelRun> runs(codes.size());
+        // Each level's order per model, read off the whole cohort's: the cohort's order sorted by
+        // (score, row), filtered to a level and renumbered, is the level's own ascendingOrder.
+        const bool ordered = orders.size() == cohort.models.size();
+        std::vector<std::vector<ScoreOrder>> levelOrders(column.levels.size());
+        if (ordered) {
+            std::vector<std::uint32_t> indexInLevel(cohort.rows());
+            std::vector<std::uint32_t> seen(column.levels.size(), 0);
+            for (std::size_t i = 0; i < cohort.rows(); ++i)
+                indexInLevel[i] = seen[column.codes[i]]++;
+            for (std::size_t level = 0; level < column.levels.size(); ++level)
+                levelOrders[level].assign(cohort.models.size(), {});
+            for (std::size_t m = 0; m < cohort.models.size(); ++m) {
+                for (std::size_t level = 0; level < column.levels.size(); ++level)
+                    levelOrders[level][m].reserve(seen[level]);
+                for (const std::uint32_t row : orders[m])
+                    levelOrders[column.codes[row]][m].push_back(indexInLevel[row]);
+            }
+        }
         std::exception_ptr failure;
         std::mutex failureMutex;
         auto work = [&](std::size_t first) {
@@ -95,7 +114,7 @@ SubgroupAnalysis analyseSubgroups(const Cohort& cohort, const PanelSettings& set
                     const Cohort level = levelCohort(cohort, column, codes[i]);
                     runs[i].rows = level.rows();
                     runs[i].events = level.events();
-                    runs[i].result = runValidation(level, settings, 1);
+                    runs[i].result = runValidation(level, settings, 1, std::move(levelOrders[codes[i]]));
                     for (const auto& model : level.models)
                         runs[i].expected.push_back(std::accumulate(model.values.begin(), model.values.end(), 0.0));
                 }

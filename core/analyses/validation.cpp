@@ -37,6 +37,15 @@ const ModelValidation* ValidationResult::model(const std::string& name) const
 
 ValidationResult runValidation(const Cohort& cohort, const PanelSettings& settings, unsigned threads)
 {
+    return runValidation(cohort, settings, threads, {});
+}
+
+ValidationResult runValidation(const Cohort& cohort, const PanelSettings& settings, unsigned threads,
+                               std::vector<ScoreOrder> orders)
+{
+    // Each model's order is sorted once (in its worker, when not given) and shared by its panel,
+    // the comparisons and the subgroup levels.
+    orders.resize(cohort.models.size());
     ValidationResult result;
     result.settings = settings;
     result.models.resize(cohort.models.size());
@@ -47,7 +56,11 @@ ValidationResult runValidation(const Cohort& cohort, const PanelSettings& settin
     auto work = [&](std::size_t w) {
         try {
             for (std::size_t m = w; m < cohort.models.size(); m += workers)
-                result.models[m] = validateModel(cohort.outcome, cohort.models[m], cohort.scale, settings, cohort.sourceLines);
+            {
+                if (orders[m].size() != cohort.models[m].values.size())
+                    orders[m] = ascendingOrder(cohort.models[m].values);
+                result.models[m] = validateModel(cohort.outcome, cohort.models[m], cohort.scale, settings, cohort.sourceLines, orders[m]);
+            }
         } catch (...) {
             failures[w] = std::current_exception();
         }
@@ -61,9 +74,9 @@ ValidationResult runValidation(const Cohort& cohort, const PanelSettings& settin
     for (const auto& failure : failures)
         if (failure)
             std::rethrow_exception(failure);
-    result.comparisons = compareModels(cohort, result, settings, settings.cutPoints());
+    result.comparisons = compareModels(cohort, result, settings, settings.cutPoints(), &orders);
     if (!cohort.groups.empty())
-        result.subgroups = analyseSubgroups(cohort, settings, settings.minimumCell);
+        result.subgroups = analyseSubgroups(cohort, settings, settings.minimumCell, orders);
     std::string periodProblem;
     if (cohort.period) {
         // The command line refuses such a run before it starts; the window still shows the rest

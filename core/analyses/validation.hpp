@@ -5,6 +5,7 @@
 #include "analyses/model_validation.hpp"
 #include "analyses/subgroup_results.hpp"
 #include "analyses/panel_settings.hpp"
+#include "metrics/score_order.hpp"
 
 #include <optional>
 #include <string>
@@ -33,5 +34,10 @@ struct ValidationResult {
 // Runs the panel for each model, models in parallel on up to `threads` threads (the result does
 // not depend on the thread count), and adds the cohort-level cautions on precision.
 ValidationResult runValidation(const Cohort& cohort, const PanelSettings& settings, unsigned threads = 2);
+// The same with each model's ascendingOrder already known (one per model, as ascendingOrder
+// gives it): subgroup levels pass the whole cohort's order filtered to their rows, which is the
+// level's own order, instead of sorting again.
+ValidationResult runValidation(const Cohort& cohort, const PanelSettings& settings, unsigned threads,
+                               std::vector<ScoreOrder> orders);
 
 } // namespace plumbline

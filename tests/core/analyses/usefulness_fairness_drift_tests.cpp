@@ -6,6 +6,7 @@
 #include "analyses/period_analysis.hpp"
 #include "analyses/subgroup_analysis.hpp"
 #include "analyses/validation.hpp"
+#include "metrics/score_order.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -215,7 +216,12 @@ TEST_CASE("Each subgroup's panel equals a full validation on that subgroup's row
     settings.groupColumns = {"hospital"};
     const auto intake = intakeOf(settings, files.cohort);
     REQUIRE(intake);
-    const SubgroupAnalysis subgroups = analyseSubgroups(intake->cohort, PanelSettings{}, 11);
+    // As runValidation calls it: with the whole cohort's score orders, which each level filters
+    // to its own rows instead of sorting again (the reference below sorts its own).
+    std::vector<ScoreOrder> orders;
+    for (const auto& model : intake->cohort.models)
+        orders.push_back(ascendingOrder(model.values));
+    const SubgroupAnalysis subgroups = analyseSubgroups(intake->cohort, PanelSettings{}, 11, orders);
     const CategoricalColumn& hospital = intake->cohort.groups[0];
     for (std::uint32_t code = 0; code < hospital.levels.size(); ++code) {
         // The rows of this hospital, taken independently of the analysis.
