@@ -192,21 +192,23 @@ void fits(const ModelSupport& s, const SupportCounts& c, const FullSampleFits& f
     }
 }
 
-void smoothedCurve(const ModelSupport& s, std::span<const std::uint8_t> outcome, const LoessOptions& loess,
-                   const PanelValues& full, PanelAccelerations& out)
+void smoothedCurve(const ModelSupport& s, const SupportCounts& sample, std::span<const std::uint8_t> outcome,
+                   const LoessOptions& loess, const PanelValues& full, PanelAccelerations& out)
 {
     const std::size_t groups = std::min<std::size_t>(20, outcome.size());
     constexpr std::array<PanelMetric, 4> metrics{Ici, E50, E90, Emax};
     // Each left-out group's loess metrics alone (no fits, no C), the groups shared between two
     // threads; values are kept by group so the result does not depend on the threads.
     std::vector<PanelValues> byGroup(groups);
+    // Group g holds rows g, g + groups, g + 2·groups, …: its counts are the sample's less those
+    // rows (whole numbers, so exactly what counting the kept rows gives).
     auto work = [&](std::size_t first) {
         SupportCounts counts;
-        std::vector<std::uint16_t> keep(outcome.size());
         for (std::size_t g = first; g < groups; g += 2) {
-            for (std::size_t i = 0; i < outcome.size(); ++i)
-                keep[i] = i % groups == g ? 0 : 1;
-            countRows(s, outcome, keep, counts);
+            counts.events.assign(sample.events.begin(), sample.events.end());
+            counts.nonEvents.assign(sample.nonEvents.begin(), sample.nonEvents.end());
+            for (std::size_t i = g; i < outcome.size(); i += groups)
+                (outcome[i] ? counts.events : counts.nonEvents)[s.rowSupport[i]] -= 1.0;
             byGroup[g] = smoothedCalibrationValues(s, counts, loess);
         }
     };
@@ -241,7 +243,7 @@ PanelAccelerations panelAccelerations(const ModelSupport& support, const Support
     accuracy(support, counts, t, full, out);
     fits(support, counts, fitsAtFull, full, out);
     if (loess && full[Ici])
-        smoothedCurve(support, outcome, *loess, full, out);
+        smoothedCurve(support, counts, outcome, *loess, full, out);
     return out;
 }
 
