@@ -88,6 +88,27 @@ private slots:
         QVERIFY(!window.findChild<QProgressBar*>()->isVisible());
     }
 
+    void theCalibrationLegendNamesABandOnlyWhenTheBootstrapDrewOne()
+    {
+        // Analytic intervals only (no bootstrap, or while it runs): no band is drawn, and the
+        // legend must not promise one.
+        auto legend = [](MainWindow& window) {
+            QStringList names;
+            for (const auto* series : window.calibrationView()->chart()->series())
+                names << series->name();
+            return names.join(QLatin1Char('|'));
+        };
+        MainWindow analytic;
+        analytic.show();
+        QVERIFY(runAndWait(analytic, sampleRequest(0)));
+        QVERIFY(!legend(analytic).contains(QStringLiteral("with band")));
+        QVERIFY(legend(analytic).contains(QStringLiteral("band: bootstrap only")));
+        MainWindow bootstrapped;
+        bootstrapped.show();
+        QVERIFY(runAndWait(bootstrapped, sampleRequest(50)));
+        QVERIFY(legend(bootstrapped).contains(QStringLiteral("with band")));
+    }
+
     void theDialogGuessesTheSampleAndTheTableShowsTheCoresNumbers()
     {
         ImportDialog dialog;

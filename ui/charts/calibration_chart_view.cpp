@@ -184,7 +184,11 @@ void CalibrationChartView::setSnapshot(SnapshotPointer snapshot)
         key->setBorderColor(Qt::white);
         attach(key, true);
         auto* lines = new QLineSeries;
-        lines->setName(tr("lines: smoothed, with band"));
+        // The band comes from the bootstrap: while it runs (or without one) the legend says so.
+        bool banded = false;
+        for (const auto& model : m_snapshot->validation.models)
+            banded = banded || !model.calibrationBand.x.empty();
+        lines->setName(banded ? tr("lines: smoothed, with band") : tr("lines: smoothed (band: bootstrap only)"));
         lines->setPen(QPen(QColor(90, 90, 90), 2));
         attach(lines, true);
     }
