@@ -184,11 +184,12 @@ void CalibrationChartView::setSnapshot(SnapshotPointer snapshot)
         key->setBorderColor(Qt::white);
         attach(key, true);
         auto* lines = new QLineSeries;
-        // The band comes from the bootstrap: while it runs (or without one) the legend says so.
+        // The band comes from the bootstrap: while it runs (or without one) none is named. The
+        // entry stays as short as it was, so the two charts of the Overview keep one size.
         bool banded = false;
         for (const auto& model : m_snapshot->validation.models)
             banded = banded || !model.calibrationBand.x.empty();
-        lines->setName(banded ? tr("lines: smoothed, with band") : tr("lines: smoothed (band: bootstrap only)"));
+        lines->setName(banded ? tr("lines: smoothed, with band") : tr("lines: smoothed"));
         lines->setPen(QPen(QColor(90, 90, 90), 2));
         attach(lines, true);
     }
