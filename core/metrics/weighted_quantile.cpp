@@ -1,7 +1,6 @@
 #include "metrics/weighted_quantile.hpp"
 
 #include <algorithm>
-#include <array>
 #include <cmath>
 
 namespace plumbline {
