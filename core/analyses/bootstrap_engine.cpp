@@ -60,6 +60,9 @@ PreparedModel prepareModel(const Cohort& cohort, std::size_t m, const ModelValid
         return e && e->value ? *e->value : fallback;
     };
     p.start = {start("calibration_intercept", 0.0), start("recalibration_intercept", 0.0), start("calibration_slope", 1.0)};
+    if (p.support.risks)
+        addStartRisks(p.support, p.start);
+    packRowsInOrder(p.support, cohort.outcome);
     for (const auto& point : full.calibrationCurve) {
         const auto at = std::lower_bound(p.support.x.begin(), p.support.x.end(), point.predicted);
         p.curvePoints.push_back(static_cast<std::size_t>(at - p.support.x.begin()));
@@ -107,22 +110,25 @@ bool runReplicate(Shared& shared, std::size_t r, std::vector<std::uint16_t>& cou
         const bool withCurve = shared.settings.smoothedCurve && !model.curvePoints.empty();
         curve.at = model.curvePoints;
         curve.values.clear();
+        // The ROC band and the net benefits come from the sweep that gives the average precision.
+        thread_local FromTheTop fromTop;
+        fromTop.falsePositiveRates = shared.rocRates;
+        fromTop.thresholdSets.clear();
+        if (model.support.risks)
+            fromTop.thresholdSets = {shared.thresholds, shared.decisionThresholds};
         const PanelValues v = weightedPanel(model.support, supportCounts, model.start, withCurve ? &shared.loess : nullptr,
-                                            withCurve ? &curve : nullptr);
+                                            withCurve ? &curve : nullptr, &fromTop);
         for (std::size_t k = 0; k < PanelMetricCount; ++k)
             shared.values[m][k][r] = v[k] ? *v[k] : undefinedValue;
         for (std::size_t j = 0; j < model.curvePoints.size(); ++j)
             shared.curves[m][j][r] = curve.values.empty() ? undefinedValue : curve.values[j];
-        const auto sensitivity = sensitivityAtFalsePositiveRates(model.support, supportCounts, shared.rocRates);
-        for (std::size_t j = 0; j < sensitivity.size(); ++j)
-            shared.rocs[m][j][r] = sensitivity[j];
+        for (std::size_t j = 0; j < fromTop.sensitivity.size(); ++j)
+            shared.rocs[m][j][r] = fromTop.sensitivity[j];
         if (model.support.risks) {
-            const auto nb = netBenefitAt(model.support, supportCounts, shared.thresholds);
-            for (std::size_t j = 0; j < nb.size(); ++j)
-                shared.netBenefit[m][j][r] = nb[j];
-            const auto decision = netBenefitAt(model.support, supportCounts, shared.decisionThresholds);
-            for (std::size_t j = 0; j < decision.size(); ++j)
-                shared.decision[m][j][r] = decision[j];
+            for (std::size_t j = 0; j < fromTop.netBenefit[0].size(); ++j)
+                shared.netBenefit[m][j][r] = fromTop.netBenefit[0][j];
+            for (std::size_t j = 0; j < fromTop.netBenefit[1].size(); ++j)
+                shared.decision[m][j][r] = fromTop.netBenefit[1][j];
         }
     }
     for (std::size_t p = 0; p < shared.pairs.size(); ++p) {

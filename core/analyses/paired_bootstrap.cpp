@@ -5,6 +5,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <utility>
 
 namespace plumbline {
 
@@ -46,20 +47,15 @@ PairReplicate pairReplicate(const PairMoves& moves, std::span<const std::uint8_t
 std::vector<double> netBenefitAt(const ModelSupport& support, const SupportCounts& counts,
                                  std::span<const double> thresholds)
 {
-    // Counts at or above each support point, from the top.
-    const std::size_t d = support.x.size();
-    std::vector<double> eventsAbove(d + 1, 0.0), nonEventsAbove(d + 1, 0.0);
-    for (std::size_t k = d; k > 0; --k) {
-        eventsAbove[k - 1] = eventsAbove[k] + counts.events[k - 1];
-        nonEventsAbove[k - 1] = nonEventsAbove[k] + counts.nonEvents[k - 1];
+    FromTheTop request;
+    request.thresholdSets = {thresholds};
+    double events = 0.0, nonEvents = 0.0;
+    for (std::size_t k = 0; k < support.x.size(); ++k) {
+        events += counts.events[k];
+        nonEvents += counts.nonEvents[k];
     }
-    const double n = eventsAbove[0] + nonEventsAbove[0];
-    std::vector<double> out;
-    for (double t : thresholds) {
-        const auto k = static_cast<std::size_t>(std::lower_bound(support.x.begin(), support.x.end(), t) - support.x.begin());
-        out.push_back(eventsAbove[k] / n - nonEventsAbove[k] / n * t / (1.0 - t));
-    }
-    return out;
+    sweepFromTheTop(support, counts, events, nonEvents, request);
+    return std::move(request.netBenefit[0]);
 }
 
 MetricBootstrap pairedSummary(const std::vector<double>& replicates, double confidence)

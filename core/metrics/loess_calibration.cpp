@@ -213,41 +213,50 @@ bool loessInto(const RiskPoints& full, const LoessOptions& options, LoessSummary
         for (std::size_t j = previous + 1; j < i; ++j)
             curve[j] = curve[previous] + (s.x[j] - s.x[previous]) / (s.x[i] - s.x[previous]) * (curve[i] - curve[previous]);
     }
-    // The fitted value at each distinct risk: its own fit, or interpolated between bin positions.
+    // The fitted value at each distinct risk (its own fit, or interpolated between bin positions)
+    // and its distance from the risk, in one pass. Branch-free where it can be (which points hold
+    // patients is random): a point without patients adds an exact zero to the sum and a zero to
+    // the maximum.
+    thread_local std::vector<double> distance;
+    distance.resize(full.x.size());
+    out.fitted.resize(full.x.size());
+    double sum = 0.0;
+    bool finite = true;
+    // The counts of the distances by bucket, for E50 and E90, gathered here rather than in
+    // another pass over them.
+    thread_local QuantileBuckets buckets;
+    buckets.clear();
+    auto measure = [&](std::size_t k, double fitted) {
+        out.fitted[k] = fitted;
+        const double d = std::abs(fitted - full.x[k]);
+        distance[k] = d;
+        finite = finite && std::isfinite(d);
+        sum += d * full.count[k];
+        out.emax = std::max(out.emax, full.count[k] > 0.0 ? d : 0.0);
+        buckets.add(d, full.count[k]);
+    };
     if (!out.binned) {
-        out.fitted.assign(curve.begin(), curve.end());
+        for (std::size_t k = 0; k < full.x.size(); ++k)
+            measure(k, curve[k]);
     } else {
-        out.fitted.resize(full.x.size());
         std::size_t j = 0;
         for (std::size_t k = 0; k < full.x.size(); ++k) {
             const double x = full.x[k];
             while (j + 1 < s.x.size() && s.x[j + 1] <= x)
                 ++j;
             if (x > s.x[j] && j + 1 < s.x.size())
-                out.fitted[k] = curve[j] + (x - s.x[j]) / (s.x[j + 1] - s.x[j]) * (curve[j + 1] - curve[j]);
+                measure(k, curve[j] + (x - s.x[j]) / (s.x[j + 1] - s.x[j]) * (curve[j + 1] - curve[j]));
             else
-                out.fitted[k] = curve[j]; // at a bin position, or beyond the first or last: hold the end
+                measure(k, curve[j]); // at a bin position, or beyond the first or last: hold the end
         }
-    }
-    thread_local std::vector<double> distance;
-    distance.resize(full.x.size());
-    double sum = 0.0;
-    bool finite = true;
-    // Branch-free (which points hold patients is random): a point without patients adds an
-    // exact zero to the sum and a zero to the maximum.
-    for (std::size_t k = 0; k < full.x.size(); ++k) {
-        const double d = std::abs(out.fitted[k] - full.x[k]);
-        distance[k] = d;
-        finite = finite && std::isfinite(d);
-        sum += d * full.count[k];
-        out.emax = std::max(out.emax, full.count[k] > 0.0 ? d : 0.0);
     }
     out.ici = sum / n;
     if (!finite)
         return false; // a local fit overflowed: no curve rather than a meaningless one
     const double probabilities[] = {0.5, 0.9};
     double quantiles[2];
-    weightedQuantilesType7(distance, full.count, n, probabilities, quantiles, out.emax);
+    buckets.finish();
+    weightedQuantilesType7(distance, full.count, n, probabilities, quantiles, &buckets);
     out.e50 = quantiles[0];
     out.e90 = quantiles[1];
     return true;

@@ -48,10 +48,7 @@ double binomialLogLikelihood(const BinomialPoints& d, double a, double b)
 // every sum is zero.
 void expitInto(const BinomialPoints& d, double a, double b, std::vector<double>& out)
 {
-    out.resize(d.lp.size());
-    const Eigen::Map<const Eigen::ArrayXd> lp(d.lp.data(), Eigen::Index(d.lp.size()));
-    Eigen::Map<Eigen::ArrayXd> pi(out.data(), Eigen::Index(out.size()));
-    pi = (1.0 + (-(a + b * lp)).exp()).inverse();
+    predictedRisksInto(d.lp, a, b, out);
 }
 
 // A buffer per thread for the predicted risks, kept between replicates.
@@ -77,6 +74,14 @@ struct RowPoints {
 };
 
 } // namespace
+
+void predictedRisksInto(std::span<const double> lp, double a, double b, std::vector<double>& out)
+{
+    out.resize(lp.size());
+    const Eigen::Map<const Eigen::ArrayXd> x(lp.data(), Eigen::Index(lp.size()));
+    Eigen::Map<Eigen::ArrayXd> pi(out.data(), Eigen::Index(out.size()));
+    pi = (1.0 + (-(a + b * x)).exp()).inverse();
+}
 
 std::vector<double> clampedLogits(std::span<const double> risk, std::size_t* clampedCount)
 {
@@ -138,7 +143,7 @@ std::optional<InterceptFit> fitCalibrationIntercept(const BinomialPoints& d, dou
     return std::nullopt;
 }
 
-std::optional<double> calibrationInterceptEstimate(const BinomialPoints& d, double start)
+std::optional<double> calibrationInterceptEstimate(const BinomialPoints& d, double start, const InterceptSums* atStart)
 {
     // Chebyshev's method: the Newton step s = S/I corrected by its second-order term,
     // δ = s − ½(J/I)s² with J = Σ n·p(1−p)(1−2p), so each pass leaves an error of order s³
@@ -148,14 +153,15 @@ std::optional<double> calibrationInterceptEstimate(const BinomialPoints& d, doub
     double alpha = start;
     std::vector<double>& pi = riskBuffer();
     for (int iteration = 0; iteration < maxIterations; ++iteration) {
-        expitInto(d, alpha, 1.0, pi);
-        double score = 0.0, information = 0.0, skew = 0.0;
-        for (std::size_t k = 0; k < pi.size(); ++k) {
-            const double v = d.trials[k] * pi[k] * (1.0 - pi[k]);
-            score += d.events[k] - d.trials[k] * pi[k];
-            information += v;
-            skew += v * (1.0 - 2.0 * pi[k]);
+        InterceptSums sums;
+        if (iteration == 0 && atStart) {
+            sums = *atStart;
+        } else {
+            expitInto(d, alpha, 1.0, pi);
+            for (std::size_t k = 0; k < pi.size(); ++k)
+                sums.add(d.events[k], d.trials[k], pi[k]);
         }
+        const auto [score, information, skew] = sums;
         if (!(information > 0.0))
             return std::nullopt;
         const double newton = score / information;
@@ -224,7 +230,8 @@ std::optional<SlopeFit> fitCalibrationSlope(const BinomialPoints& d, double star
     return std::nullopt;
 }
 
-std::optional<SlopeEstimate> calibrationSlopeEstimate(const BinomialPoints& d, double startIntercept, double startSlope)
+std::optional<SlopeEstimate> calibrationSlopeEstimate(const BinomialPoints& d, double startIntercept, double startSlope,
+                                                      const SlopeSums* atStart)
 {
     // Chebyshev's method in two parameters (as calibrationInterceptEstimate): the Newton step
     // s = H⁻¹g corrected by −½H⁻¹T[s,s], T the third derivative of the log-likelihood, whose
@@ -235,23 +242,15 @@ std::optional<SlopeEstimate> calibrationSlopeEstimate(const BinomialPoints& d, d
         largestLp = std::max(largestLp, std::abs(x));
     std::vector<double>& pi = riskBuffer();
     for (int iteration = 0; iteration < maxIterations; ++iteration) {
-        expitInto(d, a, b, pi);
-        double g0 = 0.0, g1 = 0.0, h00 = 0.0, h01 = 0.0, h11 = 0.0, t0 = 0.0, t1 = 0.0, t2 = 0.0, t3 = 0.0;
-        for (std::size_t k = 0; k < pi.size(); ++k) {
-            const double x = d.lp[k];
-            const double v = d.trials[k] * pi[k] * (1.0 - pi[k]);
-            const double r = d.events[k] - d.trials[k] * pi[k];
-            const double w = v * (1.0 - 2.0 * pi[k]);
-            h00 += v;
-            h01 += v * x;
-            h11 += v * x * x;
-            g0 += r;
-            g1 += r * x;
-            t0 += w;
-            t1 += w * x;
-            t2 += w * x * x;
-            t3 += w * x * x * x;
+        SlopeSums sums;
+        if (iteration == 0 && atStart) {
+            sums = *atStart;
+        } else {
+            expitInto(d, a, b, pi);
+            for (std::size_t k = 0; k < pi.size(); ++k)
+                sums.add(d.lp[k], d.events[k], d.trials[k], pi[k]);
         }
+        const auto [g0, g1, h00, h01, h11, t0, t1, t2, t3] = sums;
         const double det = h00 * h11 - h01 * h01;
         if (!(det > 1e-12 * std::max(1.0, h00 * h11)))
             return std::nullopt;

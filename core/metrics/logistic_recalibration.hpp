@@ -43,7 +43,22 @@ struct InterceptFit {
 std::optional<InterceptFit> fitCalibrationIntercept(const BinomialPoints& points, double start = 0.0);
 // The same estimate for a bootstrap replicate, which reads nothing else: no standard error, no
 // log-likelihood, and the predicted risks of each Newton pass computed in vector form.
-std::optional<double> calibrationInterceptEstimate(const BinomialPoints& points, double start);
+// The sums of a Newton pass of the intercept fit at the predicted risk p of each point; `add`
+// is the one place they are formed, so a caller that gathers them at the start (the bootstrap,
+// from risks fixed over its replicates) forms the same numbers as the fit's own pass.
+struct InterceptSums {
+    double score = 0.0, information = 0.0, skew = 0.0;
+    void add(double events, double trials, double p)
+    {
+        const double v = trials * p * (1.0 - p);
+        score += events - trials * p;
+        information += v;
+        skew += v * (1.0 - 2.0 * p);
+    }
+};
+// `atStart`, when given, holds the sums at `start` over these points: the first pass is skipped.
+std::optional<double> calibrationInterceptEstimate(const BinomialPoints& points, double start,
+                                                   const InterceptSums* atStart = nullptr);
 std::optional<InterceptFit> fitCalibrationIntercept(std::span<const std::uint8_t> outcome, std::span<const double> lp,
                                                     std::span<const double> weights = {});
 
@@ -65,7 +80,32 @@ struct SlopeEstimate {
     double intercept;
     double slope;
 };
-std::optional<SlopeEstimate> calibrationSlopeEstimate(const BinomialPoints& points, double startIntercept, double startSlope);
+// The sums of a Newton pass of the recalibration fit (score, information and the third-derivative
+// moments of its second-order correction) at a point with linear predictor x and predicted risk p.
+struct SlopeSums {
+    double g0 = 0.0, g1 = 0.0, h00 = 0.0, h01 = 0.0, h11 = 0.0, t0 = 0.0, t1 = 0.0, t2 = 0.0, t3 = 0.0;
+    void add(double x, double events, double trials, double p)
+    {
+        const double v = trials * p * (1.0 - p);
+        const double r = events - trials * p;
+        const double w = v * (1.0 - 2.0 * p);
+        h00 += v;
+        h01 += v * x;
+        h11 += v * x * x;
+        g0 += r;
+        g1 += r * x;
+        t0 += w;
+        t1 += w * x;
+        t2 += w * x * x;
+        t3 += w * x * x * x;
+    }
+};
+// `atStart`, when given, holds the sums at the start over these points: the first pass is skipped.
+std::optional<SlopeEstimate> calibrationSlopeEstimate(const BinomialPoints& points, double startIntercept, double startSlope,
+                                                      const SlopeSums* atStart = nullptr);
+// The predicted risks expit(a + b·lp) the fits' passes use, in the same vector form (so risks
+// computed once ahead give the very numbers a pass would).
+void predictedRisksInto(std::span<const double> lp, double a, double b, std::vector<double>& out);
 std::optional<SlopeFit> fitCalibrationSlope(std::span<const std::uint8_t> outcome, std::span<const double> lp,
                                             std::span<const double> weights = {}, double startIntercept = 0.0,
                                             double startSlope = 1.0);

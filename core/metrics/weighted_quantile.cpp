@@ -1,6 +1,8 @@
 #include "metrics/weighted_quantile.hpp"
 
 #include <algorithm>
+#include <bit>
+#include <cstdint>
 #include <cmath>
 
 namespace plumbline {
@@ -41,36 +43,46 @@ double weightedQuantileType7(std::vector<std::pair<double, double>>& values, dou
     return low + (position - below) * (high - low);
 }
 
-void weightedQuantilesType7(std::span<const double> values, std::span<const double> counts, double total,
-                            std::span<const double> probabilities, std::span<double> out, double largest)
+std::size_t QuantileBuckets::of(double value)
 {
-    constexpr std::size_t buckets = 4096;
-    // Values without a count are read as 0, by multiplying rather than choosing: which entries
-    // are empty is random, and a branch on it mispredicts a third of the time.
-    auto valueAt = [&](std::size_t k) { return values[k] * double(counts[k] > 0.0); };
-    if (!(largest >= 0.0))
+    // For non-negative doubles the bit pattern, read as an integer, grows with the value.
+    constexpr int shift = 52 - binadeBits;
+    constexpr std::uint64_t first = std::bit_cast<std::uint64_t>(0x1p-30) >> shift;
+    static_assert(lowestExponent == -30);
+    if (!(value >= 0.0))
+        return 0; // negative (NaN is not expected; it goes first rather than anywhere undefined)
+    const std::uint64_t top = std::bit_cast<std::uint64_t>(value) >> shift;
+    return top < first ? 0 : std::min<std::size_t>(size - 1, std::size_t(top - first));
+}
+
+void QuantileBuckets::clear()
+{
+    std::fill(m_weight.begin(), m_weight.end(), 0.0);
+    m_run = 0;
+    m_inRun = 0.0;
+}
+
+void QuantileBuckets::finish()
+{
+    m_weight[m_run] += m_inRun;
+    m_inRun = 0.0;
+}
+
+void weightedQuantilesType7(std::span<const double> values, std::span<const double> counts, double total,
+                            std::span<const double> probabilities, std::span<double> out,
+                            const QuantileBuckets* gathered)
+{
+    constexpr std::size_t buckets = QuantileBuckets::size;
+    auto bucketOf = [](double v) { return QuantileBuckets::of(v); };
+    thread_local QuantileBuckets own;
+    if (!gathered) {
+        own.clear();
         for (std::size_t k = 0; k < values.size(); ++k)
-            largest = std::max(largest, valueAt(k));
-    // Rounding is monotone, so the bucket never decreases as the value grows: the buckets are
-    // ordered intervals and a rank's bucket is found from the cumulative counts.
-    const double scale = largest > 0.0 ? double(buckets) / largest : 0.0;
-    auto bucketOf = [scale](double v) { return std::min(buckets - 1, static_cast<std::size_t>(v * scale)); };
-    thread_local std::vector<double> weight;
-    weight.assign(buckets, 0.0);
-    // Neighbouring values usually share a bucket: their counts are summed in a register and
-    // stored once per run, not read back from memory after every store. Whole numbers: exact.
-    std::size_t run = 0;
-    double inRun = 0.0;
-    for (std::size_t k = 0; k < values.size(); ++k) {
-        const std::size_t b = bucketOf(valueAt(k));
-        if (b != run) {
-            weight[run] += inRun;
-            run = b;
-            inRun = 0.0;
-        }
-        inRun += counts[k];
+            own.add(values[k], counts[k]);
+        own.finish();
+        gathered = &own;
     }
-    weight[run] += inRun;
+    const QuantileBuckets& weight = *gathered;
     // The ranks wanted (0-based, in the expanded multiset): two per probability.
     std::vector<double> ranks;
     for (const double p : probabilities) {
@@ -86,8 +98,8 @@ void weightedQuantilesType7(std::span<const double> values, std::span<const doub
     for (const double rank : ranks) {
         double before = 0.0;
         std::size_t b = 0;
-        while (b + 1 < buckets && before + weight[b] <= rank)
-            before += weight[b++];
+        while (b + 1 < buckets && before + weight.weight(b) <= rank)
+            before += weight.weight(b++);
         wanted.push_back({b, before});
     }
     // The entries of the wanted buckets (at most two per probability), gathered in one pass and
@@ -101,7 +113,7 @@ void weightedQuantilesType7(std::span<const double> values, std::span<const doub
             held.emplace_back();
         }
     for (std::size_t k = 0; k < values.size(); ++k)
-        if (const int slot = slotOf[bucketOf(valueAt(k))]; slot >= 0 && counts[k] > 0.0)
+        if (const int slot = slotOf[bucketOf(values[k])]; slot >= 0 && counts[k] > 0.0)
             held[std::size_t(slot)].emplace_back(values[k], counts[k]);
     for (auto& entries : held)
         std::sort(entries.begin(), entries.end());

@@ -5,7 +5,10 @@
 #include <algorithm>
 #include <cmath>
 #include <limits>
+#include <functional>
 #include <numeric>
+#include <tuple>
+#include <utility>
 
 namespace plumbline {
 
@@ -37,6 +40,35 @@ void addRiskTerms(ModelSupport& s)
     }
 }
 
+void addStartRisks(ModelSupport& s, const FitStart& start)
+{
+    StartRisks risks{start, {}, {}};
+    predictedRisksInto(s.lp, start.calibrationIntercept, 1.0, risks.intercept);
+    predictedRisksInto(s.lp, start.recalibrationIntercept, start.slope, risks.slope);
+    s.startRisks = std::move(risks);
+}
+
+namespace {
+constexpr std::uint32_t eventBit = 1u << 31, firstOfPointBit = 1u << 30, rowBits = firstOfPointBit - 1;
+} // namespace
+
+void packRowsInOrder(ModelSupport& s, std::span<const std::uint8_t> outcome)
+{
+    s.packedRows.clear();
+    s.packedOutcome = nullptr;
+    if (outcome.size() > rowBits || s.rowsInOrder.size() != outcome.size())
+        return;
+    s.packedRows.resize(outcome.size());
+    std::uint32_t previous = std::numeric_limits<std::uint32_t>::max();
+    for (std::size_t j = 0; j < s.rowsInOrder.size(); ++j) {
+        const std::uint32_t i = s.rowsInOrder[j];
+        const std::uint32_t k = s.rowSupport[i];
+        s.packedRows[j] = i | (outcome[i] ? eventBit : 0u) | (k != previous ? firstOfPointBit : 0u);
+        previous = k;
+    }
+    s.packedOutcome = outcome.data();
+}
+
 void countRows(const ModelSupport& support, std::span<const std::uint8_t> outcome,
                std::span<const std::uint16_t> rowCounts, SupportCounts& counts)
 {
@@ -48,6 +80,28 @@ void countRows(const ModelSupport& support, std::span<const std::uint8_t> outcom
     // points) is counted in file order instead: the row arrays are then read in sequence and the
     // additions land in the cache.
     constexpr std::size_t cachedPoints = 1 << 15;
+    if (support.packedOutcome == outcome.data() && support.packedRows.size() == outcome.size()
+        && support.x.size() > cachedPoints) {
+        // The same walk, with the outcome and the point changes read from the packed rows.
+        counts.events.resize(support.x.size());
+        counts.nonEvents.resize(support.x.size());
+        double* events = counts.events.data();
+        double* nonEvents = counts.nonEvents.data();
+        std::size_t k = std::numeric_limits<std::size_t>::max(); // the first row moves it to point 0
+        for (const std::uint32_t packed : support.packedRows) {
+            const double c = rowCounts[packed & rowBits];
+            const double y = packed >> 31;
+            if (packed & firstOfPointBit) {
+                ++k;
+                events[k] = c * y;
+                nonEvents[k] = c - c * y;
+            } else {
+                events[k] += c * y;
+                nonEvents[k] += c - c * y;
+            }
+        }
+        return;
+    }
     if (support.rowsInOrder.size() == outcome.size() && support.x.size() > cachedPoints) {
         counts.events.resize(support.x.size());
         counts.nonEvents.resize(support.x.size());
@@ -104,81 +158,118 @@ Totals totals(const SupportCounts& c)
             std::accumulate(c.nonEvents.begin(), c.nonEvents.end(), 0.0)};
 }
 
-// Mann–Whitney C with half credit for ties (docs/methods.md §15 sweep), and average precision.
-void discrimination(const ModelSupport& s, const SupportCounts& c, const Totals& t, PanelValues& out)
-{
-    double belowNonEvents = 0.0, numerator = 0.0;
-    for (std::size_t k = 0; k < s.x.size(); ++k) {
-        numerator += c.events[k] * (belowNonEvents + 0.5 * c.nonEvents[k]);
-        belowNonEvents += c.nonEvents[k];
-    }
-    out[CStatistic] = numerator / (t.events * t.nonEvents);
-    double tp = 0.0, fp = 0.0, ap = 0.0;
-    for (std::size_t k = s.x.size(); k > 0; --k) {
-        tp += c.events[k - 1];
-        fp += c.nonEvents[k - 1];
-        if (c.events[k - 1] > 0.0)
-            ap += c.events[k - 1] / t.events * tp / (tp + fp);
-    }
-    out[Auprc] = ap;
-}
-
-void accuracy(const ModelSupport& s, const SupportCounts& c, const Totals& t, PanelValues& out)
-{
+// Every sum of the panel taken over the points in ascending order, gathered in one sweep (a
+// replicate on a million distinct risks is bound by reading its counts, so each is read once):
+// the class totals, the Mann–Whitney numerator, the accuracy sums, and for the calibration fits
+// the points holding a patient (compacted) with, when the support carries the fits' risks at
+// this start, the sums of the fits' first Newton pass.
+struct AscendingSweep {
+    Totals totals;
+    double cNumerator = 0.0;
     double squared = 0.0, logLikelihood = 0.0, eventRisk = 0.0, nonEventRisk = 0.0;
     bool contradicted = false;
-    const bool precomputed = s.logRisk.size() == s.x.size() && s.logComplement.size() == s.x.size();
-    for (std::size_t k = 0; k < s.x.size(); ++k) {
-        const double p = s.x[k], e = c.events[k], f = c.nonEvents[k];
-        squared += e * (1.0 - p) * (1.0 - p) + f * p * p;
-        eventRisk += e * p;
-        nonEventRisk += f * p;
-        if ((e > 0.0 && p <= 0.0) || (f > 0.0 && p >= 1.0))
-            contradicted = true;
-        else
-            logLikelihood += (e > 0.0 ? e * (precomputed ? s.logRisk[k] : std::log(p)) : 0.0)
-                + (f > 0.0 ? f * (precomputed ? s.logComplement[k] : std::log1p(-p)) : 0.0);
+    std::size_t used = 0;
+    bool startSums = false;
+    InterceptSums intercept;
+    SlopeSums slope;
+};
+
+// Buffers kept per thread: a replicate on a million distinct risks would otherwise allocate and
+// fault in fresh megabytes every time.
+struct FitPoints {
+    std::vector<double> lp, events, trials;
+};
+
+bool sameStart(const FitStart& a, const FitStart& b)
+{
+    return a.calibrationIntercept == b.calibrationIntercept && a.recalibrationIntercept == b.recalibrationIntercept
+        && a.slope == b.slope;
+}
+
+AscendingSweep sweepAscending(const ModelSupport& s, const SupportCounts& c, const FitStart& start, FitPoints& fit)
+{
+    AscendingSweep out;
+    const std::size_t d = s.x.size();
+    double belowNonEvents = 0.0;
+    if (!s.risks) {
+        for (std::size_t k = 0; k < d; ++k) {
+            out.totals.events += c.events[k];
+            out.totals.nonEvents += c.nonEvents[k];
+            out.cNumerator += c.events[k] * (belowNonEvents + 0.5 * c.nonEvents[k]);
+            belowNonEvents += c.nonEvents[k];
+        }
+        return out;
     }
+    const bool precomputed = s.logRisk.size() == d && s.logComplement.size() == d;
+    out.startSums = s.startRisks && sameStart(s.startRisks->start, start);
+    const double* interceptRisk = out.startSums ? s.startRisks->intercept.data() : nullptr;
+    const double* slopeRisk = out.startSums ? s.startRisks->slope.data() : nullptr;
+    fit.lp.resize(d);
+    fit.events.resize(d);
+    fit.trials.resize(d);
+    std::size_t used = 0;
+    for (std::size_t k = 0; k < d; ++k) {
+        const double p = s.x[k], e = c.events[k], f = c.nonEvents[k];
+        out.totals.events += e;
+        out.totals.nonEvents += f;
+        out.cNumerator += e * (belowNonEvents + 0.5 * f);
+        belowNonEvents += f;
+        // Accuracy.
+        out.squared += e * (1.0 - p) * (1.0 - p) + f * p * p;
+        out.eventRisk += e * p;
+        out.nonEventRisk += f * p;
+        if ((e > 0.0 && p <= 0.0) || (f > 0.0 && p >= 1.0))
+            out.contradicted = true;
+        else
+            out.logLikelihood += (e > 0.0 ? e * (precomputed ? s.logRisk[k] : std::log(p)) : 0.0)
+                + (f > 0.0 ? f * (precomputed ? s.logComplement[k] : std::log1p(-p)) : 0.0);
+        // Calibration fits: patients whose outcome contradicts a risk of 0 or 1 are left out, as
+        // in the full sample. Only points holding a patient are kept (about a third of a
+        // replicate's points hold none; such a point adds exactly zero to every sum), written
+        // at `used` always and kept when the point has trials: branch-free.
+        const double agreeingEvents = contradictsOutcome(p, true) ? 0.0 : e;
+        const double agreeingNonEvents = contradictsOutcome(p, false) ? 0.0 : f;
+        const double trials = agreeingEvents + agreeingNonEvents;
+        fit.lp[used] = s.lp[k];
+        fit.events[used] = agreeingEvents;
+        fit.trials[used] = trials;
+        used += trials > 0.0;
+        if (interceptRisk) {
+            out.intercept.add(agreeingEvents, trials, interceptRisk[k]);
+            out.slope.add(s.lp[k], agreeingEvents, trials, slopeRisk[k]);
+        }
+    }
+    out.used = used;
+    return out;
+}
+
+void accuracy(const AscendingSweep& a, PanelValues& out)
+{
+    const Totals& t = a.totals;
     const double n = t.patients();
     const double rate = t.events / n;
-    out[DiscriminationSlope] = eventRisk / t.events - nonEventRisk / t.nonEvents;
-    out[OeRatio] = eventRisk + nonEventRisk > 0.0 ? std::optional<double>(t.events / (eventRisk + nonEventRisk)) : std::nullopt;
-    out[Brier] = squared / n;
-    out[ScaledBrier] = 1.0 - squared / n / (rate * (1.0 - rate));
-    if (contradicted)
+    out[DiscriminationSlope] = a.eventRisk / t.events - a.nonEventRisk / t.nonEvents;
+    out[OeRatio] = a.eventRisk + a.nonEventRisk > 0.0 ? std::optional<double>(t.events / (a.eventRisk + a.nonEventRisk)) : std::nullopt;
+    out[Brier] = a.squared / n;
+    out[ScaledBrier] = 1.0 - a.squared / n / (rate * (1.0 - rate));
+    if (a.contradicted)
         return;
-    out[LogLoss] = -logLikelihood / n;
+    out[LogLoss] = -a.logLikelihood / n;
     const double nullLogLikelihood = t.events * std::log(rate) + t.nonEvents * std::log(1.0 - rate);
-    out[NagelkerkeR2] = (1.0 - std::exp(2.0 * (nullLogLikelihood - logLikelihood) / n))
+    out[NagelkerkeR2] = (1.0 - std::exp(2.0 * (nullLogLikelihood - a.logLikelihood) / n))
         / (1.0 - std::exp(2.0 * nullLogLikelihood / n));
 }
 
-void calibrationFits(const ModelSupport& s, const SupportCounts& c, const FitStart& start, PanelValues& out)
+void calibrationFits(const AscendingSweep& a, const FitPoints& fit, const FitStart& start, PanelValues& out)
 {
-    // Patients whose outcome contradicts a risk of 0 or 1 are left out, as in the full sample.
-    // Buffers kept per thread: a replicate on a million distinct risks would otherwise allocate
-    // and fault in fresh megabytes every time.
-    // Only points holding a patient enter the fits (about a third of a replicate's points hold
-    // none); a point without trials adds exactly zero to every sum, so the fits are unchanged.
-    thread_local std::vector<double> lp, events, trials;
-    lp.resize(s.x.size());
-    events.resize(s.x.size());
-    trials.resize(s.x.size());
-    std::size_t used = 0;
-    for (std::size_t k = 0; k < s.x.size(); ++k) {
-        const double agreeingEvents = contradictsOutcome(s.x[k], true) ? 0.0 : c.events[k];
-        const double agreeingNonEvents = contradictsOutcome(s.x[k], false) ? 0.0 : c.nonEvents[k];
-        // Branch-free: written at `used` always, kept only when the point has trials.
-        lp[used] = s.lp[k];
-        events[used] = agreeingEvents;
-        trials[used] = agreeingEvents + agreeingNonEvents;
-        used += trials[used] > 0.0;
-    }
-    const BinomialPoints points{std::span(lp).first(used), std::span(events).first(used), std::span(trials).first(used)};
+    const BinomialPoints points{std::span(fit.lp).first(a.used), std::span(fit.events).first(a.used),
+                                std::span(fit.trials).first(a.used)};
     // Estimates only: a replicate reads no standard error or log-likelihood.
-    if (const auto intercept = calibrationInterceptEstimate(points, start.calibrationIntercept))
+    if (const auto intercept = calibrationInterceptEstimate(points, start.calibrationIntercept,
+                                                            a.startSums ? &a.intercept : nullptr))
         out[CalibrationIntercept] = *intercept;
-    if (const auto slope = calibrationSlopeEstimate(points, start.recalibrationIntercept, start.slope)) {
+    if (const auto slope = calibrationSlopeEstimate(points, start.recalibrationIntercept, start.slope,
+                                                    a.startSums ? &a.slope : nullptr)) {
         out[CalibrationSlope] = slope->slope;
         out[RecalibrationIntercept] = slope->intercept;
     }
@@ -220,44 +311,126 @@ PanelValues smoothedCalibrationValues(const ModelSupport& s, const SupportCounts
 }
 
 PanelValues weightedPanel(const ModelSupport& s, const SupportCounts& c, const FitStart& start,
-                          const LoessOptions* loess, CurveSample* curve)
+                          const LoessOptions* loess, CurveSample* curve, FromTheTop* fromTop)
 {
     PanelValues out{};
-    const Totals t = totals(c);
+    thread_local FitPoints fit;
+    const AscendingSweep sweep = sweepAscending(s, c, start, fit);
+    const Totals& t = sweep.totals;
+    thread_local FromTheTop apOnly;
+    double ap = 0.0;
+    sweepFromTheTop(s, c, t.events, t.nonEvents, fromTop ? *fromTop : apOnly, &ap);
     if (t.events <= 0.0 || t.nonEvents <= 0.0)
         return out;
-    discrimination(s, c, t, out);
+    out[CStatistic] = sweep.cNumerator / (t.events * t.nonEvents);
+    out[Auprc] = ap;
     if (!s.risks)
         return out;
-    accuracy(s, c, t, out);
-    calibrationFits(s, c, start, out);
+    accuracy(sweep, out);
+    calibrationFits(sweep, fit, start, out);
     if (loess)
         smoothedCurve(s, c, *loess, out, curve);
     return out;
 }
 
+namespace {
+
+// The smallest non-negative false-positive count fp with rate < fp / nonEvents, as the division
+// rounds: the walk below then compares counts and divides only at the few vertices where a
+// requested rate is passed (a division per point was most of its cost on a million points).
+// Division is monotone in fp, so the boundary is a few ulps from the product. NaN when it is not
+// found within a few steps (no non-events, a rate outside [0, 1], NaN): the walk then divides at
+// every vertex, as before.
+double firstCountBeyond(double rate, double nonEvents)
+{
+    constexpr int steps = 8;
+    auto beyond = [&](double fp) { return rate < fp / nonEvents; };
+    if (!(nonEvents > 0.0) || !(rate >= 0.0 && rate <= 1.0))
+        return NAN;
+    double fp = rate * nonEvents;
+    for (int i = 0; i < steps && !beyond(fp); ++i)
+        fp = std::nextafter(fp, INFINITY);
+    if (!beyond(fp))
+        return NAN;
+    for (int i = 0; i < steps && fp > 0.0 && beyond(std::nextafter(fp, 0.0)); ++i)
+        fp = std::nextafter(fp, 0.0);
+    return fp > 0.0 && beyond(std::nextafter(fp, 0.0)) ? NAN : fp;
+}
+
+} // namespace
+
+void sweepFromTheTop(const ModelSupport& s, const SupportCounts& c, double events, double nonEvents,
+                     FromTheTop& request, double* averagePrecision)
+{
+    // Sensitivity: walk the ROC polyline from the top threshold down. For each requested rate r
+    // (ascending), the last vertex with FPR <= r gives the sensitivity when its FPR equals r (the
+    // highest sensitivity at that rate), otherwise the segment to the next vertex is interpolated.
+    const auto rates = request.falsePositiveRates;
+    request.sensitivity.assign(rates.size(), 1.0);
+    thread_local std::vector<double> beyond;
+    beyond.resize(rates.size());
+    for (std::size_t j = 0; j < rates.size(); ++j)
+        beyond[j] = firstCountBeyond(rates[j], nonEvents);
+    // Net benefit: the counts at or above each threshold's first point, recorded as the sweep
+    // passes it (the running sums from the top, added in the order suffix sums would be).
+    thread_local std::vector<std::tuple<std::size_t, std::size_t, std::size_t>> firstAbove; // point, set, threshold
+    thread_local std::vector<std::pair<double, double>> above;                            // events, non-events
+    firstAbove.clear();
+    request.netBenefit.resize(request.thresholdSets.size());
+    std::size_t thresholdCount = 0;
+    for (std::size_t set = 0; set < request.thresholdSets.size(); ++set) {
+        const auto thresholds = request.thresholdSets[set];
+        request.netBenefit[set].resize(thresholds.size());
+        for (std::size_t j = 0; j < thresholds.size(); ++j) {
+            const auto k = std::lower_bound(s.x.begin(), s.x.end(), thresholds[j]) - s.x.begin();
+            firstAbove.emplace_back(static_cast<std::size_t>(k), set, thresholdCount++);
+        }
+    }
+    std::sort(firstAbove.begin(), firstAbove.end(), std::greater<>());
+    above.resize(thresholdCount);
+    auto nextThreshold = firstAbove.begin();
+    double tp = 0.0, fp = 0.0, lastTp = 0.0, lastFp = 0.0, ap = 0.0;
+    std::size_t next = 0;
+    for (std::size_t k = s.x.size(); k > 0; --k) {
+        for (; nextThreshold != firstAbove.end() && std::get<0>(*nextThreshold) == k; ++nextThreshold)
+            above[std::get<2>(*nextThreshold)] = {tp, fp};
+        const double e = c.events[k - 1];
+        tp += e;
+        fp += c.nonEvents[k - 1];
+        // Average precision (docs/methods.md §15).
+        if (e > 0.0)
+            ap += e / events * tp / (tp + fp);
+        if (next < rates.size() && !(fp < beyond[next])) { // rates[next] < fp / nonEvents, or not known without dividing
+            const double fpr = fp / nonEvents, tpr = tp / events;
+            const double lastFpr = lastFp / nonEvents, lastTpr = lastTp / events;
+            while (next < rates.size() && rates[next] < fpr) {
+                const double share = (rates[next] - lastFpr) / (fpr - lastFpr);
+                request.sensitivity[next++] = lastTpr + share * (tpr - lastTpr);
+            }
+        }
+        lastFp = fp;
+        lastTp = tp;
+    }
+    for (; nextThreshold != firstAbove.end(); ++nextThreshold)
+        above[std::get<2>(*nextThreshold)] = {tp, fp};
+    const double n = tp + fp;
+    for (std::size_t set = 0, index = 0; set < request.thresholdSets.size(); ++set)
+        for (std::size_t j = 0; j < request.thresholdSets[set].size(); ++j, ++index) {
+            const double t = request.thresholdSets[set][j];
+            request.netBenefit[set][j] = above[index].first / n - above[index].second / n * t / (1.0 - t);
+        }
+    if (averagePrecision)
+        *averagePrecision = ap;
+}
+
 std::vector<double> sensitivityAtFalsePositiveRates(const ModelSupport& s, const SupportCounts& c,
                                                     std::span<const double> rates)
 {
-    // Walk the ROC polyline from the top threshold down. For each requested rate r (ascending),
-    // the last vertex with FPR <= r gives the sensitivity when its FPR equals r (the highest
-    // sensitivity at that rate), otherwise the segment to the next vertex is interpolated.
     const Totals t = totals(c);
-    std::vector<double> out(rates.size(), 1.0);
-    double tp = 0.0, fp = 0.0, lastFpr = 0.0, lastTpr = 0.0;
-    std::size_t next = 0;
-    for (std::size_t k = s.x.size(); k > 0 && next < rates.size(); --k) {
-        tp += c.events[k - 1];
-        fp += c.nonEvents[k - 1];
-        const double fpr = fp / t.nonEvents, tpr = tp / t.events;
-        while (next < rates.size() && rates[next] < fpr) {
-            const double share = (rates[next] - lastFpr) / (fpr - lastFpr);
-            out[next++] = lastTpr + share * (tpr - lastTpr);
-        }
-        lastFpr = fpr;
-        lastTpr = tpr;
-    }
-    return out;
+    FromTheTop request;
+    request.falsePositiveRates = rates;
+    sweepFromTheTop(s, c, t.events, t.nonEvents, request);
+    return request.sensitivity;
 }
 
 } // namespace plumbline

@@ -8,6 +8,10 @@
 
 #include <catch2/catch.hpp>
 
+#include <algorithm>
+#include <bit>
+#include <cstdint>
+
 using namespace plumbline;
 using namespace plumbline::test;
 using Catch::Matchers::WithinAbs;
@@ -97,4 +101,45 @@ TEST_CASE("The paired bootstrap gives every difference an interval on the same r
     CHECK_THAT(delta->bootstrap->se, WithinAbs(*delta->analytic->se, 0.25 * *delta->analytic->se));
     REQUIRE(c.netBenefitDifferences.size() == 3);
     CHECK(c.netBenefitDifferences[0].bootstrap);
+}
+
+TEST_CASE("Net benefit from one sweep gives the same bits as a table of counts at or above each point", "[bootstrap][decision]")
+{
+    // The sweep adds the counts from the top in the order the table's suffix sums did; thresholds
+    // come in any order, equal to a risk, between risks, below the lowest and above the highest.
+    RandomStream random(77);
+    for (int trial = 0; trial < 100; ++trial) {
+        const std::size_t rows = 3 + random.below(300);
+        std::vector<double> p;
+        std::vector<std::uint8_t> y;
+        for (std::size_t i = 0; i < rows; ++i) {
+            p.push_back(double(1 + random.below(trial % 2 ? 20 : 5000)) / 5001.0);
+            y.push_back(static_cast<std::uint8_t>(random.below(4) == 0));
+        }
+        std::vector<std::uint16_t> counts(rows, 0);
+        for (std::size_t k = 0; k < rows; ++k)
+            ++counts[random.below(rows)];
+        const ModelSupport support = buildModelSupport(p, ascendingOrder(p), true);
+        SupportCounts c;
+        countRows(support, y, counts, c);
+        std::vector<double> thresholds{0.5, 0.01, 0.99, 1e-6, 0.3};
+        for (int j = 0; j < 5; ++j)
+            thresholds.push_back(support.x[random.below(support.x.size())]);
+        const auto swept = netBenefitAt(support, c, thresholds);
+        const std::size_t d = support.x.size();
+        std::vector<double> eventsAbove(d + 1, 0.0), nonEventsAbove(d + 1, 0.0);
+        for (std::size_t k = d; k > 0; --k) {
+            eventsAbove[k - 1] = eventsAbove[k] + c.events[k - 1];
+            nonEventsAbove[k - 1] = nonEventsAbove[k] + c.nonEvents[k - 1];
+        }
+        const double n = eventsAbove[0] + nonEventsAbove[0];
+        REQUIRE(swept.size() == thresholds.size());
+        for (std::size_t j = 0; j < thresholds.size(); ++j) {
+            const double t = thresholds[j];
+            const auto k = static_cast<std::size_t>(std::lower_bound(support.x.begin(), support.x.end(), t) - support.x.begin());
+            const double table = eventsAbove[k] / n - nonEventsAbove[k] / n * t / (1.0 - t);
+            INFO("trial " << trial << " threshold " << t);
+            REQUIRE(std::bit_cast<std::uint64_t>(swept[j]) == std::bit_cast<std::uint64_t>(table));
+        }
+    }
 }

@@ -44,12 +44,18 @@ TEST_CASE("Bucketed weighted quantiles equal the expanded definition and the par
 {
     RandomStream random(11, 3);
     const double probabilities[] = {0.0, 0.1, 0.5, 0.9, 0.975, 1.0};
-    for (int trial = 0; trial < 200; ++trial) {
-        const std::size_t n = 1 + random.below(trial < 100 ? 40 : 3000);
+    for (int trial = 0; trial < 240; ++trial) {
+        const std::size_t n = 1 + random.below(trial < 120 ? 40 : 3000);
         std::vector<double> values(n), counts(n);
-        const int shape = trial % 4; // spread, heavy ties, one huge outlier, many zero counts
+        // spread, heavy ties, one huge outlier, many zero counts, values across many powers of two
+        // (and below and above the buckets' range), negative values
+        const int shape = trial % 6;
         for (std::size_t k = 0; k < n; ++k) {
             values[k] = shape == 1 ? double(random.below(5)) * 0.25 : double(random.below(1'000'000)) * 1e-7;
+            if (shape == 4)
+                values[k] = std::ldexp(1.0 + double(random.below(1000)) / 1000.0, int(random.below(60)) - 40);
+            if (shape == 5)
+                values[k] -= 0.05;
             counts[k] = shape == 3 && random.below(3) == 0 ? 0.0 : double(1 + random.below(4));
         }
         if (shape == 2)
@@ -58,12 +64,13 @@ TEST_CASE("Bucketed weighted quantiles equal the expanded definition and the par
         double total = 0.0;
         for (double c : counts)
             total += c;
-        double out[6], given[6], largest = 0.0;
+        double out[6], given[6];
         weightedQuantilesType7(values, counts, total, probabilities, out);
+        QuantileBuckets gathered; // as the loess gathers them, while it makes the values
         for (std::size_t k = 0; k < n; ++k)
-            if (counts[k] > 0.0)
-                largest = std::max(largest, values[k]);
-        weightedQuantilesType7(values, counts, total, probabilities, given, largest); // as the loess passes it
+            gathered.add(values[k], counts[k]);
+        gathered.finish();
+        weightedQuantilesType7(values, counts, total, probabilities, given, &gathered);
         for (std::size_t q = 0; q < 6; ++q) {
             INFO("trial " << trial << " p " << probabilities[q]);
             CHECK(out[q] == expandedType7(values, counts, probabilities[q]));
@@ -75,4 +82,23 @@ TEST_CASE("Bucketed weighted quantiles equal the expanded definition and the par
             CHECK(out[q] == weightedQuantileType7(pairs, probabilities[q]));
         }
     }
+}
+
+TEST_CASE("Quantile buckets are ordered: a larger value never has a smaller bucket", "[quantile]")
+{
+    // The selection relies on it. Across the whole range, its ends and beyond.
+    double previousValue = -1.0;
+    std::size_t previous = QuantileBuckets::of(previousValue);
+    CHECK(previous == 0);
+    for (double v = 0.0; v < 1e6; v = v == 0.0 ? 1e-12 : v * 1.0007) {
+        const std::size_t b = QuantileBuckets::of(v);
+        INFO(previousValue << " then " << v);
+        REQUIRE(b >= previous);
+        REQUIRE(b < QuantileBuckets::size);
+        previous = b;
+        previousValue = v;
+    }
+    CHECK(QuantileBuckets::of(INFINITY) == QuantileBuckets::size - 1);
+    CHECK(QuantileBuckets::of(0.5) != QuantileBuckets::of(0.5 + 0.5 / 256.0)); // 256 buckets per power of two
+    CHECK(QuantileBuckets::of(0.5) == QuantileBuckets::of(0.5 + 0.4 / 256.0));
 }

@@ -5,6 +5,9 @@
 
 #include <catch2/catch.hpp>
 
+#include <bit>
+#include <cstdint>
+
 using namespace plumbline;
 using namespace plumbline::test;
 using Catch::Matchers::WithinAbs;
@@ -108,4 +111,150 @@ TEST_CASE("Sensitivity at fixed false-positive rates follows the ROC polyline", 
     const auto between = sensitivityAtFalsePositiveRates(support, c, mid);
     CHECK(between[0] >= sens[1]);
     CHECK(between[0] <= sens[2]);
+}
+
+namespace {
+
+// The walk as first written: FPR and TPR divided out at every vertex. The walk in the library
+// compares counts instead and must give the same bits.
+std::vector<double> sensitivityDividingEverywhere(const ModelSupport& s, const SupportCounts& c, std::span<const double> rates)
+{
+    double events = 0.0, nonEvents = 0.0;
+    for (std::size_t k = 0; k < s.x.size(); ++k) {
+        events += c.events[k];
+        nonEvents += c.nonEvents[k];
+    }
+    std::vector<double> out(rates.size(), 1.0);
+    double tp = 0.0, fp = 0.0, lastFpr = 0.0, lastTpr = 0.0;
+    std::size_t next = 0;
+    for (std::size_t k = s.x.size(); k > 0 && next < rates.size(); --k) {
+        tp += c.events[k - 1];
+        fp += c.nonEvents[k - 1];
+        const double fpr = fp / nonEvents, tpr = tp / events;
+        while (next < rates.size() && rates[next] < fpr) {
+            const double share = (rates[next] - lastFpr) / (fpr - lastFpr);
+            out[next++] = lastTpr + share * (tpr - lastTpr);
+        }
+        lastFpr = fpr;
+        lastTpr = tpr;
+    }
+    return out;
+}
+
+} // namespace
+
+TEST_CASE("The ROC walk that compares counts gives the same bits as dividing at every vertex", "[bootstrap][weighted]")
+{
+    RandomStream random(4242);
+    for (int trial = 0; trial < 200; ++trial) {
+        const std::size_t rows = 5 + random.below(400);
+        CheckData d;
+        for (std::size_t i = 0; i < rows; ++i) {
+            d.p.push_back(double(1 + random.below(trial % 2 ? 30 : 100000)) / 100001.0); // ties on odd trials
+            d.y.push_back(static_cast<std::uint8_t>(random.below(3) == 0));
+        }
+        std::vector<std::uint16_t> counts(rows, 0);
+        for (std::size_t k = 0; k < rows; ++k)
+            ++counts[random.below(rows)];
+        const ModelSupport support = buildModelSupport(d.p, ascendingOrder(d.p), true);
+        SupportCounts c;
+        countRows(support, d.y, counts, c);
+        double nonEvents = 0.0;
+        for (const double f : c.nonEvents)
+            nonEvents += f;
+        // The band's grid, every attainable rate k/N exactly (the boundaries the comparison must
+        // get right), and rates a hair either side of them.
+        std::vector<double> rates;
+        for (int j = 0; j <= 100; ++j)
+            rates.push_back(j / 100.0);
+        for (double k = 0.0; k <= nonEvents; ++k) {
+            rates.push_back(k / nonEvents);
+            rates.push_back(std::nextafter(k / nonEvents, 0.0));
+            rates.push_back(std::nextafter(k / nonEvents, 2.0));
+        }
+        std::sort(rates.begin(), rates.end());
+        const auto walked = sensitivityAtFalsePositiveRates(support, c, rates);
+        const auto divided = sensitivityDividingEverywhere(support, c, rates);
+        REQUIRE(walked.size() == divided.size());
+        for (std::size_t j = 0; j < rates.size(); ++j) {
+            INFO("trial " << trial << " rate " << rates[j]);
+            REQUIRE(std::bit_cast<std::uint64_t>(walked[j]) == std::bit_cast<std::uint64_t>(divided[j]));
+        }
+    }
+}
+
+TEST_CASE("Fits whose first pass reads the start risks give the fits that compute them", "[bootstrap][weighted]")
+{
+    // The support carries expit(α + lp) and expit(a + b·lp) at the full-sample fits; a replicate
+    // starting there skips its first Newton pass. Held to the full passes (to 1e-13: the same
+    // numbers but for the last bit of a vector exp at an array's ends); a start the risks were
+    // not computed for is not mistaken for theirs (bit for bit the plain fit).
+    RandomStream random(909);
+    for (const CheckData& d : {toy20A(), toy20B(), gen1000()}) {
+        const ModelSupport plain = buildModelSupport(d.p, ascendingOrder(d.p), true);
+        const PanelValues full = weightedPanel(plain, sampleCounts(plain, d.y), FitStart{}, nullptr);
+        const FitStart start{*full[CalibrationIntercept], *full[RecalibrationIntercept], *full[CalibrationSlope]};
+        ModelSupport prepared = plain;
+        addStartRisks(prepared, start);
+        const FitStart other{start.calibrationIntercept + 0.01, start.recalibrationIntercept, start.slope};
+        for (int trial = 0; trial < 20; ++trial) {
+            std::vector<std::uint16_t> counts(d.y.size(), 0);
+            for (std::size_t k = 0; k < d.y.size(); ++k)
+                ++counts[random.below(d.y.size())];
+            SupportCounts c;
+            countRows(plain, d.y, counts, c);
+            const PanelValues a = weightedPanel(plain, c, start, nullptr), b = weightedPanel(prepared, c, start, nullptr);
+            for (const PanelMetric k : {CalibrationIntercept, CalibrationSlope, RecalibrationIntercept}) {
+                INFO(panelKeys[k]);
+                REQUIRE(a[k].has_value() == b[k].has_value());
+                if (a[k])
+                    CHECK_THAT(*b[k], WithinAbs(*a[k], 1e-13));
+            }
+            const PanelValues e = weightedPanel(plain, c, other, nullptr), f = weightedPanel(prepared, c, other, nullptr);
+            for (std::size_t k = 0; k < PanelMetricCount; ++k)
+                CHECK(e[k] == f[k]);
+        }
+    }
+}
+
+TEST_CASE("Counting from packed rows gives the counts of the lookups, and only for the outcome it was packed with",
+          "[bootstrap][weighted]")
+{
+    // Over 32,768 points, where counting walks the rows in score order; ties make points of
+    // several rows.
+    RandomStream random(31);
+    const std::size_t rows = 60000;
+    std::vector<double> p(rows);
+    std::vector<std::uint8_t> y(rows), otherY(rows);
+    for (std::size_t i = 0; i < rows; ++i) {
+        p[i] = double(1 + random.below(50000)) / 50001.0;
+        y[i] = static_cast<std::uint8_t>(random.below(5) == 0);
+        otherY[i] = static_cast<std::uint8_t>(random.below(2) == 0);
+    }
+    const ModelSupport plain = buildModelSupport(p, ascendingOrder(p), true);
+    REQUIRE(plain.x.size() > 32768);
+    ModelSupport packed = plain;
+    packRowsInOrder(packed, y);
+    REQUIRE(packed.packedRows.size() == rows);
+    std::vector<std::uint16_t> counts(rows, 0);
+    for (std::size_t k = 0; k < rows; ++k)
+        ++counts[random.below(rows)];
+    auto same = [](const SupportCounts& a, const SupportCounts& b) {
+        return a.events == b.events && a.nonEvents == b.nonEvents;
+    };
+    SupportCounts looked, read;
+    countRows(plain, y, counts, looked);
+    countRows(packed, y, counts, read);
+    CHECK(same(looked, read));
+    // Another outcome vector, even with the same size: the packed outcomes are not used.
+    countRows(plain, otherY, counts, looked);
+    countRows(packed, otherY, counts, read);
+    CHECK(same(looked, read));
+    double events = 0.0;
+    for (const double e : read.events)
+        events += e;
+    double expected = 0.0;
+    for (std::size_t i = 0; i < rows; ++i)
+        expected += otherY[i] * counts[i];
+    CHECK(events == expected);
 }
