@@ -220,20 +220,27 @@ bool loessInto(const RiskPoints& full, const LoessOptions& options, LoessSummary
     thread_local std::vector<double> distance;
     distance.resize(full.x.size());
     out.fitted.resize(full.x.size());
-    double sum = 0.0;
+    // Locals and raw pointers in this loop, so that the compiler keeps the sums in registers
+    // (a double member of `out` could alias the stores to the arrays).
+    double sum = 0.0, emax = 0.0;
     bool finite = true;
     // The counts of the distances by bucket, for E50 and E90, gathered here rather than in
     // another pass over them.
     thread_local QuantileBuckets buckets;
     buckets.clear();
+    QuantileBuckets::Filler filler(buckets);
+    double* const fittedAt = out.fitted.data();
+    double* const distanceAt = distance.data();
+    const double* const xAt = full.x.data();
+    const double* const countAt = full.count.data();
     auto measure = [&](std::size_t k, double fitted) {
-        out.fitted[k] = fitted;
-        const double d = std::abs(fitted - full.x[k]);
-        distance[k] = d;
+        fittedAt[k] = fitted;
+        const double d = std::abs(fitted - xAt[k]);
+        distanceAt[k] = d;
         finite = finite && std::isfinite(d);
-        sum += d * full.count[k];
-        out.emax = std::max(out.emax, full.count[k] > 0.0 ? d : 0.0);
-        buckets.add(d, full.count[k]);
+        sum += d * countAt[k];
+        emax = std::max(emax, countAt[k] > 0.0 ? d : 0.0);
+        filler.add(d, countAt[k]);
     };
     if (!out.binned) {
         for (std::size_t k = 0; k < full.x.size(); ++k)
@@ -241,7 +248,7 @@ bool loessInto(const RiskPoints& full, const LoessOptions& options, LoessSummary
     } else {
         std::size_t j = 0;
         for (std::size_t k = 0; k < full.x.size(); ++k) {
-            const double x = full.x[k];
+            const double x = xAt[k];
             while (j + 1 < s.x.size() && s.x[j + 1] <= x)
                 ++j;
             if (x > s.x[j] && j + 1 < s.x.size())
@@ -250,12 +257,13 @@ bool loessInto(const RiskPoints& full, const LoessOptions& options, LoessSummary
                 measure(k, curve[j]); // at a bin position, or beyond the first or last: hold the end
         }
     }
+    filler.finish();
+    out.emax = emax;
     out.ici = sum / n;
     if (!finite)
         return false; // a local fit overflowed: no curve rather than a meaningless one
     const double probabilities[] = {0.5, 0.9};
     double quantiles[2];
-    buckets.finish();
     weightedQuantilesType7(distance, full.count, n, probabilities, quantiles, &buckets);
     out.e50 = quantiles[0];
     out.e90 = quantiles[1];

@@ -43,29 +43,9 @@ double weightedQuantileType7(std::vector<std::pair<double, double>>& values, dou
     return low + (position - below) * (high - low);
 }
 
-std::size_t QuantileBuckets::of(double value)
-{
-    // For non-negative doubles the bit pattern, read as an integer, grows with the value.
-    constexpr int shift = 52 - binadeBits;
-    constexpr std::uint64_t first = std::bit_cast<std::uint64_t>(0x1p-30) >> shift;
-    static_assert(lowestExponent == -30);
-    if (!(value >= 0.0))
-        return 0; // negative (NaN is not expected; it goes first rather than anywhere undefined)
-    const std::uint64_t top = std::bit_cast<std::uint64_t>(value) >> shift;
-    return top < first ? 0 : std::min<std::size_t>(size - 1, std::size_t(top - first));
-}
-
 void QuantileBuckets::clear()
 {
     std::fill(m_weight.begin(), m_weight.end(), 0.0);
-    m_run = 0;
-    m_inRun = 0.0;
-}
-
-void QuantileBuckets::finish()
-{
-    m_weight[m_run] += m_inRun;
-    m_inRun = 0.0;
 }
 
 void weightedQuantilesType7(std::span<const double> values, std::span<const double> counts, double total,
@@ -77,9 +57,10 @@ void weightedQuantilesType7(std::span<const double> values, std::span<const doub
     thread_local QuantileBuckets own;
     if (!gathered) {
         own.clear();
+        QuantileBuckets::Filler filler(own);
         for (std::size_t k = 0; k < values.size(); ++k)
-            own.add(values[k], counts[k]);
-        own.finish();
+            filler.add(values[k], counts[k]);
+        filler.finish();
         gathered = &own;
     }
     const QuantileBuckets& weight = *gathered;

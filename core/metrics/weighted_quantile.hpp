@@ -1,6 +1,9 @@
 #pragma once
 
+#include <algorithm>
+#include <bit>
 #include <cstddef>
+#include <cstdint>
 #include <span>
 #include <utility>
 #include <vector>
@@ -22,28 +25,51 @@ public:
     static constexpr int binadeBits = 8;
     static constexpr int lowestExponent = -30, highestExponent = 15;
     static constexpr std::size_t size = std::size_t(highestExponent - lowestExponent) << binadeBits;
-    static std::size_t of(double value);
+    static std::size_t of(double value)
+    {
+        // For non-negative doubles the bit pattern, read as an integer, grows with the value.
+        constexpr int shift = 52 - binadeBits;
+        constexpr std::uint64_t first = std::bit_cast<std::uint64_t>(0x1p-30) >> shift;
+        static_assert(lowestExponent == -30);
+        if (!(value >= 0.0))
+            return 0; // negative (NaN is not expected; it goes first rather than anywhere undefined)
+        const std::uint64_t top = std::bit_cast<std::uint64_t>(value) >> shift;
+        return top < first ? 0 : std::min<std::size_t>(size - 1, std::size_t(top - first));
+    }
 
     void clear();
-    // Neighbouring values usually share a bucket: their counts are summed in a register and
-    // stored once per run. Whole numbers: exact in any order. Call finish() after the last.
-    void add(double value, double count)
-    {
-        const std::size_t b = of(value);
-        if (b != m_run) {
+    // Adds counts run by run: neighbouring values usually share a bucket, so their counts are
+    // summed in a register and stored once per run. A local object, so that the compiler keeps
+    // the run in registers while the caller stores doubles elsewhere. Whole numbers: exact in any
+    // order. finish() after the last value.
+    class Filler {
+    public:
+        explicit Filler(QuantileBuckets& buckets) : m_weight(buckets.m_weight.data()) {}
+        void add(double value, double count)
+        {
+            const std::size_t b = of(value);
+            if (b != m_run) {
+                m_weight[m_run] += m_inRun;
+                m_run = b;
+                m_inRun = 0.0;
+            }
+            m_inRun += count;
+        }
+        void finish()
+        {
             m_weight[m_run] += m_inRun;
-            m_run = b;
             m_inRun = 0.0;
         }
-        m_inRun += count;
-    }
-    void finish();
+
+    private:
+        double* m_weight;
+        std::size_t m_run = 0;
+        double m_inRun = 0.0;
+    };
     double weight(std::size_t bucket) const { return m_weight[bucket]; }
 
 private:
     std::vector<double> m_weight = std::vector<double>(size, 0.0);
-    std::size_t m_run = 0;
-    double m_inRun = 0.0;
 };
 
 // The same quantiles, several at once, of values with whole-number counts (entries with a zero

@@ -188,40 +188,56 @@ bool sameStart(const FitStart& a, const FitStart& b)
 
 AscendingSweep sweepAscending(const ModelSupport& s, const SupportCounts& c, const FitStart& start, FitPoints& fit)
 {
-    AscendingSweep out;
+    // Every sum is a local until the end, and the arrays are raw pointers: the result lives in
+    // the caller's frame, and a double member there could alias the stores to the fit points,
+    // which would make the compiler store and reload every sum at every point.
     const std::size_t d = s.x.size();
-    double belowNonEvents = 0.0;
+    const double* const x = s.x.data();
+    const double* const events = c.events.data();
+    const double* const nonEvents = c.nonEvents.data();
+    double totalEvents = 0.0, totalNonEvents = 0.0, cNumerator = 0.0, belowNonEvents = 0.0;
+    AscendingSweep out;
     if (!s.risks) {
         for (std::size_t k = 0; k < d; ++k) {
-            out.totals.events += c.events[k];
-            out.totals.nonEvents += c.nonEvents[k];
-            out.cNumerator += c.events[k] * (belowNonEvents + 0.5 * c.nonEvents[k]);
-            belowNonEvents += c.nonEvents[k];
+            totalEvents += events[k];
+            totalNonEvents += nonEvents[k];
+            cNumerator += events[k] * (belowNonEvents + 0.5 * nonEvents[k]);
+            belowNonEvents += nonEvents[k];
         }
+        out.totals = {totalEvents, totalNonEvents};
+        out.cNumerator = cNumerator;
         return out;
     }
     const bool precomputed = s.logRisk.size() == d && s.logComplement.size() == d;
-    out.startSums = s.startRisks && sameStart(s.startRisks->start, start);
-    const double* interceptRisk = out.startSums ? s.startRisks->intercept.data() : nullptr;
-    const double* slopeRisk = out.startSums ? s.startRisks->slope.data() : nullptr;
+    const bool startSums = s.startRisks && sameStart(s.startRisks->start, start);
+    const double* const interceptRisk = startSums ? s.startRisks->intercept.data() : nullptr;
+    const double* const slopeRisk = startSums ? s.startRisks->slope.data() : nullptr;
+    const double* const lp = s.lp.data();
     fit.lp.resize(d);
     fit.events.resize(d);
     fit.trials.resize(d);
+    double* const fitLp = fit.lp.data();
+    double* const fitEvents = fit.events.data();
+    double* const fitTrials = fit.trials.data();
+    double squared = 0.0, logLikelihood = 0.0, eventRisk = 0.0, nonEventRisk = 0.0;
+    bool contradicted = false;
+    InterceptSums intercept;
+    SlopeSums slope;
     std::size_t used = 0;
     for (std::size_t k = 0; k < d; ++k) {
-        const double p = s.x[k], e = c.events[k], f = c.nonEvents[k];
-        out.totals.events += e;
-        out.totals.nonEvents += f;
-        out.cNumerator += e * (belowNonEvents + 0.5 * f);
+        const double p = x[k], e = events[k], f = nonEvents[k];
+        totalEvents += e;
+        totalNonEvents += f;
+        cNumerator += e * (belowNonEvents + 0.5 * f);
         belowNonEvents += f;
         // Accuracy.
-        out.squared += e * (1.0 - p) * (1.0 - p) + f * p * p;
-        out.eventRisk += e * p;
-        out.nonEventRisk += f * p;
+        squared += e * (1.0 - p) * (1.0 - p) + f * p * p;
+        eventRisk += e * p;
+        nonEventRisk += f * p;
         if ((e > 0.0 && p <= 0.0) || (f > 0.0 && p >= 1.0))
-            out.contradicted = true;
+            contradicted = true;
         else
-            out.logLikelihood += (e > 0.0 ? e * (precomputed ? s.logRisk[k] : std::log(p)) : 0.0)
+            logLikelihood += (e > 0.0 ? e * (precomputed ? s.logRisk[k] : std::log(p)) : 0.0)
                 + (f > 0.0 ? f * (precomputed ? s.logComplement[k] : std::log1p(-p)) : 0.0);
         // Calibration fits: patients whose outcome contradicts a risk of 0 or 1 are left out, as
         // in the full sample. Only points holding a patient are kept (about a third of a
@@ -230,16 +246,26 @@ AscendingSweep sweepAscending(const ModelSupport& s, const SupportCounts& c, con
         const double agreeingEvents = contradictsOutcome(p, true) ? 0.0 : e;
         const double agreeingNonEvents = contradictsOutcome(p, false) ? 0.0 : f;
         const double trials = agreeingEvents + agreeingNonEvents;
-        fit.lp[used] = s.lp[k];
-        fit.events[used] = agreeingEvents;
-        fit.trials[used] = trials;
+        fitLp[used] = lp[k];
+        fitEvents[used] = agreeingEvents;
+        fitTrials[used] = trials;
         used += trials > 0.0;
         if (interceptRisk) {
-            out.intercept.add(agreeingEvents, trials, interceptRisk[k]);
-            out.slope.add(s.lp[k], agreeingEvents, trials, slopeRisk[k]);
+            intercept.add(agreeingEvents, trials, interceptRisk[k]);
+            slope.add(lp[k], agreeingEvents, trials, slopeRisk[k]);
         }
     }
+    out.totals = {totalEvents, totalNonEvents};
+    out.cNumerator = cNumerator;
+    out.squared = squared;
+    out.logLikelihood = logLikelihood;
+    out.eventRisk = eventRisk;
+    out.nonEventRisk = nonEventRisk;
+    out.contradicted = contradicted;
     out.used = used;
+    out.startSums = startSums;
+    out.intercept = intercept;
+    out.slope = slope;
     return out;
 }
 

@@ -67,9 +67,10 @@ TEST_CASE("Bucketed weighted quantiles equal the expanded definition and the par
         double out[6], given[6];
         weightedQuantilesType7(values, counts, total, probabilities, out);
         QuantileBuckets gathered; // as the loess gathers them, while it makes the values
+        QuantileBuckets::Filler filler(gathered);
         for (std::size_t k = 0; k < n; ++k)
-            gathered.add(values[k], counts[k]);
-        gathered.finish();
+            filler.add(values[k], counts[k]);
+        filler.finish();
         weightedQuantilesType7(values, counts, total, probabilities, given, &gathered);
         for (std::size_t q = 0; q < 6; ++q) {
             INFO("trial " << trial << " p " << probabilities[q]);
