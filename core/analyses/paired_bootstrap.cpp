@@ -28,18 +28,19 @@ PairMoves pairMoves(std::span<const double> riskA, std::span<const double> riskB
 PairReplicate pairReplicate(const PairMoves& moves, std::span<const std::uint8_t> outcome,
                             std::span<const std::uint16_t> rowCounts)
 {
+    // Branch-free (which rows are events is random): every term is a whole number, so the sums
+    // are exact and equal to adding each row to its own class's sums only.
     double events = 0, nonEvents = 0, catEvents = 0, catNonEvents = 0, contEvents = 0, contNonEvents = 0;
     for (std::size_t i = 0; i < outcome.size(); ++i) {
         const double c = rowCounts[i];
-        if (outcome[i]) {
-            events += c;
-            catEvents += c * moves.categorical[i];
-            contEvents += c * moves.continuous[i];
-        } else {
-            nonEvents += c;
-            catNonEvents -= c * moves.categorical[i];
-            contNonEvents -= c * moves.continuous[i];
-        }
+        const double y = outcome[i] ? 1.0 : 0.0;
+        const double eventCount = c * y, nonEventCount = c - c * y;
+        events += eventCount;
+        nonEvents += nonEventCount;
+        catEvents += eventCount * moves.categorical[i];
+        contEvents += eventCount * moves.continuous[i];
+        catNonEvents -= nonEventCount * moves.categorical[i];
+        contNonEvents -= nonEventCount * moves.continuous[i];
     }
     return {catEvents / events, catNonEvents / nonEvents, contEvents / events, contNonEvents / nonEvents};
 }
