@@ -126,10 +126,20 @@ void accuracy(const ModelSupport& s, const SupportCounts& c, const Sums& t, cons
     const double n = t.events + t.nonEvents;
     ClassValues brier(s.x.size()), scaled(s.x.size()), logLoss(s.x.size()), nagelkerke(s.x.size()), oe(s.x.size()),
         slope(s.x.size());
-    auto nagelkerkeOf = [](double ll, double events, double nonEvents) {
+    // The null log-likelihood and the R² denominator depend only on which class the left-out
+    // patient is in: computed once per class (the same expressions), not per patient.
+    struct NullModel {
+        double total, ll0, denominator;
+    };
+    auto nullModel = [](double events, double nonEvents) {
         const double total = events + nonEvents;
         const double ll0 = events * std::log(events / total) + nonEvents * std::log(nonEvents / total);
-        return (1.0 - std::exp(2.0 * (ll0 - ll) / total)) / (1.0 - std::exp(2.0 * ll0 / total));
+        return NullModel{total, ll0, 1.0 - std::exp(2.0 * ll0 / total)};
+    };
+    const NullModel withoutOne[2] = {nullModel(t.events, t.nonEvents - 1), nullModel(t.events - 1, t.nonEvents)};
+    auto nagelkerkeOf = [&withoutOne](double ll, int y) {
+        const NullModel& m = withoutOne[y];
+        return (1.0 - std::exp(2.0 * (m.ll0 - ll) / m.total)) / m.denominator;
     };
     for (std::size_t k = 0; k < s.x.size(); ++k) {
         const double p = s.x[k];
@@ -149,7 +159,7 @@ void accuracy(const ModelSupport& s, const SupportCounts& c, const Sums& t, cons
             if (full[LogLoss]) {
                 const double ll = t.logLikelihood - (y ? logRisk(s, k) : logComplement(s, k));
                 logLoss.add(-ll / (n - 1), count);
-                nagelkerke.add(nagelkerkeOf(ll, events, nonEvents), count);
+                nagelkerke.add(nagelkerkeOf(ll, y), count);
             }
         }
     }
