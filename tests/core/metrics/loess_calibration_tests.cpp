@@ -229,6 +229,8 @@ double plainLocalFit(const RiskSupport& s, double x0, double q)
 
 TEST_CASE("The searched neighbourhood gives the same fits as growing it point by point", "[loess]")
 {
+    // Also holds the fits made four at a time in vector lanes (every fit here goes through them
+    // but the last few of each support) to the plain one-at-a-time sums, bit for bit.
     RandomStream random(5, 9);
     for (int trial = 0; trial < 300; ++trial) {
         // Risks on a coarse grid (so distances to the left and right tie exactly) or spread, some
