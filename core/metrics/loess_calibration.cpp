@@ -117,20 +117,16 @@ std::optional<double> solveLocalQuadratic(double s0, double s1, double s2, doubl
 }
 
 // Local quadratic fit at x0 with tricube weights over the neighbourhood holding q patients.
-std::optional<double> fitAt(const RiskPoints& s, std::span<const double> cumulative, double x0, double q)
-{
-    const auto [left, right, h] = neighbourhood(s, cumulative, x0, q);
-    if (!(h > 0.0))
-        return std::nullopt; // more than q patients share x0: the local quadratic is singular
-    double s0 = 0, s1 = 0, s2 = 0, s3 = 0, s4 = 0, t0 = 0, t1 = 0, t2 = 0;
-    for (std::size_t i = left; i < right; ++i) {
-        const double d = s.x[i] - x0;
-        const double u = std::abs(d) / h;
-        if (u >= 1.0)
-            continue;
-        const double tri = 1.0 - u * u * u;
-        const double w = tri * tri * tri;
-        const double wc = w * s.count[i], wy = w * s.events[i];
+// The weighted sums of a local quadratic fit, for one fit (T = double) or for one per vector
+// lane: the same operations in the same order either way.
+template <class T>
+struct KernelSums {
+    T s0{}, s1{}, s2{}, s3{}, s4{}, t0{}, t1{}, t2{};
+    // A point at distance d from x0 with tricube weight w. By reference and always inlined: the
+    // four-lane caller is built for AVX2, this template is not.
+    [[gnu::always_inline]] void add(const T& d, const T& w, double count, double events)
+    {
+        const T wc = w * count, wy = w * events;
         s0 += wc;
         s1 += wc * d;
         s2 += wc * d * d;
@@ -140,9 +136,24 @@ std::optional<double> fitAt(const RiskPoints& s, std::span<const double> cumulat
         t1 += wy * d;
         t2 += wy * d * d;
     }
-    return solveLocalQuadratic(s0, s1, s2, s3, s4, t0, t1, t2);
-}
+};
 
+std::optional<double> fitAt(const RiskPoints& s, std::span<const double> cumulative, double x0, double q)
+{
+    const auto [left, right, h] = neighbourhood(s, cumulative, x0, q);
+    if (!(h > 0.0))
+        return std::nullopt; // more than q patients share x0: the local quadratic is singular
+    KernelSums<double> sums;
+    for (std::size_t i = left; i < right; ++i) {
+        const double d = s.x[i] - x0;
+        const double u = std::abs(d) / h;
+        if (u >= 1.0)
+            continue;
+        const double tri = 1.0 - u * u * u;
+        sums.add(d, tri * tri * tri, s.count[i], s.events[i]);
+    }
+    return solveLocalQuadratic(sums.s0, sums.s1, sums.s2, sums.s3, sums.s4, sums.t0, sums.t1, sums.t2);
+}
 
 // Four local fits at once, one per lane of a vector: each lane adds the same terms in the same
 // order as fitAt (a lane's points outside its own window, or at or beyond its h, add a zero,
@@ -174,25 +185,17 @@ bool fitFour(const RiskPoints& s, std::span<const double> cumulative, const doub
         right = std::max(right, n.right);
     }
     const LaneMask magnitude = {INT64_MAX, INT64_MAX, INT64_MAX, INT64_MAX};
-    Lanes s0{}, s1{}, s2{}, s3{}, s4{}, t0{}, t1{}, t2{};
+    KernelSums<Lanes> sums;
     for (std::size_t i = left; i < right; ++i) {
         const Lanes d = s.x[i] - center;
         const Lanes u = Lanes(LaneMask(d) & magnitude) / width; // |d| / h
         const LaneMask inside = u < 1.0;
         const Lanes tri = 1.0 - u * u * u;
-        const Lanes w = Lanes(LaneMask(tri * tri * tri) & inside);
-        const Lanes wc = w * s.count[i], wy = w * s.events[i];
-        s0 += wc;
-        s1 += wc * d;
-        s2 += wc * d * d;
-        s3 += wc * d * d * d;
-        s4 += wc * d * d * d * d;
-        t0 += wy;
-        t1 += wy * d;
-        t2 += wy * d * d;
+        sums.add(d, Lanes(LaneMask(tri * tri * tri) & inside), s.count[i], s.events[i]);
     }
     for (std::size_t j = 0; j < laneCount; ++j)
-        out[j] = solveLocalQuadratic(s0[j], s1[j], s2[j], s3[j], s4[j], t0[j], t1[j], t2[j]);
+        out[j] = solveLocalQuadratic(sums.s0[j], sums.s1[j], sums.s2[j], sums.s3[j], sums.s4[j], sums.t0[j], sums.t1[j],
+                                     sums.t2[j]);
     return true;
 }
 
