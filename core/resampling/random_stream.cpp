@@ -15,14 +15,6 @@ std::uint64_t splitMix64(std::uint64_t& x)
     return z ^ (z >> 31);
 }
 
-// 128-bit product for Lemire's method; __extension__ keeps -Wpedantic quiet about the GCC type.
-__extension__ using Uint128 = unsigned __int128;
-
-std::uint64_t rotl(std::uint64_t x, int k)
-{
-    return (x << k) | (x >> (64 - k));
-}
-
 } // namespace
 
 RandomStream::RandomStream(std::uint64_t seed, std::uint64_t stream)
@@ -32,33 +24,6 @@ RandomStream::RandomStream(std::uint64_t seed, std::uint64_t stream)
     std::uint64_t mixed = splitMix64(x) ^ (stream * 0xD1B54A32D192ED03ULL);
     for (auto& word : m_state)
         word = splitMix64(mixed);
-}
-
-std::uint64_t RandomStream::nextU64()
-{
-    const std::uint64_t result = rotl(m_state[1] * 5, 7) * 9;
-    const std::uint64_t t = m_state[1] << 17;
-    m_state[2] ^= m_state[0];
-    m_state[3] ^= m_state[1];
-    m_state[1] ^= m_state[2];
-    m_state[0] ^= m_state[3];
-    m_state[2] ^= t;
-    m_state[3] = rotl(m_state[3], 45);
-    return result;
-}
-
-std::uint64_t RandomStream::below(std::uint64_t bound)
-{
-    Uint128 product = static_cast<Uint128>(nextU64()) * bound;
-    auto low = static_cast<std::uint64_t>(product);
-    if (low < bound) {
-        const std::uint64_t threshold = (0 - bound) % bound;
-        while (low < threshold) {
-            product = static_cast<Uint128>(nextU64()) * bound;
-            low = static_cast<std::uint64_t>(product);
-        }
-    }
-    return static_cast<std::uint64_t>(product >> 64);
 }
 
 double RandomStream::uniform()
