@@ -31,6 +31,8 @@ public:
     // Index of the field of the current record that holds the unclosed quote.
     std::size_t unclosedQuoteField() const { return m_unclosedField; }
     std::size_t blankLinesSkipped() const { return m_blankLines; }
+    // Offset into the text of the first byte not yet read: everything before it is done with.
+    std::size_t offset() const { return m_pos; }
 
 private:
     void readUnquoted();

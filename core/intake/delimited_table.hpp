@@ -35,13 +35,21 @@ public:
     {
         CsvScanner scanner(m_file.text(), m_delimiter);
         scanner.next(); // header
+        // Records already visited are done with: give their bytes back a block at a time, so
+        // a large file is never resident whole.
+        std::size_t released = 0;
         while (scanner.next()) {
             if (scanner.unclosedQuote())
                 return std::unexpected(unclosedQuoteError(scanner));
+            if (scanner.offset() - released >= m_file.releaseBlockBytes()) {
+                m_file.releaseText(released, scanner.offset());
+                released = scanner.offset();
+            }
             if (isWhitespaceOnly(scanner))
                 continue;
             visit(scanner);
         }
+        m_file.releaseText(released, scanner.offset());
         return scanner.blankLinesSkipped();
     }
 

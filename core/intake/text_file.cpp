@@ -1,5 +1,7 @@
 #include "intake/text_file.hpp"
 
+#include "intake/sha256_stream.hpp"
+
 #include <algorithm>
 #include <cstdio>
 #include <cerrno>
@@ -78,12 +80,31 @@ TextFile::TextFile(std::string name, std::string bytes)
 {
 }
 
-std::string_view TextFile::text() const
+TextFile::TextFile(std::string name, std::shared_ptr<const MappedFile> mapping, std::size_t releaseBlockBytes)
+    : m_name(std::move(name))
+    , m_mapping(std::move(mapping))
+    , m_textStart(startsWith(m_mapping->view(), utf8Bom) ? utf8Bom.size() : 0)
+    , m_releaseBlockBytes(std::max<std::size_t>(releaseBlockBytes, 1))
 {
-    return std::string_view(m_bytes).substr(m_textStart);
 }
 
-std::expected<TextFile, InputError> TextFile::load(const std::string& path, std::size_t maxLineBytes)
+std::string_view TextFile::bytes() const
+{
+    return m_mapping ? m_mapping->view() : std::string_view(m_bytes);
+}
+
+std::string_view TextFile::text() const
+{
+    return bytes().substr(m_textStart);
+}
+
+void TextFile::releaseText(std::size_t begin, std::size_t end) const
+{
+    if (m_mapping)
+        m_mapping->release(m_textStart + begin, m_textStart + end);
+}
+
+std::expected<TextFile, InputError> TextFile::load(const std::string& path, std::size_t maxLineBytes, std::size_t releaseBlockBytes)
 {
     InputError error;
     error.file = path;
@@ -111,58 +132,95 @@ std::expected<TextFile, InputError> TextFile::load(const std::string& path, std:
         error.remedy = "check the path and that you may read the file.";
         return std::unexpected(error);
     }
-    std::string bytes;
-    if (status.st_size > 0)
-        bytes.reserve(static_cast<std::size_t>(status.st_size));
-    char buffer[1 << 16];
-    std::size_t got = 0;
-    std::size_t lineLength = 0, lines = 1; // bytes since the last line break, and its line number
-    while ((got = std::fread(buffer, 1, sizeof buffer, file.get())) > 0) {
-        for (const char *p = buffer, *end = buffer + got; p < end;) {
-            const auto* lineBreak = static_cast<const char*>(std::memchr(p, '\n', std::size_t(end - p)));
-            const std::size_t run = std::size_t((lineBreak ? lineBreak : end) - p);
-            if (lineLength + run > maxLineBytes) {
-                error.line = lines;
-                error.problem = "line " + std::to_string(lines) + " is longer than " + std::to_string(maxLineBytes)
-                    + " bytes, so this is not a table of patients (a document, a binary file, or a file without line breaks).";
-                error.remedy = "check that this is the cohort file; if one line really is that long, raise the limit with "
-                               "--max-line-length BYTES.";
-                return std::unexpected(error);
-            }
-            if (!lineBreak) {
-                lineLength += run;
-                break;
-            }
-            lineLength = 0;
-            ++lines;
-            p = lineBreak + 1;
-        }
-        bytes.append(buffer, got);
+    // Map the file when it has a size; a regular file that reports none (such as those under
+    // /proc) or cannot be mapped is read into memory as before.
+    struct stat opened {};
+    std::optional<TextFile> loaded;
+    if (::fstat(fileno(file.get()), &opened) == 0 && opened.st_size > 0) {
+        if (auto mapping = MappedFile::map(fileno(file.get()), static_cast<std::size_t>(opened.st_size)))
+            loaded = TextFile(path, std::make_shared<const MappedFile>(std::move(*mapping)), releaseBlockBytes);
     }
-    if (std::ferror(file.get())) {
-        error.problem = "the file could not be read to the end.";
-        error.remedy = "check that the file is not a folder and is not being written to.";
+    if (!loaded) {
+        std::string bytes;
+        char buffer[1 << 16];
+        std::size_t got = 0;
+        while ((got = std::fread(buffer, 1, sizeof buffer, file.get())) > 0)
+            bytes.append(buffer, got);
+        if (std::ferror(file.get())) {
+            error.problem = "the file could not be read to the end.";
+            error.remedy = "check that the file is not a folder and is not being written to.";
+            return std::unexpected(error);
+        }
+        loaded = TextFile(path, std::move(bytes));
+        loaded->m_releaseBlockBytes = std::max<std::size_t>(releaseBlockBytes, 1);
+    }
+    if (const auto tooLong = loaded->firstLineLongerThan(maxLineBytes)) {
+        error.line = *tooLong;
+        error.problem = "line " + std::to_string(*tooLong) + " is longer than " + std::to_string(maxLineBytes)
+            + " bytes, so this is not a table of patients (a document, a binary file, or a file without line breaks).";
+        error.remedy = "check that this is the cohort file; if one line really is that long, raise the limit with "
+                       "--max-line-length BYTES.";
         return std::unexpected(error);
     }
-    return checked(path, std::move(bytes));
+    return checked(std::move(*loaded));
+}
+
+std::optional<std::size_t> TextFile::firstLineLongerThan(std::size_t maxLineBytes) const
+{
+    // Over the raw bytes, byte-order mark included, as lines are counted from the file's start.
+    // The search for a line break never looks further than the limit, so a file without line
+    // breaks is refused after reading little more than the limit.
+    const std::string_view all = bytes();
+    std::size_t lineStart = 0, lines = 1, released = 0;
+    for (std::size_t pos = 0; pos < all.size();) {
+        // (Written so that a limit near SIZE_MAX cannot overflow.)
+        const std::size_t limit = all.size() - lineStart > maxLineBytes ? lineStart + maxLineBytes + 1 : all.size();
+        const auto* lineBreak = static_cast<const char*>(std::memchr(all.data() + pos, '\n', limit - pos));
+        if (!lineBreak) {
+            if (limit - lineStart > maxLineBytes)
+                return lines;
+            break;
+        }
+        ++lines;
+        pos = lineStart = std::size_t(lineBreak - all.data()) + 1;
+        if (pos - released >= m_releaseBlockBytes && m_mapping) {
+            m_mapping->release(released, pos);
+            released = pos;
+        }
+    }
+    if (m_mapping)
+        m_mapping->release(released, all.size());
+    return std::nullopt;
+}
+
+std::string TextFile::fingerprint() const
+{
+    const std::string_view all = bytes();
+    Sha256Stream digest;
+    for (std::size_t from = 0; from < all.size(); from += m_releaseBlockBytes) {
+        const std::size_t length = std::min(m_releaseBlockBytes, all.size() - from);
+        digest.update(all.substr(from, length));
+        if (m_mapping)
+            m_mapping->release(from, from + length);
+    }
+    return digest.hexDigest();
 }
 
 std::expected<TextFile, InputError> TextFile::fromBytes(std::string name, std::string bytes)
 {
-    return checked(std::move(name), std::move(bytes));
+    return checked(TextFile(std::move(name), std::move(bytes)));
 }
 
-std::expected<TextFile, InputError> TextFile::checked(std::string name, std::string bytes)
+std::expected<TextFile, InputError> TextFile::checked(TextFile file)
 {
     InputError error;
-    error.file = name;
-    if (startsWith(bytes, "\xFF\xFE") || startsWith(bytes, "\xFE\xFF")) {
+    error.file = file.name();
+    if (startsWith(file.bytes(), "\xFF\xFE") || startsWith(file.bytes(), "\xFE\xFF")) {
         error.line = 1;
         error.problem = "the file is UTF-16 encoded; Plumbline reads UTF-8 text.";
         error.remedy = "save the file as 'CSV UTF-8' (or convert it with iconv -f UTF-16 -t UTF-8).";
         return std::unexpected(error);
     }
-    TextFile file(std::move(name), std::move(bytes));
     const std::string_view text = file.text();
     if (std::all_of(text.begin(), text.end(), [](char c) { return c == '\n' || c == '\r' || c == ' ' || c == '\t'; })) {
         error.problem = "the file is empty.";
@@ -175,7 +233,7 @@ std::expected<TextFile, InputError> TextFile::checked(std::string name, std::str
         error.remedy = "save the file as 'CSV UTF-8' (or convert it with iconv -f UTF-16LE -t UTF-8, or UTF-16BE).";
         return std::unexpected(error);
     }
-    if (const auto nul = text.find('\0'); nul != std::string_view::npos) {
+    if (const auto nul = file.firstNul(); nul != std::string_view::npos) {
         error.line = file.lineOfOffset(nul);
         error.problem = "the file holds binary data (a NUL byte), so it is not a delimited text file.";
         error.remedy = "export the data as CSV or tab-separated text; spreadsheets (.xlsx) must be saved as CSV first.";
@@ -184,11 +242,28 @@ std::expected<TextFile, InputError> TextFile::checked(std::string name, std::str
     return file;
 }
 
+std::size_t TextFile::firstNul() const
+{
+    const std::string_view s = text();
+    for (std::size_t from = 0; from < s.size(); from += m_releaseBlockBytes) {
+        const std::size_t length = std::min(m_releaseBlockBytes, s.size() - from);
+        const std::size_t nul = s.substr(from, length).find('\0');
+        releaseText(from, from + length);
+        if (nul != std::string_view::npos)
+            return from + nul;
+    }
+    return std::string_view::npos;
+}
+
 std::optional<std::size_t> TextFile::firstInvalidUtf8() const
 {
     const std::string_view s = text();
-    std::size_t i = 0;
+    std::size_t i = 0, released = 0;
     while (i < s.size()) {
+        if (i - released >= m_releaseBlockBytes) {
+            releaseText(released, i);
+            released = i;
+        }
         // Fast path: eight ASCII bytes at a time.
         if (i + 8 <= s.size()) {
             std::uint64_t word = 0;
@@ -203,13 +278,20 @@ std::optional<std::size_t> TextFile::firstInvalidUtf8() const
             return i;
         i += length;
     }
+    releaseText(released, s.size());
     return std::nullopt;
 }
 
 std::size_t TextFile::lineOfOffset(std::size_t offset) const
 {
     const std::string_view s = text().substr(0, offset);
-    return 1 + static_cast<std::size_t>(std::count(s.begin(), s.end(), '\n'));
+    std::size_t lineBreaks = 0;
+    for (std::size_t from = 0; from < s.size(); from += m_releaseBlockBytes) {
+        const std::string_view block = s.substr(from, m_releaseBlockBytes);
+        lineBreaks += static_cast<std::size_t>(std::count(block.begin(), block.end(), '\n'));
+        releaseText(from, from + block.size());
+    }
+    return 1 + lineBreaks;
 }
 
 } // namespace plumbline

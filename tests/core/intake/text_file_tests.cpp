@@ -1,7 +1,11 @@
 #include "intake/text_file.hpp"
 
+#include "intake/sha256.hpp"
+
 #include <catch2/catch.hpp>
 
+#include <algorithm>
+#include <cctype>
 #include <filesystem>
 #include <fstream>
 #include <sys/stat.h>
@@ -104,4 +108,87 @@ TEST_CASE("UTF-16 without a byte-order mark is recognised and named", "[textfile
     const auto binary = TextFile::fromBytes("b.csv", std::string("y,p\n1,0.5\n\0\x01\x02\x03\x04\x05\x06\x07\x08\x09", 19));
     REQUIRE_FALSE(binary);
     CHECK(binary.error().problem.find("binary") != std::string::npos);
+}
+
+namespace {
+
+// Writes bytes to a fresh file in the temporary folder and returns its path.
+std::filesystem::path writtenFile(const std::string& name, const std::string& bytes)
+{
+    const auto path = std::filesystem::temp_directory_path() / name;
+    std::ofstream(path, std::ios::binary) << bytes;
+    return path;
+}
+
+// A cohort of several 4 KiB pages whose lines end in CRLF and hold two- and three-byte UTF-8
+// characters, so that block and page boundaries fall inside characters and between CR and LF.
+std::string pagesOfText()
+{
+    std::string text = "\xEF\xBB\xBFid,y,p,site\r\n";
+    for (int row = 0; text.size() < 9 * 4096; ++row) {
+        text += 'r';
+        text += std::to_string(row) + ',' + std::to_string(row % 2) + ",0." + std::to_string(row % 97 + 1);
+        text += row % 3 == 0 ? ",Z\xC3\xBCrich\r\n" : ",\xE2\x82\xAC" "ward\r\n";
+    }
+    return text;
+}
+
+} // namespace
+
+TEST_CASE("A file read in tiny blocks is fingerprinted and checked like the same bytes in memory", "[textfile][blocks]")
+{
+    const std::string bytes = pagesOfText();
+    const auto path = writtenFile("plumbline-blocks.csv", bytes);
+    for (const std::size_t block : {std::size_t{1}, std::size_t{7}, std::size_t{4096}, plumbline::defaultReleaseBlockBytes}) {
+        const auto file = TextFile::load(path.string(), 1 << 20, block);
+        REQUIRE(file);
+        CHECK(file->fingerprint() == plumbline::sha256Hex(bytes));
+        CHECK_FALSE(file->firstInvalidUtf8());
+        // Released pages read back as they were: the view is still the whole file.
+        CHECK(file->bytes() == bytes);
+        CHECK(file->text() == std::string_view(bytes).substr(3));
+        CHECK(file->lineOfOffset(file->text().size()) == 1 + std::size_t(std::count(bytes.begin(), bytes.end(), '\n')));
+    }
+    std::filesystem::remove(path);
+}
+
+TEST_CASE("A bad byte a NUL or a long line in a later block is reported on its own line", "[textfile][blocks]")
+{
+    const std::string good = pagesOfText();
+    // An ASCII letter or digit inside the eighth page, several blocks in, between ASCII neighbours.
+    std::size_t late = 7 * 4096 + 1;
+    const auto plain = [&](std::size_t i) { return std::isalnum(static_cast<unsigned char>(good[i])) != 0; };
+    while (!(plain(late - 1) && plain(late) && plain(late + 1)))
+        ++late;
+    const std::size_t lineOfLate = 1 + std::size_t(std::count(good.begin(), good.begin() + std::ptrdiff_t(late), '\n'));
+    for (const std::size_t block : {std::size_t{1}, std::size_t{7}, std::size_t{4096}}) {
+        std::string latin1 = good;
+        latin1[late] = '\xE9';
+        const auto latin1Path = writtenFile("plumbline-blocks-latin1.csv", latin1);
+        const auto fromDisk = TextFile::load(latin1Path.string(), 1 << 20, block);
+        const auto inMemory = TextFile::fromBytes("m.csv", latin1);
+        REQUIRE(fromDisk);
+        REQUIRE(inMemory);
+        REQUIRE(fromDisk->firstInvalidUtf8());
+        CHECK(fromDisk->firstInvalidUtf8() == inMemory->firstInvalidUtf8());
+        CHECK(*fromDisk->firstInvalidUtf8() == late - 3); // an offset into the text, after the mark
+        CHECK(fromDisk->lineOfOffset(*fromDisk->firstInvalidUtf8()) == lineOfLate);
+
+        std::string nul = good;
+        nul[late] = '\0';
+        const auto nulPath = writtenFile("plumbline-blocks-nul.csv", nul);
+        const auto binary = TextFile::load(nulPath.string(), 1 << 20, block);
+        REQUIRE_FALSE(binary);
+        CHECK(binary.error().line == lineOfLate);
+
+        std::string longLine = good.substr(0, late) + std::string(5000, 'x') + good.substr(late);
+        const auto longPath = writtenFile("plumbline-blocks-long.csv", longLine);
+        const auto refused = TextFile::load(longPath.string(), 4096, block);
+        REQUIRE_FALSE(refused);
+        CHECK(refused.error().line == lineOfLate);
+        CHECK(TextFile::load(longPath.string(), 8192, block).has_value());
+        std::filesystem::remove(latin1Path);
+        std::filesystem::remove(nulPath);
+        std::filesystem::remove(longPath);
+    }
 }
