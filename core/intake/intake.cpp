@@ -150,7 +150,10 @@ std::expected<IntakeResult, InputError> runIntake(const IntakeSettings& asked, T
     std::optional<DelimitedTable> outcomesTable;
     std::string outcomesHash;
     if (outcomesFile) {
-        outcomesHash = outcomesFile->fingerprint();
+        auto fingerprint = outcomesFile->fingerprint();
+        if (!fingerprint)
+            return std::unexpected(fingerprint.error());
+        outcomesHash = std::move(*fingerprint);
         auto opened = DelimitedTable::open(std::move(*outcomesFile), settings.delimiter);
         if (!opened)
             return std::unexpected(opened.error());
@@ -192,7 +195,10 @@ std::expected<IntakeResult, InputError> runIntake(const IntakeSettings& asked, T
         if (!periodAlsoGroup)
             groups.erase(it);
     }
-    result.inputs.push_back({"cohort", settings.cohortFile, cohortHash.get(), audit.rowsRead});
+    auto cohortFingerprint = cohortHash.get();
+    if (!cohortFingerprint)
+        return std::unexpected(cohortFingerprint.error());
+    result.inputs.push_back({"cohort", settings.cohortFile, std::move(*cohortFingerprint), audit.rowsRead});
     if (outcomesTable)
         result.inputs.push_back({"outcomes", *settings.outcomesFile, outcomesHash, audit.join->outcomeRows});
     return result;

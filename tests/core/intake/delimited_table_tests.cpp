@@ -60,7 +60,7 @@ TEST_CASE("Records released in tiny blocks read exactly like the file held in me
     REQUIRE(expected);
     REQUIRE(expected->audit.blankLinesSkipped > 0);
     REQUIRE_FALSE(expected->audit.exclusions.empty());
-    for (const std::size_t block : {std::size_t{1}, std::size_t{7}, std::size_t{4096}, defaultReleaseBlockBytes}) {
+    for (const std::size_t block : {std::size_t{1}, std::size_t{7}, std::size_t{4096}, defaultBlockBytes}) {
         const auto result = runIntake(settings, *TextFile::load(path.string(), 1 << 20, block), std::nullopt);
         REQUIRE(result);
         CHECK(result->cohort.outcome == expected->cohort.outcome);
@@ -101,6 +101,26 @@ TEST_CASE("A quote left open in a later block is reported on its own line", "[in
         CHECK(result.error().message() == expected.error().message());
         CHECK(result.error().line == line);
         CHECK(result.error().column == "site");
+    }
+    std::filesystem::remove(path);
+}
+
+TEST_CASE("A file shortened by another program while it is read is an error and not a crash", "[intake][blocks][errors]")
+{
+    const std::string bytes = messyCohort();
+    const auto path = writtenFile("plumbline-shortened-blocks.csv", bytes);
+    const IntakeSettings settings = groupedSettings(path);
+    for (const std::size_t cut : {bytes.size() / 2, std::size_t{0}}) {
+        // Checked and opened whole; then cut before its records are read.
+        auto file = TextFile::load(path.string(), 1 << 20, 4096);
+        REQUIRE(file);
+        std::filesystem::resize_file(path, cut);
+        const auto result = runIntake(settings, std::move(*file), std::nullopt);
+        REQUIRE_FALSE(result);
+        CHECK(result.error().file == path.string());
+        CHECK(result.error().problem.find("became shorter while it was read") != std::string::npos);
+        CHECK(result.error().remedy.find("no other program is writing") != std::string::npos);
+        std::ofstream(path, std::ios::binary) << bytes;
     }
     std::filesystem::remove(path);
 }

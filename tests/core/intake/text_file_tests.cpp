@@ -16,8 +16,9 @@ TEST_CASE("A UTF-8 byte-order mark is skipped in the text but kept in the bytes"
 {
     const auto file = TextFile::fromBytes("f.csv", "\xEF\xBB\xBFy,p\n1,0.5\n");
     REQUIRE(file);
-    CHECK(file->text().substr(0, 3) == "y,p");
+    CHECK(file->readText(0, 3) == "y,p");
     CHECK(file->sizeInBytes() == 13);
+    CHECK(file->textSize() == 10);
 }
 
 TEST_CASE("UTF-16 binary and empty files are refused with a message naming the file", "[textfile]")
@@ -43,10 +44,12 @@ TEST_CASE("The first byte that is not UTF-8 is located by offset and line", "[te
     REQUIRE(file);
     const auto bad = file->firstInvalidUtf8();
     REQUIRE(bad);
-    CHECK(*bad == 10);
-    CHECK(file->lineOfOffset(*bad) == 3);
+    REQUIRE(*bad);
+    CHECK(**bad == 10);
+    CHECK(file->positionOf(**bad)->line == 3);
+    CHECK(file->positionOf(**bad)->lineStart == 9);
     const auto good = TextFile::fromBytes("g.csv", "h,y\nZ\xC3\xA9rich,0\n\xE2\x82\xAC,1\n");
-    CHECK_FALSE(good->firstInvalidUtf8());
+    CHECK(good->firstInvalidUtf8().value() == std::nullopt);
 }
 
 TEST_CASE("A missing file is refused with the path and the system's reason", "[textfile]")
@@ -139,15 +142,16 @@ TEST_CASE("A file read in tiny blocks is fingerprinted and checked like the same
 {
     const std::string bytes = pagesOfText();
     const auto path = writtenFile("plumbline-blocks.csv", bytes);
-    for (const std::size_t block : {std::size_t{1}, std::size_t{7}, std::size_t{4096}, plumbline::defaultReleaseBlockBytes}) {
+    for (const std::size_t block : {std::size_t{1}, std::size_t{7}, std::size_t{4096}, plumbline::defaultBlockBytes}) {
         const auto file = TextFile::load(path.string(), 1 << 20, block);
         REQUIRE(file);
         CHECK(file->fingerprint() == plumbline::sha256Hex(bytes));
-        CHECK_FALSE(file->firstInvalidUtf8());
-        // Released pages read back as they were: the view is still the whole file.
-        CHECK(file->bytes() == bytes);
-        CHECK(file->text() == std::string_view(bytes).substr(3));
-        CHECK(file->lineOfOffset(file->text().size()) == 1 + std::size_t(std::count(bytes.begin(), bytes.end(), '\n')));
+        CHECK(file->firstInvalidUtf8().value() == std::nullopt);
+        CHECK(file->sizeInBytes() == bytes.size());
+        CHECK(file->readText(0, file->textSize()) == bytes.substr(3));
+        CHECK(file->readText(5000, 5100) == bytes.substr(5003, 100));
+        CHECK(file->positionOf(file->textSize())->line == 1 + std::size_t(std::count(bytes.begin(), bytes.end(), '\n')));
+        CHECK(file->positionOf(file->textSize())->lineStart == bytes.rfind('\n') + 1 - 3);
     }
     std::filesystem::remove(path);
 }
@@ -169,10 +173,10 @@ TEST_CASE("A bad byte a NUL or a long line in a later block is reported on its o
         const auto inMemory = TextFile::fromBytes("m.csv", latin1);
         REQUIRE(fromDisk);
         REQUIRE(inMemory);
-        REQUIRE(fromDisk->firstInvalidUtf8());
-        CHECK(fromDisk->firstInvalidUtf8() == inMemory->firstInvalidUtf8());
-        CHECK(*fromDisk->firstInvalidUtf8() == late - 3); // an offset into the text, after the mark
-        CHECK(fromDisk->lineOfOffset(*fromDisk->firstInvalidUtf8()) == lineOfLate);
+        REQUIRE(fromDisk->firstInvalidUtf8().value_or(std::nullopt));
+        CHECK(fromDisk->firstInvalidUtf8().value() == inMemory->firstInvalidUtf8().value());
+        CHECK(**fromDisk->firstInvalidUtf8() == late - 3); // an offset into the text, after the mark
+        CHECK(fromDisk->positionOf(**fromDisk->firstInvalidUtf8())->line == lineOfLate);
 
         std::string nul = good;
         nul[late] = '\0';
