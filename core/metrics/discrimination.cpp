@@ -5,6 +5,7 @@
 #include <algorithm>
 #include <cmath>
 #include <numeric>
+#include <optional>
 
 namespace plumbline {
 
@@ -144,16 +145,19 @@ std::vector<RocPoint> rocCurve(std::span<const std::uint8_t> outcome, std::span<
     return rocCurve(outcome, score, ascendingOrder(score));
 }
 
-std::vector<RocPoint> rocCurve(std::span<const std::uint8_t> outcome, std::span<const double> score,
-                               const ScoreOrder& ascending)
+namespace {
+
+// Calls visit(point) for each point of the ROC curve, highest threshold first: walks the shared
+// ascending order backwards, one point per tie block. False when a class is empty (no curve).
+template <typename Visit>
+bool forEachRocPoint(std::span<const std::uint8_t> outcome, std::span<const double> score, const ScoreOrder& ascending,
+                     Visit&& visit)
 {
     const double events = double(std::count(outcome.begin(), outcome.end(), std::uint8_t{1}));
     const double nonEvents = double(outcome.size()) - events;
-    std::vector<RocPoint> curve;
     if (events == 0 || nonEvents == 0)
-        return curve;
-    // Highest score first: walk the shared ascending order backwards, one point per tie block.
-    curve.push_back({score[ascending.back()] + 1.0, 0.0, 1.0});
+        return false;
+    visit(RocPoint{score[ascending.back()] + 1.0, 0.0, 1.0});
     double tp = 0.0;
     double fp = 0.0;
     for (std::size_t k = ascending.size(); k > 0;) {
@@ -162,8 +166,83 @@ std::vector<RocPoint> rocCurve(std::span<const std::uint8_t> outcome, std::span<
             (outcome[ascending[k - 1]] ? tp : fp) += 1.0;
             --k;
         }
-        curve.push_back({threshold, tp / events, 1.0 - fp / nonEvents});
+        visit(RocPoint{threshold, tp / events, 1.0 - fp / nonEvents});
     }
+    return true;
+}
+
+// Drops the interior points of a curve that lie on the line from the last point kept to the
+// next one (they carry no area), taking the points one at a time: the first and last are kept.
+class CollinearFilter {
+public:
+    template <typename Keep>
+    void add(const RocPoint& point, Keep&& keep)
+    {
+        if (!m_started) {
+            m_started = true;
+            m_kept = point;
+            keep(point);
+            return;
+        }
+        if (m_pending) {
+            const RocPoint& a = m_kept;
+            const RocPoint& b = *m_pending;
+            const RocPoint& c = point;
+            const double cross = (b.specificity - a.specificity) * (c.sensitivity - a.sensitivity)
+                - (c.specificity - a.specificity) * (b.sensitivity - a.sensitivity);
+            if (std::abs(cross) > 1e-15) {
+                m_kept = b;
+                keep(b);
+            }
+        }
+        m_pending = point;
+    }
+    template <typename Keep>
+    void finish(Keep&& keep)
+    {
+        if (m_pending)
+            keep(*m_pending);
+    }
+
+private:
+    bool m_started = false;
+    RocPoint m_kept{};
+    std::optional<RocPoint> m_pending;
+};
+
+// Average precision, one point at a time, summed as averagePrecision sums it.
+class AveragePrecisionSum {
+public:
+    AveragePrecisionSum(double events, double nonEvents)
+        : m_events(events)
+        , m_nonEvents(nonEvents)
+    {
+    }
+    void add(const RocPoint& point)
+    {
+        if (m_previous) {
+            const double tp = point.sensitivity * m_events;
+            const double fp = (1.0 - point.specificity) * m_nonEvents;
+            const double precision = tp + fp > 0.0 ? tp / (tp + fp) : 1.0;
+            m_ap += (point.sensitivity - m_previous->sensitivity) * precision;
+        }
+        m_previous = point;
+    }
+    double value() const { return m_ap; }
+
+private:
+    double m_events, m_nonEvents;
+    double m_ap = 0.0;
+    std::optional<RocPoint> m_previous;
+};
+
+} // namespace
+
+std::vector<RocPoint> rocCurve(std::span<const std::uint8_t> outcome, std::span<const double> score,
+                               const ScoreOrder& ascending)
+{
+    std::vector<RocPoint> curve;
+    forEachRocPoint(outcome, score, ascending, [&](const RocPoint& point) { curve.push_back(point); });
     return curve;
 }
 
@@ -173,17 +252,12 @@ std::vector<RocPoint> thinRocCurve(const std::vector<RocPoint>& curve, std::size
         return curve;
     // Drop collinear interior points first: they carry no area. Then keep an even spread by
     // false-positive rate, always keeping the ends, so the chart keeps its shape.
-    std::vector<RocPoint> kept{curve.front()};
-    for (std::size_t i = 1; i + 1 < curve.size(); ++i) {
-        const RocPoint& a = kept.back();
-        const RocPoint& b = curve[i];
-        const RocPoint& c = curve[i + 1];
-        const double cross = (b.specificity - a.specificity) * (c.sensitivity - a.sensitivity)
-            - (c.specificity - a.specificity) * (b.sensitivity - a.sensitivity);
-        if (std::abs(cross) > 1e-15)
-            kept.push_back(b);
-    }
-    kept.push_back(curve.back());
+    std::vector<RocPoint> kept;
+    CollinearFilter filter;
+    const auto keep = [&](const RocPoint& point) { kept.push_back(point); };
+    for (const RocPoint& point : curve)
+        filter.add(point, keep);
+    filter.finish(keep);
     if (kept.size() <= maxPoints)
         return kept;
     std::vector<RocPoint> thinned;
@@ -191,6 +265,48 @@ std::vector<RocPoint> thinRocCurve(const std::vector<RocPoint>& curve, std::size
     for (std::size_t k = 0; k < maxPoints; ++k)
         thinned.push_back(kept[static_cast<std::size_t>(std::llround(double(k) * step))]);
     return thinned;
+}
+
+RocSummary rocSummary(std::span<const std::uint8_t> outcome, std::span<const double> score, const ScoreOrder& ascending,
+                      std::size_t maxPoints)
+{
+    // Two walks of the order instead of a curve in memory (24 bytes per distinct score): the
+    // first sums the average precision and counts the points and those the thinning keeps, the
+    // second gathers the points to show.
+    const auto events = static_cast<std::size_t>(std::count(outcome.begin(), outcome.end(), std::uint8_t{1}));
+    AveragePrecisionSum ap(double(events), double(outcome.size() - events));
+    CollinearFilter counting;
+    std::size_t points = 0, kept = 0;
+    const bool any = forEachRocPoint(outcome, score, ascending, [&](const RocPoint& point) {
+        ap.add(point);
+        ++points;
+        counting.add(point, [&](const RocPoint&) { ++kept; });
+    });
+    counting.finish([&](const RocPoint&) { ++kept; });
+    RocSummary out;
+    if (!any)
+        return out;
+    out.averagePrecision = ap.value();
+    if (points <= maxPoints || maxPoints < 2) {
+        forEachRocPoint(outcome, score, ascending, [&](const RocPoint& point) { out.thinned.push_back(point); });
+        return out;
+    }
+    // Kept point j is shown when it is the next of round(k·step), k = 0 … maxPoints − 1 (all of
+    // them when no more than maxPoints are kept), as thinRocCurve picks them.
+    const bool all = kept <= maxPoints;
+    const double step = all ? 1.0 : double(kept - 1) / double(maxPoints - 1);
+    std::size_t index = 0, next = 0;
+    const auto show = [&](const RocPoint& point) {
+        if (all || (next < maxPoints && index == static_cast<std::size_t>(std::llround(double(next) * step)))) {
+            out.thinned.push_back(point);
+            ++next;
+        }
+        ++index;
+    };
+    CollinearFilter filter;
+    forEachRocPoint(outcome, score, ascending, [&](const RocPoint& point) { filter.add(point, show); });
+    filter.finish(show);
+    return out;
 }
 
 std::optional<double> averagePrecision(std::span<const std::uint8_t> outcome, std::span<const double> score)

@@ -45,6 +45,26 @@ TEST_CASE("The decision curve matches the Toy-20 and Gen-1000 net benefit check 
     CHECK_THAT(genCurve[0].standardized, WithinAbs(0.738759, 5e-7));
 }
 
+TEST_CASE("The sample's decision curve from counts at or above each threshold equals the one from support points", "[decision]")
+{
+    for (const auto& data : {toy20A(), gen1000()}) {
+        const ScoreOrder order = ascendingOrder(data.p);
+        const ModelSupport support = buildModelSupport(data.p, order, true);
+        const std::vector<double> t = decisionGrid(0.01, 0.6, 0.01);
+        const auto fromSupport = decisionCurve(support, sampleCounts(support, data.y), t);
+        const auto events = static_cast<std::size_t>(std::count(data.y.begin(), data.y.end(), std::uint8_t{1}));
+        const auto fromCounts = decisionCurve(countsAtOrAbove(data.y, data.p, order, t), events, data.y.size(), t);
+        REQUIRE(fromCounts.size() == fromSupport.size());
+        for (std::size_t k = 0; k < t.size(); ++k) {
+            CHECK(fromCounts[k].threshold == fromSupport[k].threshold);
+            CHECK(fromCounts[k].netBenefit == fromSupport[k].netBenefit);
+            CHECK(fromCounts[k].treatAll == fromSupport[k].treatAll);
+            CHECK(fromCounts[k].standardized == fromSupport[k].standardized);
+            CHECK(fromCounts[k].netReductionPer100 == fromSupport[k].netReductionPer100);
+        }
+    }
+}
+
 TEST_CASE("The default decision grid runs from 0.05 to 0.50 by 0.01 with exact values", "[decision]")
 {
     const auto grid = decisionGrid(0.05, 0.50, 0.01);
