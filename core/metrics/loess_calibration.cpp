@@ -151,7 +151,15 @@ std::size_t RiskPoints::occupied() const
 
 RiskSupport collapseRisks(std::span<const std::uint8_t> y, std::span<const double> p, const ScoreOrder& order)
 {
+    // Sized first: grown by doubling, the three arrays of a support as large as the cohort (a
+    // risk per patient, written with many decimals) would briefly need half as much again.
+    std::size_t distinct = 0;
+    for (std::size_t k = 0; k < order.size(); ++k)
+        distinct += k == 0 || p[order[k]] != p[order[k - 1]];
     RiskSupport s;
+    s.x.reserve(distinct);
+    s.count.reserve(distinct);
+    s.events.reserve(distinct);
     for (std::size_t k = 0; k < order.size(); ++k) {
         const double x = p[order[k]];
         if (s.x.empty() || x != s.x.back()) {
@@ -165,7 +173,11 @@ RiskSupport collapseRisks(std::span<const std::uint8_t> y, std::span<const doubl
     return s;
 }
 
-bool loessInto(const RiskPoints& full, const LoessOptions& options, LoessSummary& out)
+namespace {
+
+// loessInto with the buffer of the points' distances from the curve given: the bootstrap's is
+// kept per thread between replicates, a single fit's is freed when it ends.
+bool loessIntoUsing(const RiskPoints& full, const LoessOptions& options, LoessSummary& out, std::vector<double>& distance)
 {
     constexpr std::size_t minimumDistinct = 10; // fewer: a points score, not a smooth risk [common practice]
     double n = 0.0;
@@ -229,7 +241,6 @@ bool loessInto(const RiskPoints& full, const LoessOptions& options, LoessSummary
                 out.fitted[k] = curve[j]; // at a bin position, or beyond the first or last: hold the end
         }
     }
-    thread_local std::vector<double> distance;
     distance.resize(full.x.size());
     double sum = 0.0;
     bool finite = true;
@@ -253,10 +264,21 @@ bool loessInto(const RiskPoints& full, const LoessOptions& options, LoessSummary
     return true;
 }
 
+} // namespace
+
+bool loessInto(const RiskPoints& full, const LoessOptions& options, LoessSummary& out)
+{
+    thread_local std::vector<double> distance;
+    return loessIntoUsing(full, options, out, distance);
+}
+
 std::optional<LoessSummary> loessOnSupport(const RiskPoints& full, const LoessOptions& options)
 {
+    // A buffer of its own: a single fit on a large cohort would otherwise leave a double per
+    // distinct risk held by the thread for as long as it lives.
     LoessSummary out;
-    if (!loessInto(full, options, out))
+    std::vector<double> distance;
+    if (!loessIntoUsing(full, options, out, distance))
         return std::nullopt;
     return out;
 }

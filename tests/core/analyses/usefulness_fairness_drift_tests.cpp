@@ -184,6 +184,46 @@ TEST_CASE("A calibrated model without drift raises no drift flag", "[periods]")
     CHECK_THAT(*periods->latestYear[0].oe.value, WithinAbs(1.0, 1e-12));
 }
 
+TEST_CASE("Periods computed with the cohort's score orders given equal those sorted on their own", "[periods]")
+{
+    const auto files = simulateCohort({24000, 20240101}, false);
+    IntakeSettings settings = settingsFor({"supplier_score", "local_score"}, "readmitted_30d");
+    settings.periodColumn = "discharge_date";
+    const auto intake = intakeOf(settings, files.cohort);
+    REQUIRE(intake);
+    const Cohort& cohort = intake->cohort;
+    const std::vector<ScoreOrder> orders{ascendingOrder(cohort.models[0].values), ascendingOrder(cohort.models[1].values)};
+    const auto own = analysePeriods(cohort, *cohort.period, std::nullopt, PeriodUnit::Month, 0.95);
+    const auto given = analysePeriods(cohort, *cohort.period, std::nullopt, PeriodUnit::Month, 0.95, false, &orders);
+    REQUIRE(own);
+    REQUIRE(given);
+    REQUIRE(own->results.size() == given->results.size());
+    const auto same = [](const Estimate& a, const Estimate& b) {
+        return a.value == b.value && a.se == b.se && a.lower == b.lower && a.upper == b.upper;
+    };
+    for (std::size_t k = 0; k < own->results.size(); ++k) {
+        CHECK(own->results[k].period == given->results[k].period);
+        CHECK(own->results[k].n == given->results[k].n);
+        CHECK(same(own->results[k].c, given->results[k].c));
+        CHECK(same(own->results[k].oe, given->results[k].oe));
+        CHECK(same(own->results[k].calibrationIntercept, given->results[k].calibrationIntercept));
+    }
+    REQUIRE(given->firstYear.size() == 2);
+    CHECK(same(own->firstYear[1].c, given->firstYear[1].c));
+    CHECK(same(own->latestYear[1].c, given->latestYear[1].c));
+    // The C statistic of a period is the one of its rows on their own.
+    std::vector<std::uint8_t> y;
+    std::vector<double> p;
+    for (std::size_t i = 0; i < cohort.rows(); ++i)
+        if (cohort.period->levels[cohort.period->codes[i]].starts_with("2024-03")) {
+            y.push_back(cohort.outcome[i]);
+            p.push_back(cohort.models[0].values[i]);
+        }
+    const auto march = std::find_if(given->results.begin(), given->results.end(), [](const PeriodResult& r) { return r.period == "2024-03"; });
+    REQUIRE(march != given->results.end());
+    CHECK(march->c.value == cStatistic(y, p, CStatisticScale::Logit, 0.95).value);
+}
+
 TEST_CASE("The latest months' O/E is pooled over the last 12 months after the first year", "[periods]")
 {
     // The sample scenario lowers readmissions from January 2025: pooled over 2025 the local
