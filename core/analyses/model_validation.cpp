@@ -183,30 +183,20 @@ private:
 
     void smoothedCurve()
     {
-        // On the distinct risks: the fitted value of each is all the curve's points need, so no
-        // value per patient is spread out.
-        const RiskSupport support = collapseRisks(m_y, m_p, m_order);
-        const auto loess = loessOnSupport(support);
+        // Read off the shared order: binned, no support points are held (three doubles per
+        // distinct risk), only the curve's points are kept.
+        const auto loess = loessCurve(m_y, m_p, m_order, m_settings.calibrationCurvePoints);
         if (!loess) {
             warn("no smoothed calibration curve (so no ICI, E50, E90, Emax): it needs at least 10 distinct risks; read the risk-group table instead.");
             return;
         }
-        set("ici", Estimate::point(loess->ici));
-        set("e50", Estimate::point(loess->e50));
-        set("e90", Estimate::point(loess->e90));
-        set("emax", Estimate::point(loess->emax));
-        m_result.calibrationCurveMethod = loess->binned ? "binned" : "direct";
-        curvePoints(support.x, loess->fitted);
-    }
-
-    // An even spread of (risk, smoothed observed) pairs along the distinct risks (ascending).
-    void curvePoints(const std::vector<double>& risks, const std::vector<double>& fitted)
-    {
-        const std::size_t wanted = std::min(risks.size(), m_settings.calibrationCurvePoints);
-        for (std::size_t k = 0; k < wanted; ++k) {
-            const std::size_t at = wanted == 1 ? 0 : k * (risks.size() - 1) / (wanted - 1);
-            m_result.calibrationCurve.push_back({risks[at], fitted[at]});
-        }
+        set("ici", Estimate::point(loess->summary.ici));
+        set("e50", Estimate::point(loess->summary.e50));
+        set("e90", Estimate::point(loess->summary.e90));
+        set("emax", Estimate::point(loess->summary.emax));
+        m_result.calibrationCurveMethod = loess->summary.binned ? "binned" : "direct";
+        for (const auto& [risk, fitted] : loess->points)
+            m_result.calibrationCurve.push_back({risk, fitted});
     }
 
     const std::vector<std::uint8_t>& m_y;
