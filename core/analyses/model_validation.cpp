@@ -69,13 +69,13 @@ public:
         smoothedCurve();
     }
 
-    // The logistic recalibration fits and their tests; the logits and weights (a double per
-    // patient each) live only while they run.
+    // The logistic recalibration fits and their tests; the logits (a double per patient) and
+    // the weights (a byte) live only while they run.
     void regressions()
     {
         std::size_t clamped = 0;
         const std::vector<double> lp = clampedLogits(m_p, &clamped);
-        const std::vector<double> weights = fitWeights(clamped);
+        const std::vector<std::uint8_t> weights = fitWeights(clamped);
         const double confidence = m_settings.confidence;
         const auto intercept = fitCalibrationIntercept(m_y, lp, weights);
         if (intercept)
@@ -121,16 +121,17 @@ public:
 
     void warn(const std::string& text) { m_result.warnings.push_back("Model '" + m_result.name + "': " + text); }
 
-    // Weights of the calibration fits: 0 for a patient whose outcome contradicts a risk of 0 or
-    // 1 (within 1e-12), 1 otherwise; says which patients were left out and why.
-    std::vector<double> fitWeights(std::size_t clamped)
+    // Weights of the calibration fits, a byte a patient: 0 for a patient whose outcome
+    // contradicts a risk of 0 or 1 (within 1e-12), 1 otherwise; says which patients were left
+    // out and why.
+    std::vector<std::uint8_t> fitWeights(std::size_t clamped)
     {
-        std::vector<double> weights(m_y.size(), 1.0);
+        std::vector<std::uint8_t> weights(m_y.size(), 1);
         std::size_t left = 0;
         std::string lines;
         for (std::size_t i = 0; i < m_y.size(); ++i)
             if (contradictsOutcome(m_p[i], m_y[i] != 0)) {
-                weights[i] = 0.0;
+                weights[i] = 0;
                 if (++left <= 5 && i < m_lines.size())
                     lines += (lines.empty() ? "" : ", ") + std::to_string(m_lines[i]);
             }

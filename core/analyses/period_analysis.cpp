@@ -181,9 +181,9 @@ std::expected<PeriodAnalysis, InputError> analysePeriods(const Cohort& cohort, c
             }
         };
         auto citl = [&](const std::vector<std::uint8_t>& y, const std::vector<double>& p) {
-            std::vector<double> weights(p.size());
+            std::vector<std::uint8_t> weights(p.size());
             for (std::size_t i = 0; i < p.size(); ++i)
-                weights[i] = contradictsOutcome(p[i], y[i] != 0) ? 0.0 : 1.0;
+                weights[i] = contradictsOutcome(p[i], y[i] != 0) ? 0 : 1;
             const auto fit = fitCalibrationIntercept(y, clampedLogits(p), weights);
             return fit ? Estimate{fit->alpha, fit->se, fit->alpha - z * fit->se, fit->alpha + z * fit->se, CiMethod::Wald}
                        : Estimate::undefined();

@@ -65,20 +65,25 @@ std::vector<double>& riskBuffer()
 // Rows (0/1 outcome, optional frequency weights) read as grouped data, one point per row,
 // without copying them into two more row-sized arrays: a row's trials and events are worked out
 // where a sum reads them, as the same doubles a copy would hold, so every sum is unchanged.
+// Weights: doubles (frequency weights), or bytes 1 and 0 (in the fit or left out), read as the
+// doubles 1.0 and 0.0.
+template <typename Weight>
 struct RowTrials {
-    std::span<const double> weights;
-    double operator[](std::size_t i) const { return weights.empty() ? 1.0 : weights[i]; }
+    std::span<const Weight> weights;
+    double operator[](std::size_t i) const { return weights.empty() ? 1.0 : double(weights[i]); }
 };
+template <typename Weight>
 struct RowEvents {
     std::span<const std::uint8_t> outcome;
-    RowTrials trials;
+    RowTrials<Weight> trials;
     double operator[](std::size_t i) const { return outcome[i] ? trials[i] : 0.0; }
 };
+template <typename Weight>
 struct RowPoints {
     std::span<const double> lp;
-    RowEvents events;
-    RowTrials trials;
-    RowPoints(std::span<const std::uint8_t> outcome, std::span<const double> logits, std::span<const double> weights)
+    RowEvents<Weight> events;
+    RowTrials<Weight> trials;
+    RowPoints(std::span<const std::uint8_t> outcome, std::span<const double> logits, std::span<const Weight> weights)
         : lp(logits)
         , events{outcome, {weights}}
         , trials{weights}
@@ -113,7 +118,13 @@ double logLikelihoodOfLogits(const BinomialPoints& points)
 double logLikelihoodOfLogits(std::span<const std::uint8_t> outcome, std::span<const double> lp,
                              std::span<const double> weights)
 {
-    return binomialLogLikelihood(RowPoints(outcome, lp, weights), 0.0, 1.0);
+    return binomialLogLikelihood(RowPoints<double>(outcome, lp, weights), 0.0, 1.0);
+}
+
+double logLikelihoodOfLogits(std::span<const std::uint8_t> outcome, std::span<const double> lp,
+                             std::span<const std::uint8_t> included)
+{
+    return binomialLogLikelihood(RowPoints<std::uint8_t>(outcome, lp, included), 0.0, 1.0);
 }
 
 namespace {
@@ -193,7 +204,13 @@ std::optional<double> calibrationInterceptEstimate(const BinomialPoints& d, doub
 std::optional<InterceptFit> fitCalibrationIntercept(std::span<const std::uint8_t> outcome, std::span<const double> lp,
                                                     std::span<const double> weights)
 {
-    return interceptFit(RowPoints(outcome, lp, weights), 0.0);
+    return interceptFit(RowPoints<double>(outcome, lp, weights), 0.0);
+}
+
+std::optional<InterceptFit> fitCalibrationIntercept(std::span<const std::uint8_t> outcome, std::span<const double> lp,
+                                                    std::span<const std::uint8_t> included)
+{
+    return interceptFit(RowPoints<std::uint8_t>(outcome, lp, included), 0.0);
 }
 
 namespace {
@@ -310,7 +327,13 @@ std::optional<SlopeEstimate> calibrationSlopeEstimate(const BinomialPoints& d, d
 std::optional<SlopeFit> fitCalibrationSlope(std::span<const std::uint8_t> outcome, std::span<const double> lp,
                                             std::span<const double> weights, double startIntercept, double startSlope)
 {
-    return slopeFit(RowPoints(outcome, lp, weights), startIntercept, startSlope);
+    return slopeFit(RowPoints<double>(outcome, lp, weights), startIntercept, startSlope);
+}
+
+std::optional<SlopeFit> fitCalibrationSlope(std::span<const std::uint8_t> outcome, std::span<const double> lp,
+                                            std::span<const std::uint8_t> included)
+{
+    return slopeFit(RowPoints<std::uint8_t>(outcome, lp, included), 0.0, 1.0);
 }
 
 } // namespace plumbline

@@ -46,6 +46,9 @@ std::optional<InterceptFit> fitCalibrationIntercept(const BinomialPoints& points
 std::optional<double> calibrationInterceptEstimate(const BinomialPoints& points, double start);
 std::optional<InterceptFit> fitCalibrationIntercept(std::span<const std::uint8_t> outcome, std::span<const double> lp,
                                                     std::span<const double> weights = {});
+// The same with each row in the fit (1) or left out (0): a byte a row instead of a double.
+std::optional<InterceptFit> fitCalibrationIntercept(std::span<const std::uint8_t> outcome, std::span<const double> lp,
+                                                    std::span<const std::uint8_t> included);
 
 // Logistic recalibration: logit P(y=1) = a + b·lp by Newton–Raphson (Cox 1958); a, b with Wald
 // SEs. nullopt on separation or when lp is constant (the slope is then not identifiable).
@@ -69,10 +72,14 @@ std::optional<SlopeEstimate> calibrationSlopeEstimate(const BinomialPoints& poin
 std::optional<SlopeFit> fitCalibrationSlope(std::span<const std::uint8_t> outcome, std::span<const double> lp,
                                             std::span<const double> weights = {}, double startIntercept = 0.0,
                                             double startSlope = 1.0);
+std::optional<SlopeFit> fitCalibrationSlope(std::span<const std::uint8_t> outcome, std::span<const double> lp,
+                                            std::span<const std::uint8_t> included);
 
 // Log-likelihood of the unmodified risks, Σ y ln p + (1−y) ln(1−p), from clamped logits.
 double logLikelihoodOfLogits(const BinomialPoints& points);
 double logLikelihoodOfLogits(std::span<const std::uint8_t> outcome, std::span<const double> lp,
                              std::span<const double> weights = {});
+double logLikelihoodOfLogits(std::span<const std::uint8_t> outcome, std::span<const double> lp,
+                             std::span<const std::uint8_t> included);
 
 } // namespace plumbline
