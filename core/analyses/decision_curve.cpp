@@ -20,13 +20,10 @@ std::vector<double> decisionGrid(double from, double to, double step)
     return grid;
 }
 
-std::vector<DecisionCurvePoint> decisionCurve(const ModelSupport& support, const SupportCounts& counts,
-                                              std::span<const double> thresholds)
+namespace {
+
+std::vector<DecisionCurvePoint> curveOf(const std::vector<double>& nb, double rate, std::span<const double> thresholds)
 {
-    const double events = std::accumulate(counts.events.begin(), counts.events.end(), 0.0);
-    const double n = events + std::accumulate(counts.nonEvents.begin(), counts.nonEvents.end(), 0.0);
-    const double rate = events / n;
-    const auto nb = netBenefitAt(support, counts, thresholds);
     std::vector<DecisionCurvePoint> curve;
     for (std::size_t k = 0; k < thresholds.size(); ++k) {
         const double t = thresholds[k], odds = t / (1.0 - t);
@@ -39,6 +36,29 @@ std::vector<DecisionCurvePoint> decisionCurve(const ModelSupport& support, const
         curve.push_back(p);
     }
     return curve;
+}
+
+} // namespace
+
+std::vector<DecisionCurvePoint> decisionCurve(const ModelSupport& support, const SupportCounts& counts,
+                                              std::span<const double> thresholds)
+{
+    const double events = std::accumulate(counts.events.begin(), counts.events.end(), 0.0);
+    const double n = events + std::accumulate(counts.nonEvents.begin(), counts.nonEvents.end(), 0.0);
+    return curveOf(netBenefitAt(support, counts, thresholds), events / n, thresholds);
+}
+
+std::vector<DecisionCurvePoint> decisionCurve(std::span<const ThresholdCounts> above, std::size_t events, std::size_t n,
+                                              std::span<const double> thresholds)
+{
+    // Whole numbers, so each is the same double as the sums over support points give.
+    const double total = double(n);
+    std::vector<double> nb;
+    for (std::size_t k = 0; k < thresholds.size(); ++k) {
+        const double t = thresholds[k];
+        nb.push_back(double(above[k].events) / total - double(above[k].nonEvents) / total * t / (1.0 - t));
+    }
+    return curveOf(nb, double(events) / total, thresholds);
 }
 
 } // namespace plumbline

@@ -1,5 +1,6 @@
 #pragma once
 
+#include "metrics/threshold_counts.hpp"
 #include "resampling/weighted_panel.hpp"
 
 #include <optional>
@@ -26,6 +27,10 @@ struct DecisionCurvePoint {
 std::vector<double> decisionGrid(double from, double to, double step);
 
 std::vector<DecisionCurvePoint> decisionCurve(const ModelSupport& support, const SupportCounts& counts,
+                                              std::span<const double> thresholds);
+// The same from the patients at or above each threshold (countsAtOrAbove) and the sample's
+// events and size: for the full sample, which then needs no support points.
+std::vector<DecisionCurvePoint> decisionCurve(std::span<const ThresholdCounts> above, std::size_t events, std::size_t n,
                                               std::span<const double> thresholds);
 
 } // namespace plumbline

@@ -44,26 +44,38 @@ public:
 
     void discrimination(bool risks)
     {
-        const Placements placements = delongPlacements(m_y, m_p, m_order);
-        const Estimate c = cStatistic(placements, m_settings.cStatisticScale, m_settings.confidence);
+        // The placements (a double per patient) are freed before the ROC curve is built.
+        const Estimate c = cStatistic(delongPlacements(m_y, m_p, m_order), m_settings.cStatisticScale, m_settings.confidence);
         set("c_statistic", c);
         if (c.value && !c.lower)
             warn("the C statistic has no interval: it needs at least two patients with and without the event, and C strictly between 0 and 1.");
         if (c.value && *c.value > 0.85)
             warn("the C statistic is above 0.85, unusual for models such as 30-day readmission: check that no predictor uses information recorded after the time of prediction (common practice).");
-        const auto events = static_cast<std::size_t>(std::count(m_y.begin(), m_y.end(), std::uint8_t{1}));
-        const auto curve = rocCurve(m_y, m_p, m_order);
-        set("auprc", optionalPoint(averagePrecision(curve, events, m_y.size() - events)));
-        m_result.roc = thinRocCurve(curve, m_settings.rocPoints);
+        RocSummary roc = rocSummary(m_y, m_p, m_order, m_settings.rocPoints);
+        set("auprc", optionalPoint(roc.averagePrecision));
+        m_result.roc = std::move(roc.thinned);
         if (risks)
             set("discrimination_slope", optionalPoint(discriminationSlope(m_y, m_p)));
     }
 
     void calibration()
     {
+        regressions();
+        set("oe_ratio", observedExpectedRatio(m_y, m_p, m_settings.confidence));
+        m_result.spiegelhalter = spiegelhalterTest(m_y, m_p);
+        if (!m_result.spiegelhalter)
+            warn("Spiegelhalter's z is undefined: every risk is 0.5 (or 0 or 1).");
+        groups();
+        smoothedCurve();
+    }
+
+    // The logistic recalibration fits and their tests; the logits (a double per patient) and
+    // the weights (a byte) live only while they run.
+    void regressions()
+    {
         std::size_t clamped = 0;
         const std::vector<double> lp = clampedLogits(m_p, &clamped);
-        const std::vector<double> weights = fitWeights(clamped);
+        const std::vector<std::uint8_t> weights = fitWeights(clamped);
         const double confidence = m_settings.confidence;
         const auto intercept = fitCalibrationIntercept(m_y, lp, weights);
         if (intercept)
@@ -80,12 +92,6 @@ public:
         if (intercept)
             m_result.likelihoodRatio = calibrationLikelihoodRatioTests(logLikelihoodOfLogits(m_y, lp, weights), *intercept,
                                                                        slope ? &*slope : nullptr);
-        set("oe_ratio", observedExpectedRatio(m_y, m_p, m_settings.confidence));
-        m_result.spiegelhalter = spiegelhalterTest(m_y, m_p);
-        if (!m_result.spiegelhalter)
-            warn("Spiegelhalter's z is undefined: every risk is 0.5 (or 0 or 1).");
-        groups();
-        smoothedCurve();
     }
 
     void overall()
@@ -103,9 +109,11 @@ public:
     void thresholds()
     {
         m_result.operatingPoints = operatingPoints(m_y, m_p, m_order, 0.005);
-        const ModelSupport support = buildModelSupport(m_p, m_order, true);
-        m_result.decisionCurve = decisionCurve(support, sampleCounts(support, m_y),
-                                               decisionGrid(m_settings.decisionFrom, m_settings.decisionTo, m_settings.decisionStep));
+        // From counts at or above each threshold: the support points the bootstrap needs (five
+        // doubles per distinct risk) are not built for the sample's own curve.
+        const std::vector<double> grid = decisionGrid(m_settings.decisionFrom, m_settings.decisionTo, m_settings.decisionStep);
+        const auto events = static_cast<std::size_t>(std::count(m_y.begin(), m_y.end(), std::uint8_t{1}));
+        m_result.decisionCurve = decisionCurve(countsAtOrAbove(m_y, m_p, m_order, grid), events, m_y.size(), grid);
         m_result.riskDistribution = riskHistogram(m_y, m_p, 50);
         m_result.thresholds = thresholdMetrics(m_y, m_p, m_order, m_settings.thresholds, m_settings.confidence,
                                                m_settings.binomialInterval);
@@ -113,16 +121,17 @@ public:
 
     void warn(const std::string& text) { m_result.warnings.push_back("Model '" + m_result.name + "': " + text); }
 
-    // Weights of the calibration fits: 0 for a patient whose outcome contradicts a risk of 0 or
-    // 1 (within 1e-12), 1 otherwise; says which patients were left out and why.
-    std::vector<double> fitWeights(std::size_t clamped)
+    // Weights of the calibration fits, a byte a patient: 0 for a patient whose outcome
+    // contradicts a risk of 0 or 1 (within 1e-12), 1 otherwise; says which patients were left
+    // out and why.
+    std::vector<std::uint8_t> fitWeights(std::size_t clamped)
     {
-        std::vector<double> weights(m_y.size(), 1.0);
+        std::vector<std::uint8_t> weights(m_y.size(), 1);
         std::size_t left = 0;
         std::string lines;
         for (std::size_t i = 0; i < m_y.size(); ++i)
             if (contradictsOutcome(m_p[i], m_y[i] != 0)) {
-                weights[i] = 0.0;
+                weights[i] = 0;
                 if (++left <= 5 && i < m_lines.size())
                     lines += (lines.empty() ? "" : ", ") + std::to_string(m_lines[i]);
             }
@@ -175,31 +184,20 @@ private:
 
     void smoothedCurve()
     {
-        const auto loess = loessCalibration(m_y, m_p, m_order);
+        // Read off the shared order: binned, no support points are held (three doubles per
+        // distinct risk), only the curve's points are kept.
+        const auto loess = loessCurve(m_y, m_p, m_order, m_settings.calibrationCurvePoints);
         if (!loess) {
             warn("no smoothed calibration curve (so no ICI, E50, E90, Emax): it needs at least 10 distinct risks; read the risk-group table instead.");
             return;
         }
-        set("ici", Estimate::point(loess->ici));
-        set("e50", Estimate::point(loess->e50));
-        set("e90", Estimate::point(loess->e90));
-        set("emax", Estimate::point(loess->emax));
-        m_result.calibrationCurveMethod = loess->binned ? "binned" : "direct";
-        curvePoints(loess->fitted);
-    }
-
-    // An even spread of (risk, smoothed observed) pairs along the sorted risks, one per distinct risk.
-    void curvePoints(const std::vector<double>& fitted)
-    {
-        std::vector<std::uint32_t> distinct;
-        for (std::size_t k = 0; k < m_order.size(); ++k)
-            if (k == 0 || m_p[m_order[k]] != m_p[m_order[k - 1]])
-                distinct.push_back(m_order[k]);
-        const std::size_t wanted = std::min(distinct.size(), m_settings.calibrationCurvePoints);
-        for (std::size_t k = 0; k < wanted; ++k) {
-            const std::size_t at = wanted == 1 ? 0 : k * (distinct.size() - 1) / (wanted - 1);
-            m_result.calibrationCurve.push_back({m_p[distinct[at]], fitted[distinct[at]]});
-        }
+        set("ici", Estimate::point(loess->summary.ici));
+        set("e50", Estimate::point(loess->summary.e50));
+        set("e90", Estimate::point(loess->summary.e90));
+        set("emax", Estimate::point(loess->summary.emax));
+        m_result.calibrationCurveMethod = loess->summary.binned ? "binned" : "direct";
+        for (const auto& [risk, fitted] : loess->points)
+            m_result.calibrationCurve.push_back({risk, fitted});
     }
 
     const std::vector<std::uint8_t>& m_y;

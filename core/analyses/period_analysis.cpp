@@ -1,5 +1,7 @@
 #include "analyses/period_analysis.hpp"
 
+#include "analyses/row_subsets.hpp"
+
 #include "intake/written_date.hpp"
 #include "metrics/calibration_summary.hpp"
 #include "metrics/discrimination.hpp"
@@ -8,7 +10,6 @@
 
 #include <algorithm>
 #include <cstdio>
-#include <map>
 #include <stdexcept>
 
 namespace plumbline {
@@ -85,7 +86,7 @@ std::expected<void, InputError> checkPeriodDates(const Cohort& cohort, const Dat
 
 std::expected<PeriodAnalysis, InputError> analysePeriods(const Cohort& cohort, const DateColumn& dates,
                                                          std::optional<DateFormat> format, PeriodUnit unit, double confidence,
-                                                         bool datesOnly)
+                                                         bool datesOnly, const std::vector<ScoreOrder>* orders)
 {
     if (dates.written.size() != dates.levels.size())
         throw std::logic_error("the dates of column '" + dates.name + "' were not read at intake");
@@ -141,26 +142,37 @@ std::expected<PeriodAnalysis, InputError> analysePeriods(const Cohort& cohort, c
     if (out.undated > 0)
         out.warnings.push_back(std::to_string(out.undated) + " rows have no usable date in '" + dates.name + "'"
                                + (firstUnparsed.empty() ? "" : " (first such value: '" + firstUnparsed + "')") + "; they are left out of the periods.");
-    // Rows by period, in time order ("2025-03" and "2025-Q1" both sort as text).
-    std::map<std::string, std::vector<std::size_t>> rows;
-    std::vector<std::size_t> firstYear, latestYear;
     int lastMonth = firstMonth;
     for (std::size_t i = 0; i < cohort.rows(); ++i)
         lastMonth = std::max(lastMonth, levelMonth[dates.codes[i]]);
     const int latestFrom = std::max(firstMonth + 12, lastMonth - 11);
-    for (std::size_t i = 0; i < cohort.rows(); ++i) {
-        const auto code = dates.codes[i];
-        if (levelMonth[code] < 0)
+    // Rows by period, in time order ("2025-03" and "2025-Q1" both sort as text), and by year:
+    // the first (subset 0) and the latest (subset 1).
+    std::vector<std::string> periodNames;
+    for (const auto& period : levelPeriod)
+        if (period)
+            periodNames.push_back(*period);
+    std::sort(periodNames.begin(), periodNames.end());
+    periodNames.erase(std::unique(periodNames.begin(), periodNames.end()), periodNames.end());
+    std::vector<std::uint32_t> periodOfLevel(dates.levels.size(), RowSubsets::none), yearOfLevel(dates.levels.size(), RowSubsets::none);
+    for (std::size_t k = 0; k < dates.levels.size(); ++k) {
+        if (levelMonth[k] < 0)
             continue;
-        rows[*levelPeriod[code]].push_back(i);
-        if (levelMonth[code] < firstMonth + 12)
-            firstYear.push_back(i);
-        else if (levelMonth[code] >= latestFrom)
-            latestYear.push_back(i);
+        periodOfLevel[k] = std::uint32_t(std::lower_bound(periodNames.begin(), periodNames.end(), *levelPeriod[k]) - periodNames.begin());
+        if (levelMonth[k] < firstMonth + 12)
+            yearOfLevel[k] = 0;
+        else if (levelMonth[k] >= latestFrom)
+            yearOfLevel[k] = 1;
     }
+    const RowSubsets periods(dates.codes, periodOfLevel, periodNames.size());
+    const RowSubsets years(dates.codes, yearOfLevel, 2);
+    std::vector<std::size_t> periodsWithRows;
+    for (std::size_t k = 0; k < periods.size(); ++k)
+        if (!periods.rows(k).empty())
+            periodsWithRows.push_back(k);
     const double z = zForConfidence(confidence);
     for (std::size_t m = 0; m < cohort.models.size(); ++m) {
-        auto subset = [&](const std::vector<std::size_t>& index, std::vector<std::uint8_t>& y, std::vector<double>& p) {
+        auto subset = [&](const std::vector<std::uint32_t>& index, std::vector<std::uint8_t>& y, std::vector<double>& p) {
             y.clear();
             p.clear();
             for (std::size_t i : index) {
@@ -169,34 +181,44 @@ std::expected<PeriodAnalysis, InputError> analysePeriods(const Cohort& cohort, c
             }
         };
         auto citl = [&](const std::vector<std::uint8_t>& y, const std::vector<double>& p) {
-            std::vector<double> weights(p.size());
+            std::vector<std::uint8_t> weights(p.size());
             for (std::size_t i = 0; i < p.size(); ++i)
-                weights[i] = contradictsOutcome(p[i], y[i] != 0) ? 0.0 : 1.0;
+                weights[i] = contradictsOutcome(p[i], y[i] != 0) ? 0 : 1;
             const auto fit = fitCalibrationIntercept(y, clampedLogits(p), weights);
             return fit ? Estimate{fit->alpha, fit->se, fit->alpha - z * fit->se, fit->alpha + z * fit->se, CiMethod::Wald}
                        : Estimate::undefined();
         };
+        // Each subset's order is read off the model's order over the cohort (sorted here once
+        // when the caller has none), and freed once its C statistic is computed.
+        const ScoreOrder ownOrder = orders ? ScoreOrder{} : ascendingOrder(cohort.models[m].values);
+        const ScoreOrder& order = orders ? (*orders)[m] : ownOrder;
+        auto c = [&](const std::vector<std::uint8_t>& y, const std::vector<double>& p, ScoreOrder& subsetOrder) {
+            const Estimate estimate = cStatistic(delongPlacements(y, p, subsetOrder), CStatisticScale::Logit, confidence);
+            ScoreOrder().swap(subsetOrder);
+            return estimate;
+        };
+        std::vector<ScoreOrder> yearOrders = years.orders(order);
         std::vector<std::uint8_t> y;
         std::vector<double> p;
-        subset(firstYear, y, p);
+        subset(years.rows(0), y, p);
         const Estimate referenceOe = observedExpectedRatio(y, p, confidence);
         const Estimate referenceCitl = citl(y, p);
-        out.firstYear.push_back({cohort.models[m].name, cStatistic(y, p, CStatisticScale::Logit, confidence), referenceOe, referenceCitl});
-        if (!latestYear.empty()) {
-            std::vector<std::uint8_t> yLatest;
-            std::vector<double> pLatest;
-            subset(latestYear, yLatest, pLatest);
-            out.latestYear.push_back({cohort.models[m].name, cStatistic(yLatest, pLatest, CStatisticScale::Logit, confidence),
-                                      observedExpectedRatio(yLatest, pLatest, confidence), citl(yLatest, pLatest)});
+        out.firstYear.push_back({cohort.models[m].name, c(y, p, yearOrders[0]), referenceOe, referenceCitl});
+        if (!years.rows(1).empty()) {
+            subset(years.rows(1), y, p);
+            const Estimate latestC = c(y, p, yearOrders[1]);
+            out.latestYear.push_back({cohort.models[m].name, latestC, observedExpectedRatio(y, p, confidence), citl(y, p)});
         }
-        for (const auto& [period, index] : rows) {
+        std::vector<ScoreOrder> periodOrders = periods.orders(order);
+        for (const std::size_t k : periodsWithRows) {
+            const auto& index = periods.rows(k);
             subset(index, y, p);
             PeriodResult r;
-            r.period = period;
+            r.period = periodNames[k];
             r.model = cohort.models[m].name;
             r.n = index.size();
             r.events = std::size_t(std::count(y.begin(), y.end(), std::uint8_t{1}));
-            r.c = cStatistic(y, p, CStatisticScale::Logit, confidence);
+            r.c = c(y, p, periodOrders[k]);
             r.oe = observedExpectedRatio(y, p, confidence);
             r.calibrationIntercept = citl(y, p);
             const bool inFirstYear = levelMonth[dates.codes[index.front()]] < firstMonth + 12;
@@ -211,7 +233,7 @@ std::expected<PeriodAnalysis, InputError> analysePeriods(const Cohort& cohort, c
             out.results.push_back(std::move(r));
         }
         // A warning when the most recent periods have left the first year's range.
-        const std::size_t count = rows.size();
+        const std::size_t count = periodsWithRows.size();
         std::size_t recentOutside = 0;
         for (std::size_t k = out.results.size() - std::min<std::size_t>(2, count); k < out.results.size(); ++k)
             recentOutside += out.results[k].outsideFirstYear ? 1 : 0;
@@ -219,11 +241,12 @@ std::expected<PeriodAnalysis, InputError> analysePeriods(const Cohort& cohort, c
             out.warnings.push_back("Model '" + cohort.models[m].name + "': calibration in the most recent period"
                                    + (recentOutside > 1 ? "s lies" : " lies") + " outside the first year's interval: the model may be drifting.");
     }
-    for (const auto& [period, index] : rows) {
+    for (const std::size_t k : periodsWithRows) {
+        const auto& index = periods.rows(k);
         if (levelMonth[dates.codes[index.front()]] < firstMonth + 12)
-            out.firstYearPeriods.push_back(period);
+            out.firstYearPeriods.push_back(periodNames[k]);
         else if (levelMonth[dates.codes[index.front()]] >= latestFrom)
-            out.latestYearPeriods.push_back(period);
+            out.latestYearPeriods.push_back(periodNames[k]);
     }
     out.note = "Drift has usual causes: a change in case mix (who is admitted and discharged), changes in care (a new "
                "programme that lowers readmissions), and changes in coding - risk scores built on diagnosis codes rise when "

@@ -2,6 +2,7 @@
 
 #include "intake/cohort.hpp"
 #include "metrics/estimate.hpp"
+#include "metrics/score_order.hpp"
 #include "intake/input_error.hpp"
 
 #include <expected>
@@ -52,10 +53,12 @@ struct PeriodAnalysis {
 };
 
 // An InputError when dates are ambiguous (DD/MM or MM/DD, and no format given) or none parses.
-// `datesOnly` stops once the dates are known to be readable (nothing is computed).
+// `datesOnly` stops once the dates are known to be readable (nothing is computed). `orders`, when
+// given, are the models' ascendingOrder over the cohort (sorted here otherwise).
 std::expected<PeriodAnalysis, InputError> analysePeriods(const Cohort& cohort, const DateColumn& dates,
                                                          std::optional<DateFormat> format, PeriodUnit unit,
-                                                         double confidence, bool datesOnly = false);
+                                                         double confidence, bool datesOnly = false,
+                                                         const std::vector<ScoreOrder>* orders = nullptr);
 
 // The same refusals as analysePeriods (ambiguous or unreadable dates) without the analysis: for
 // the command line's check before a long run.

@@ -105,6 +105,8 @@ SubgroupAnalysis analyseSubgroups(const Cohort& cohort, const PanelSettings& set
                 for (const std::uint32_t row : orders[m])
                     levelOrders[column.codes[row]][m].push_back(indexInLevel[row]);
             }
+            // The levels' runs need only their orders.
+            std::vector<std::uint32_t>().swap(indexInLevel);
         }
         std::exception_ptr failure;
         std::mutex failureMutex;

@@ -81,7 +81,8 @@ ValidationResult runValidation(const Cohort& cohort, const PanelSettings& settin
     if (cohort.period) {
         // The command line refuses such a run before it starts; the window still shows the rest
         // of the validation and says why there is no view over time.
-        if (auto periods = analysePeriods(cohort, *cohort.period, settings.dateFormat, settings.periodUnit, settings.confidence))
+        if (auto periods = analysePeriods(cohort, *cohort.period, settings.dateFormat, settings.periodUnit, settings.confidence,
+                                           false, &orders))
             result.periods = std::move(*periods);
         else
             periodProblem = "No view over time: " + periods.error().message();

@@ -2,7 +2,6 @@
 
 #include "files/atomic_file.hpp"
 #include "files/settings_check.hpp"
-#include "intake/sha256.hpp"
 #include "intake/text_file.hpp"
 
 #include <nlohmann/json.hpp>
@@ -32,7 +31,9 @@ std::string relativeTo(const std::string& file, const fs::path& folder)
 std::string fileHash(const std::string& path)
 {
     const auto file = TextFile::load(path);
-    return file ? sha256Hex(file->bytes()) : std::string();
+    if (!file)
+        return {};
+    return file->fingerprint().value_or(std::string());
 }
 
 template <typename T>
@@ -362,9 +363,12 @@ std::expected<AnalysisFile, InputError> readAnalysisFile(const TextFile& file, s
         error.remedy = "choose an analysis saved by Plumbline (*.plumbline.json).";
         return std::unexpected(error);
     }
+    const auto whole = text->readText(0, text->textSize());
+    if (!whole)
+        return std::unexpected(whole.error());
     Json json;
     try {
-        json = Json::parse(text->text());
+        json = Json::parse(*whole);
     } catch (const nlohmann::json::exception& parseError) { // syntax, or a number such as 1e400 that overflows
         error.problem = std::string("the analysis file is not valid JSON (") + parseError.what() + ").";
         error.remedy = "open an analysis saved by Plumbline (*.plumbline.json), or save it again.";

@@ -103,13 +103,13 @@ RowVerdict scoreVerdict(ScoreFieldStatus status, double raw, ScoreScale scale)
 
 // Keeps only the group levels that occur among the rows used, in order of first appearance.
 CategoricalColumn compactGroup(std::string name, const std::vector<std::string>& levels,
-                               const std::vector<std::uint32_t>& codes, const std::vector<std::size_t>& usedRows)
+                               const std::vector<std::uint32_t>& codes, const std::vector<std::uint32_t>& usedRows)
 {
     CategoricalColumn column;
     column.name = std::move(name);
     std::vector<std::int64_t> remap(levels.size(), -1);
     column.codes.reserve(usedRows.size());
-    for (std::size_t r : usedRows) {
+    for (const std::uint32_t r : usedRows) {
         const std::uint32_t old = codes[r];
         if (remap[old] < 0) {
             remap[old] = static_cast<std::int64_t>(column.levels.size());
@@ -141,7 +141,8 @@ std::expected<Cohort, InputError> assembleCohort(StagedRows&& staged, const std:
     for (std::size_t c = 0; c < columns; ++c)
         audit.scoreColumns[c].column = settings.scoreColumns[c];
 
-    std::vector<std::size_t> usedRows;
+    // Row indices fit 32 bits as the lines do (StagedRows::lines); half the memory of size_t.
+    std::vector<std::uint32_t> usedRows;
     usedRows.reserve(staged.size());
     std::vector<RowVerdict> verdicts(columns);
     for (std::size_t r = 0; r < staged.size(); ++r) {
@@ -162,7 +163,7 @@ std::expected<Cohort, InputError> assembleCohort(StagedRows&& staged, const std:
             }
         }
         if (failing == 0) {
-            usedRows.push_back(r);
+            usedRows.push_back(static_cast<std::uint32_t>(r));
             continue;
         }
         if (failing == 1)
@@ -175,26 +176,35 @@ std::expected<Cohort, InputError> assembleCohort(StagedRows&& staged, const std:
     cohort.scale = settings.scale;
     cohort.outcome.reserve(usedRows.size());
     cohort.sourceLines.reserve(usedRows.size());
-    for (std::size_t r : usedRows) {
+    for (const std::uint32_t r : usedRows) {
         cohort.outcome.push_back(staged.outcomeLevel[r] == coding->eventLevel ? 1 : 0);
         cohort.sourceLines.push_back(staged.lines[r]);
     }
+    // Each staged column is freed once the cohort has what it needs of it, so that a large file
+    // never holds its staged and its assembled columns whole at once.
+    staged.lines = {};
+    staged.outcomeLines = {};
+    staged.outcomeLevel = {};
+    staged.scoreStatus = {};
     for (std::size_t c = 0; c < columns; ++c) {
         ModelScores model;
         model.name = settings.scoreColumns[c];
         model.values.reserve(usedRows.size());
-        for (std::size_t r : usedRows)
+        for (const std::uint32_t r : usedRows)
             model.values.push_back(*convertScore(staged.rawScores[c][r], settings.scale));
         cohort.models.push_back(std::move(model));
         staged.rawScores[c] = {};
     }
     if (!staged.ids.empty()) {
         cohort.ids.reserve(usedRows.size());
-        for (std::size_t r : usedRows)
+        for (const std::uint32_t r : usedRows)
             cohort.ids.push_back(std::move(staged.ids[r]));
+        staged.ids = {};
     }
-    for (std::size_t g = 0; g < staged.groupCodes.size(); ++g)
+    for (std::size_t g = 0; g < staged.groupCodes.size(); ++g) {
         cohort.groups.push_back(compactGroup(settings.groupColumns[g], staged.groupLevels[g], staged.groupCodes[g], usedRows));
+        staged.groupCodes[g] = {};
+    }
 
     audit.rowsUsed = cohort.rows();
     audit.events = cohort.events();

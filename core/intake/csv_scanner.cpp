@@ -2,10 +2,34 @@
 
 namespace plumbline {
 
-CsvScanner::CsvScanner(std::string_view text, char delimiter)
+CsvScanner::CsvScanner(std::string_view text, char delimiter, bool textIsWhole)
     : m_text(text)
     , m_delimiter(delimiter)
+    , m_textIsWhole(textIsWhole)
 {
+}
+
+void CsvScanner::resume(std::string_view text, bool textIsWhole)
+{
+    m_text = text;
+    m_pos = 0;
+    m_textIsWhole = textIsWhole;
+    m_needsMore = false;
+}
+
+bool CsvScanner::cutAt(std::size_t pos) const
+{
+    return !m_textIsWhole && (pos >= m_text.size() || (m_text[pos] == '\r' && pos + 1 >= m_text.size()));
+}
+
+bool CsvScanner::needMoreFrom(const Position& start)
+{
+    m_pos = start.pos;
+    m_line = start.line;
+    m_blankLines = start.blankLines;
+    m_fields.clear();
+    m_needsMore = true;
+    return false;
 }
 
 bool CsvScanner::atRecordEnd() const
@@ -27,25 +51,33 @@ bool CsvScanner::next()
     m_fields.clear();
     m_unescapedUsed = 0;
     m_strayQuote = false;
+    m_needsMore = false;
+    const Position start{m_pos, m_line, m_blankLines};
     // Skip blank lines (including a lone CR or trailing blank lines at the end of the file).
     while (m_pos < m_text.size() && (m_text[m_pos] == '\n' || m_text[m_pos] == '\r')) {
+        if (cutAt(m_pos))
+            return needMoreFrom(start);
         consumeRecordEnd();
         ++m_blankLines;
     }
     if (m_pos >= m_text.size())
-        return false;
+        return m_textIsWhole ? false : needMoreFrom(start);
     m_recordLine = m_line;
     for (;;) {
         if (m_pos < m_text.size() && m_text[m_pos] == '"')
             readQuoted();
         else
             readUnquoted();
+        if (m_needsMore)
+            return needMoreFrom(start);
         if (m_unclosedQuote)
             return true;
         if (m_pos < m_text.size() && m_text[m_pos] == m_delimiter) {
             ++m_pos;
             continue;
         }
+        if (cutAt(m_pos))
+            return needMoreFrom(start);
         consumeRecordEnd();
         return true;
     }
@@ -75,6 +107,12 @@ void CsvScanner::readQuoted()
     const std::size_t lineAtStart = m_line;
     for (;;) {
         const std::size_t quote = m_text.find('"', i);
+        // In a block, a quote not closed yet (or closed by its last byte, which may be the
+        // first of a doubled pair) may close in the next one.
+        if (!m_textIsWhole && (quote == std::string_view::npos || quote + 1 == m_text.size())) {
+            m_needsMore = true;
+            return;
+        }
         if (quote == std::string_view::npos) {
             m_unclosedQuote = true;
             m_unclosedField = m_fields.size();

@@ -28,19 +28,16 @@ std::string firstLineOf(std::string_view text)
     return std::string(text.substr(0, std::min<std::size_t>(end, 80)));
 }
 
-// The header field (by index) that contains a byte offset of the text, found by re-scanning the
-// record on that line; used only to name the column in an encoding error.
-std::string columnAtOffset(std::string_view text, char delimiter, std::size_t offset,
-                           const std::vector<std::string>& header)
+// The header field (by index) in which a line's text, cut at a bad byte, ends; used only to name
+// the column in an encoding error.
+std::string columnAtLineEnd(std::string_view line, char delimiter, const std::vector<std::string>& header)
 {
-    const std::size_t lineStart = text.rfind('\n', offset == 0 ? 0 : offset - 1);
-    const std::size_t from = lineStart == std::string_view::npos ? 0 : lineStart + 1;
     std::size_t field = 0;
     bool quoted = false;
-    for (std::size_t i = from; i < offset && i < text.size(); ++i) {
-        if (text[i] == '"')
+    for (const char c : line) {
+        if (c == '"')
             quoted = !quoted;
-        else if (text[i] == delimiter && !quoted)
+        else if (c == delimiter && !quoted)
             ++field;
     }
     return field < header.size() ? header[field] : std::string();
@@ -60,21 +57,27 @@ std::expected<DelimitedTable, InputError> DelimitedTable::open(TextFile file, st
 {
     InputError error;
     error.file = file.name();
-    const std::string_view text = file.text();
+    // The first line, for messages: never more than 80 characters of it are shown.
+    const auto start = file.readText(0, 80);
+    if (!start)
+        return std::unexpected(start.error());
     const bool sniffed = !delimiter.has_value();
     if (!delimiter) {
-        delimiter = sniffDelimiter(text);
+        delimiter = sniffDelimiter(file);
         if (!delimiter) {
             error.line = 1;
             // A file that is not a table may be anything: show only its first few characters.
-            error.value = printableExcerpt(firstLineOf(text), 12);
+            error.value = printableExcerpt(firstLineOf(*start), 12);
             error.problem = "the header line does not split into columns on a comma, semicolon, tab or pipe.";
             error.remedy = "check that this is the cohort file; if it uses another delimiter, choose it (Delimiter in the window, --delimiter on the command line).";
             return std::unexpected(error);
         }
     }
-    CsvScanner scanner(text, *delimiter);
-    scanner.next();
+    RecordReader records(file, *delimiter);
+    records.next();
+    if (records.readError())
+        return std::unexpected(file.readFailure(*records.readError()));
+    const CsvScanner& scanner = records.scanner();
     if (scanner.unclosedQuote()) {
         error.line = 1;
         error.problem = "a quoted header name is never closed.";
@@ -91,21 +94,39 @@ std::expected<DelimitedTable, InputError> DelimitedTable::open(TextFile file, st
     });
     if (looksLikeData) {
         error.line = scanner.line();
-        error.value = firstLineOf(text);
+        error.value = firstLineOf(*start);
         error.problem = "the first line holds numbers, not column names: the file seems to have no header row.";
         error.remedy = "add a header row that names each column (for example outcome,score).";
         return std::unexpected(error);
     }
-    if (const auto bad = file.firstInvalidUtf8()) {
-        error.line = file.lineOfOffset(*bad);
-        error.column = columnAtOffset(text, *delimiter, *bad, header);
-        const std::size_t from = *bad >= 8 ? *bad - 8 : 0;
-        error.value = std::string(text.substr(from, 16));
-        error.problem = "the file is not valid UTF-8 (it may be Latin-1 or Windows-1252).";
-        error.remedy = "save the file as 'CSV UTF-8' or convert it (iconv -f WINDOWS-1252 -t UTF-8).";
-        return std::unexpected(error);
-    }
+    const auto bad = file.firstInvalidUtf8();
+    if (!bad)
+        return std::unexpected(bad.error());
+    if (*bad)
+        return std::unexpected(invalidUtf8Error(file, *delimiter, **bad, header));
     return DelimitedTable(std::move(file), *delimiter, sniffed, std::move(header));
+}
+
+InputError DelimitedTable::invalidUtf8Error(const TextFile& file, char delimiter, std::size_t bad,
+                                            const std::vector<std::string>& header)
+{
+    const auto position = file.positionOf(bad);
+    if (!position)
+        return position.error();
+    // The line up to the bad byte names its column; 16 bytes around it show it.
+    const auto line = file.readText(position->lineStart, bad);
+    const std::size_t from = bad >= 8 ? bad - 8 : 0;
+    const auto around = file.readText(from, from + 16);
+    if (!line || !around)
+        return line ? around.error() : line.error();
+    InputError error;
+    error.file = file.name();
+    error.line = position->line;
+    error.column = columnAtLineEnd(*line, delimiter, header);
+    error.value = *around;
+    error.problem = "the file is not valid UTF-8 (it may be Latin-1 or Windows-1252).";
+    error.remedy = "save the file as 'CSV UTF-8' or convert it (iconv -f WINDOWS-1252 -t UTF-8).";
+    return error;
 }
 
 std::expected<std::size_t, InputError> DelimitedTable::column(const std::string& name, const std::string& role) const
@@ -127,7 +148,7 @@ std::expected<std::size_t, InputError> DelimitedTable::column(const std::string&
     error.problem = "there is no " + role + " column of that name.";
     const auto suggestions = closestColumnNames(wanted, m_header);
     if (m_header.size() == 1) {
-        const auto other = sniffDelimiter(m_file.text());
+        const auto other = sniffDelimiter(m_file);
         error.problem += " The header has a single column, so the delimiter ("
             + std::string(delimiterName(m_delimiter)) + ") looks wrong.";
         error.remedy = other ? "the file looks " + std::string(delimiterName(*other))

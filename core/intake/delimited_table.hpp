@@ -2,6 +2,7 @@
 
 #include "intake/csv_scanner.hpp"
 #include "intake/input_error.hpp"
+#include "intake/record_reader.hpp"
 #include "intake/text_file.hpp"
 
 #include <cstddef>
@@ -29,25 +30,31 @@ public:
     std::expected<std::size_t, InputError> column(const std::string& name, const std::string& role) const;
 
     // Calls visit(scanner) for every data record (blank lines skipped). An unclosed quote is an
-    // InputError because everything after it would be swallowed into one field.
+    // InputError because everything after it would be swallowed into one field; so is a file
+    // that cannot be read to its end. The file is read a block at a time.
     template <typename Visit>
     std::expected<std::size_t, InputError> forEachRecord(Visit&& visit) const
     {
-        CsvScanner scanner(m_file.text(), m_delimiter);
-        scanner.next(); // header
-        while (scanner.next()) {
+        RecordReader records(m_file, m_delimiter);
+        records.next(); // header
+        while (records.next()) {
+            const CsvScanner& scanner = records.scanner();
             if (scanner.unclosedQuote())
                 return std::unexpected(unclosedQuoteError(scanner));
             if (isWhitespaceOnly(scanner))
                 continue;
             visit(scanner);
         }
-        return scanner.blankLinesSkipped();
+        if (records.readError())
+            return std::unexpected(m_file.readFailure(*records.readError()));
+        return records.scanner().blankLinesSkipped();
     }
 
 private:
     DelimitedTable(TextFile file, char delimiter, bool sniffed, std::vector<std::string> header);
     InputError unclosedQuoteError(const CsvScanner& scanner) const;
+    static InputError invalidUtf8Error(const TextFile& file, char delimiter, std::size_t bad,
+                                       const std::vector<std::string>& header);
     static bool isWhitespaceOnly(const CsvScanner& scanner);
 
     TextFile m_file;

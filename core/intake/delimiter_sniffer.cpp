@@ -1,6 +1,7 @@
 #include "intake/delimiter_sniffer.hpp"
 
 #include "intake/csv_scanner.hpp"
+#include "intake/record_reader.hpp"
 
 #include <array>
 #include <cstddef>
@@ -15,31 +16,31 @@ struct CandidateScore {
     std::size_t sampledRecords = 0;
 };
 
-CandidateScore scoreCandidate(std::string_view text, char delimiter)
+// Records: a CsvScanner over text in memory or a RecordReader over a file.
+template <typename Records>
+CandidateScore scoreCandidate(Records records)
 {
     constexpr std::size_t sampleRecords = 50;
-    CsvScanner scanner(text, delimiter);
     CandidateScore score;
-    if (!scanner.next())
+    if (!records.next())
         return score;
-    score.headerFields = scanner.fields().size();
-    while (score.sampledRecords < sampleRecords && scanner.next()) {
+    score.headerFields = records.fields().size();
+    while (score.sampledRecords < sampleRecords && records.next()) {
         ++score.sampledRecords;
-        if (scanner.fields().size() == score.headerFields)
+        if (records.fields().size() == score.headerFields)
             ++score.consistentRecords;
     }
     return score;
 }
 
-} // namespace
-
-std::optional<char> sniffDelimiter(std::string_view text)
+template <typename RecordsOf>
+std::optional<char> bestDelimiter(RecordsOf recordsOf)
 {
     constexpr std::array<char, 4> candidates{',', ';', '\t', '|'};
     std::optional<char> best;
     CandidateScore bestScore;
     for (char candidate : candidates) {
-        const CandidateScore score = scoreCandidate(text, candidate);
+        const CandidateScore score = scoreCandidate(recordsOf(candidate));
         if (score.headerFields < 2)
             continue;
         // Steadiness first (share of records with the header's field count), then more fields.
@@ -54,6 +55,19 @@ std::optional<char> sniffDelimiter(std::string_view text)
         }
     }
     return best;
+}
+
+} // namespace
+
+std::optional<char> sniffDelimiter(std::string_view text)
+{
+    return bestDelimiter([text](char delimiter) { return CsvScanner(text, delimiter); });
+}
+
+std::optional<char> sniffDelimiter(const TextFile& file)
+{
+    // A file that cannot be read to the end is reported by the pass over its records.
+    return bestDelimiter([&file](char delimiter) { return RecordReader(file, delimiter); });
 }
 
 std::string_view delimiterName(char delimiter)

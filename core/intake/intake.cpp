@@ -3,7 +3,6 @@
 #include "intake/cohort_assembler.hpp"
 #include "intake/delimited_table.hpp"
 #include "intake/joined_files_intake.hpp"
-#include "intake/sha256.hpp"
 #include "intake/single_file_intake.hpp"
 #include "intake/written_date.hpp"
 
@@ -136,10 +135,10 @@ std::expected<IntakeResult, InputError> runIntake(const IntakeSettings& asked, T
     auto cohortTable = DelimitedTable::open(std::move(cohortFile), settings.delimiter);
     if (!cohortTable)
         return std::unexpected(cohortTable.error());
-    // Fingerprint on the second core while the first one parses; the table (and so its bytes)
+    // Fingerprint on the second core while the first one parses; the table (and so its file)
     // outlives the future, whose destructor waits.
-    const std::string& cohortBytes = cohortTable->file().bytes();
-    auto cohortHash = std::async(std::launch::async, [&cohortBytes] { return sha256Hex(cohortBytes); });
+    const TextFile& cohortBytes = cohortTable->file();
+    auto cohortHash = std::async(std::launch::async, [&cohortBytes] { return cohortBytes.fingerprint(); });
 
     IntakeResult result;
     IntakeAudit& audit = result.audit;
@@ -151,7 +150,10 @@ std::expected<IntakeResult, InputError> runIntake(const IntakeSettings& asked, T
     std::optional<DelimitedTable> outcomesTable;
     std::string outcomesHash;
     if (outcomesFile) {
-        outcomesHash = sha256Hex(outcomesFile->bytes());
+        auto fingerprint = outcomesFile->fingerprint();
+        if (!fingerprint)
+            return std::unexpected(fingerprint.error());
+        outcomesHash = std::move(*fingerprint);
         auto opened = DelimitedTable::open(std::move(*outcomesFile), settings.delimiter);
         if (!opened)
             return std::unexpected(opened.error());
@@ -193,7 +195,10 @@ std::expected<IntakeResult, InputError> runIntake(const IntakeSettings& asked, T
         if (!periodAlsoGroup)
             groups.erase(it);
     }
-    result.inputs.push_back({"cohort", settings.cohortFile, cohortHash.get(), audit.rowsRead});
+    auto cohortFingerprint = cohortHash.get();
+    if (!cohortFingerprint)
+        return std::unexpected(cohortFingerprint.error());
+    result.inputs.push_back({"cohort", settings.cohortFile, std::move(*cohortFingerprint), audit.rowsRead});
     if (outcomesTable)
         result.inputs.push_back({"outcomes", *settings.outcomesFile, outcomesHash, audit.join->outcomeRows});
     return result;

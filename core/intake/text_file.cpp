@@ -1,7 +1,8 @@
 #include "intake/text_file.hpp"
 
+#include "intake/sha256_stream.hpp"
+
 #include <algorithm>
-#include <cstdio>
 #include <cerrno>
 #include <cstdint>
 #include <cstring>
@@ -14,6 +15,10 @@ namespace plumbline {
 namespace {
 
 constexpr std::string_view utf8Bom = "\xEF\xBB\xBF";
+
+// The checks of a file's kind (byte-order marks, UTF-16 without one) look at the first 4096 bytes
+// of the text, which may follow a three-byte mark.
+constexpr std::size_t headBytes = 4096 + 3;
 
 bool startsWith(std::string_view text, std::string_view prefix)
 {
@@ -74,16 +79,72 @@ bool looksLikeUtf16(std::string_view text)
 TextFile::TextFile(std::string name, std::string bytes)
     : m_name(std::move(name))
     , m_bytes(std::move(bytes))
+    , m_size(m_bytes.size())
+    , m_head(m_bytes.substr(0, headBytes))
     , m_textStart(startsWith(m_bytes, utf8Bom) ? utf8Bom.size() : 0)
 {
 }
 
-std::string_view TextFile::text() const
+TextFile::TextFile(std::string name, std::shared_ptr<const ReadOnlyFile> file, std::size_t size, std::string head,
+                   std::size_t blockBytes)
+    : m_name(std::move(name))
+    , m_file(std::move(file))
+    , m_size(size)
+    , m_head(std::move(head))
+    , m_textStart(startsWith(m_head, utf8Bom) ? utf8Bom.size() : 0)
+    , m_blockBytes(std::max<std::size_t>(blockBytes, 1))
 {
-    return std::string_view(m_bytes).substr(m_textStart);
 }
 
-std::expected<TextFile, InputError> TextFile::load(const std::string& path, std::size_t maxLineBytes)
+TextBlocks TextFile::byteBlocks() const
+{
+    if (!m_file)
+        return TextBlocks(m_bytes);
+    return TextBlocks(*m_file, 0, m_size, m_blockBytes);
+}
+
+std::expected<bool, InputError> TextFile::advance(TextBlocks& blocks, std::size_t consumed) const
+{
+    blocks.consume(consumed);
+    const auto more = blocks.readMore();
+    if (!more)
+        return std::unexpected(readFailure(more.error()));
+    return *more;
+}
+
+TextBlocks TextFile::textBlocks(std::size_t from) const
+{
+    from = std::min(from, textSize());
+    if (!m_file)
+        return TextBlocks(std::string_view(m_bytes).substr(m_textStart + from));
+    return TextBlocks(*m_file, m_textStart + from, m_size, m_blockBytes);
+}
+
+InputError TextFile::readFailure(const std::string& problem) const
+{
+    InputError error;
+    error.file = m_name;
+    error.problem = problem;
+    error.remedy = "wait until no other program is writing the file (or work on a copy of it), then run again.";
+    return error;
+}
+
+std::expected<std::string, InputError> TextFile::readText(std::size_t begin, std::size_t end) const
+{
+    begin = std::min(begin, textSize());
+    end = std::clamp(end, begin, textSize());
+    if (!m_file)
+        return m_bytes.substr(m_textStart + begin, end - begin);
+    std::string out(end - begin, '\0');
+    const auto got = m_file->readAt(m_textStart + begin, out.data(), out.size());
+    if (!got)
+        return std::unexpected(readFailure("the file could not be read (" + got.error() + ")."));
+    if (*got < out.size())
+        return std::unexpected(readFailure("the file became shorter while it was read: another program is changing it."));
+    return out;
+}
+
+std::expected<TextFile, InputError> TextFile::load(const std::string& path, std::size_t maxLineBytes, std::size_t blockBytes)
 {
     InputError error;
     error.file = path;
@@ -105,78 +166,140 @@ std::expected<TextFile, InputError> TextFile::load(const std::string& path, std:
         error.remedy = "save the data to a file and choose that file.";
         return std::unexpected(error);
     }
-    std::unique_ptr<std::FILE, int (*)(std::FILE*)> file(std::fopen(path.c_str(), "rb"), &std::fclose);
-    if (!file) {
-        error.problem = std::string("the file cannot be opened (") + std::strerror(errno) + ").";
+    auto opened = ReadOnlyFile::open(path);
+    if (!opened) {
+        error.problem = "the file cannot be opened (" + opened.error() + ").";
         error.remedy = "check the path and that you may read the file.";
         return std::unexpected(error);
     }
-    std::string bytes;
-    if (status.st_size > 0)
-        bytes.reserve(static_cast<std::size_t>(status.st_size));
-    char buffer[1 << 16];
-    std::size_t got = 0;
-    std::size_t lineLength = 0, lines = 1; // bytes since the last line break, and its line number
-    while ((got = std::fread(buffer, 1, sizeof buffer, file.get())) > 0) {
-        for (const char *p = buffer, *end = buffer + got; p < end;) {
-            const auto* lineBreak = static_cast<const char*>(std::memchr(p, '\n', std::size_t(end - p)));
-            const std::size_t run = std::size_t((lineBreak ? lineBreak : end) - p);
-            if (lineLength + run > maxLineBytes) {
-                error.line = lines;
-                error.problem = "line " + std::to_string(lines) + " is longer than " + std::to_string(maxLineBytes)
-                    + " bytes, so this is not a table of patients (a document, a binary file, or a file without line breaks).";
-                error.remedy = "check that this is the cohort file; if one line really is that long, raise the limit with "
-                               "--max-line-length BYTES.";
+    auto file = std::make_shared<const ReadOnlyFile>(std::move(*opened));
+    struct stat described {};
+    const bool sized = ::fstat(file->descriptor(), &described) == 0 && S_ISREG(described.st_mode) && described.st_size > 0;
+    std::optional<TextFile> loaded;
+    if (sized) {
+        // Passes read the file in blocks from here on, up to the size it has now.
+        std::string head(std::min<std::size_t>(headBytes, static_cast<std::size_t>(described.st_size)), '\0');
+        const auto got = file->readAt(0, head.data(), head.size());
+        if (!got) {
+            error.problem = "the file could not be read (" + got.error() + ").";
+            error.remedy = "check that you may read the file.";
+            return std::unexpected(error);
+        }
+        head.resize(*got);
+        loaded = TextFile(path, std::move(file), static_cast<std::size_t>(described.st_size), std::move(head), blockBytes);
+    } else {
+        // A regular file that reports no size (such as those under /proc) is read whole.
+        std::string bytes;
+        char buffer[1 << 16];
+        for (;;) {
+            const auto got = file->readAt(bytes.size(), buffer, sizeof buffer);
+            if (!got) {
+                error.problem = "the file could not be read to the end.";
+                error.remedy = "check that the file is not a folder and is not being written to.";
                 return std::unexpected(error);
             }
-            if (!lineBreak) {
-                lineLength += run;
+            bytes.append(buffer, *got);
+            if (*got < sizeof buffer)
                 break;
-            }
-            lineLength = 0;
-            ++lines;
-            p = lineBreak + 1;
         }
-        bytes.append(buffer, got);
+        loaded = TextFile(path, std::move(bytes));
+        loaded->m_blockBytes = std::max<std::size_t>(blockBytes, 1);
     }
-    if (std::ferror(file.get())) {
-        error.problem = "the file could not be read to the end.";
-        error.remedy = "check that the file is not a folder and is not being written to.";
+    const auto tooLong = loaded->firstLineLongerThan(maxLineBytes);
+    if (!tooLong)
+        return std::unexpected(tooLong.error());
+    if (*tooLong) {
+        error.line = **tooLong;
+        error.problem = "line " + std::to_string(**tooLong) + " is longer than " + std::to_string(maxLineBytes)
+            + " bytes, so this is not a table of patients (a document, a binary file, or a file without line breaks).";
+        error.remedy = "check that this is the cohort file; if one line really is that long, raise the limit with "
+                       "--max-line-length BYTES.";
         return std::unexpected(error);
     }
-    return checked(path, std::move(bytes));
+    return checked(std::move(*loaded));
+}
+
+std::expected<std::optional<std::size_t>, InputError> TextFile::firstLineLongerThan(std::size_t maxLineBytes) const
+{
+    // Over the raw bytes, byte-order mark included, as lines are counted from the file's start.
+    // Each block is searched for line breaks as it comes, so a file without line breaks is
+    // refused after reading little more than the limit.
+    TextBlocks blocks = byteBlocks();
+    std::size_t lineStart = 0, lines = 1;
+    for (;;) {
+        const std::string_view block = blocks.view();
+        const std::size_t base = blocks.offset();
+        for (std::size_t pos = 0; pos < block.size();) {
+            const auto* lineBreak = static_cast<const char*>(std::memchr(block.data() + pos, '\n', block.size() - pos));
+            if (!lineBreak)
+                break;
+            if (base + std::size_t(lineBreak - block.data()) - lineStart > maxLineBytes)
+                return lines;
+            ++lines;
+            pos = std::size_t(lineBreak - block.data()) + 1;
+            lineStart = base + pos;
+        }
+        if (base + block.size() - lineStart > maxLineBytes)
+            return lines;
+        const auto more = advance(blocks, block.size());
+        if (!more)
+            return std::unexpected(more.error());
+        if (!*more)
+            return std::nullopt;
+    }
+}
+
+std::expected<std::string, InputError> TextFile::fingerprint() const
+{
+    TextBlocks blocks = byteBlocks();
+    Sha256Stream digest;
+    for (;;) {
+        digest.update(blocks.view());
+        const auto more = advance(blocks, blocks.view().size());
+        if (!more)
+            return std::unexpected(more.error());
+        if (!*more)
+            return digest.hexDigest();
+    }
 }
 
 std::expected<TextFile, InputError> TextFile::fromBytes(std::string name, std::string bytes)
 {
-    return checked(std::move(name), std::move(bytes));
+    return checked(TextFile(std::move(name), std::move(bytes)));
 }
 
-std::expected<TextFile, InputError> TextFile::checked(std::string name, std::string bytes)
+std::expected<TextFile, InputError> TextFile::checked(TextFile file)
 {
     InputError error;
-    error.file = name;
-    if (startsWith(bytes, "\xFF\xFE") || startsWith(bytes, "\xFE\xFF")) {
+    error.file = file.name();
+    if (startsWith(file.m_head, "\xFF\xFE") || startsWith(file.m_head, "\xFE\xFF")) {
         error.line = 1;
         error.problem = "the file is UTF-16 encoded; Plumbline reads UTF-8 text.";
         error.remedy = "save the file as 'CSV UTF-8' (or convert it with iconv -f UTF-16 -t UTF-8).";
         return std::unexpected(error);
     }
-    TextFile file(std::move(name), std::move(bytes));
-    const std::string_view text = file.text();
-    if (std::all_of(text.begin(), text.end(), [](char c) { return c == '\n' || c == '\r' || c == ' ' || c == '\t'; })) {
+    const auto blank = file.onlyBlank();
+    if (!blank)
+        return std::unexpected(blank.error());
+    if (*blank) {
         error.problem = "the file is empty.";
         error.remedy = "choose the file that holds the cohort, with a header row and one row per patient.";
         return std::unexpected(error);
     }
-    if (looksLikeUtf16(text)) {
+    if (looksLikeUtf16(std::string_view(file.m_head).substr(file.m_textStart))) {
         error.line = 1;
         error.problem = "the file looks UTF-16 encoded (every other byte is zero) without a byte-order mark; Plumbline reads UTF-8 text.";
         error.remedy = "save the file as 'CSV UTF-8' (or convert it with iconv -f UTF-16LE -t UTF-8, or UTF-16BE).";
         return std::unexpected(error);
     }
-    if (const auto nul = text.find('\0'); nul != std::string_view::npos) {
-        error.line = file.lineOfOffset(nul);
+    const auto nul = file.firstNul();
+    if (!nul)
+        return std::unexpected(nul.error());
+    if (*nul) {
+        const auto position = file.positionOf(**nul);
+        if (!position)
+            return std::unexpected(position.error());
+        error.line = position->line;
         error.problem = "the file holds binary data (a NUL byte), so it is not a delimited text file.";
         error.remedy = "export the data as CSV or tab-separated text; spreadsheets (.xlsx) must be saved as CSV first.";
         return std::unexpected(error);
@@ -184,32 +307,87 @@ std::expected<TextFile, InputError> TextFile::checked(std::string name, std::str
     return file;
 }
 
-std::optional<std::size_t> TextFile::firstInvalidUtf8() const
+std::expected<bool, InputError> TextFile::onlyBlank() const
 {
-    const std::string_view s = text();
-    std::size_t i = 0;
-    while (i < s.size()) {
-        // Fast path: eight ASCII bytes at a time.
-        if (i + 8 <= s.size()) {
-            std::uint64_t word = 0;
-            std::memcpy(&word, s.data() + i, 8);
-            if ((word & 0x8080808080808080ULL) == 0) {
-                i += 8;
-                continue;
-            }
-        }
-        const std::size_t length = utf8SequenceLength(s, i);
-        if (length == 0)
-            return i;
-        i += length;
+    TextBlocks blocks = textBlocks();
+    for (;;) {
+        const std::string_view block = blocks.view();
+        if (block.find_first_not_of("\n\r \t") != std::string_view::npos)
+            return false;
+        const auto more = advance(blocks, block.size());
+        if (!more)
+            return std::unexpected(more.error());
+        if (!*more)
+            return true;
     }
-    return std::nullopt;
 }
 
-std::size_t TextFile::lineOfOffset(std::size_t offset) const
+std::expected<std::optional<std::size_t>, InputError> TextFile::firstNul() const
 {
-    const std::string_view s = text().substr(0, offset);
-    return 1 + static_cast<std::size_t>(std::count(s.begin(), s.end(), '\n'));
+    TextBlocks blocks = textBlocks();
+    for (;;) {
+        const std::string_view block = blocks.view();
+        if (const std::size_t nul = block.find('\0'); nul != std::string_view::npos)
+            return blocks.offset() + nul;
+        const auto more = advance(blocks, block.size());
+        if (!more)
+            return std::unexpected(more.error());
+        if (!*more)
+            return std::nullopt;
+    }
+}
+
+std::expected<std::optional<std::size_t>, InputError> TextFile::firstInvalidUtf8() const
+{
+    TextBlocks blocks = textBlocks();
+    for (;;) {
+        const std::string_view s = blocks.view();
+        // A sequence cut by the block's end is judged once the next block is appended to it.
+        const std::size_t judged = blocks.atEnd() || s.size() < 4 ? (blocks.atEnd() ? s.size() : 0) : s.size() - 3;
+        std::size_t i = 0;
+        while (i < judged) {
+            // Fast path: eight ASCII bytes at a time.
+            if (i + 8 <= s.size()) {
+                std::uint64_t word = 0;
+                std::memcpy(&word, s.data() + i, 8);
+                if ((word & 0x8080808080808080ULL) == 0) {
+                    i += 8;
+                    continue;
+                }
+            }
+            const std::size_t length = utf8SequenceLength(s, i);
+            if (length == 0)
+                return blocks.offset() + i;
+            i += length;
+        }
+        const auto more = advance(blocks, std::min(i, s.size()));
+        if (!more)
+            return std::unexpected(more.error());
+        if (!*more)
+            return std::nullopt; // every sequence was judged
+    }
+}
+
+std::expected<TextPosition, InputError> TextFile::positionOf(std::size_t offset) const
+{
+    offset = std::min(offset, textSize());
+    TextBlocks blocks = textBlocks();
+    TextPosition position;
+    for (;;) {
+        const std::string_view block = blocks.view().substr(0, offset - blocks.offset());
+        for (std::size_t at = block.find('\n'); at != std::string_view::npos; at = block.find('\n', at + 1)) {
+            ++position.line;
+            position.lineStart = blocks.offset() + at + 1;
+        }
+        blocks.consume(block.size());
+        if (blocks.offset() == offset)
+            return position;
+        const auto more = blocks.readMore();
+        if (!more)
+            return std::unexpected(readFailure(more.error()));
+        if (!*more)
+            return position;
+    }
 }
 
 } // namespace plumbline

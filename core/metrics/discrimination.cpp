@@ -5,6 +5,7 @@
 #include <algorithm>
 #include <cmath>
 #include <numeric>
+#include <optional>
 
 namespace plumbline {
 
@@ -17,26 +18,31 @@ Placements delongPlacements(std::span<const std::uint8_t> outcome, std::span<con
     Placements out;
     if (m == 0 || n == 0)
         return out;
-    // What the sweep needs of each row, packed and laid out in data order (one sequential pass):
-    // the sweep in score order then reads one 16-byte entry per row at a random place instead of
-    // the score, the outcome and the class position from three arrays (ten million rows: three
-    // cache misses per row become one), and fetches ahead of itself.
+    // Each row's position among the events (or non-events) in data order, where its placement
+    // goes: 4 bytes a row, one sequential pass. (Packing score, outcome and position into 16
+    // bytes a row saved cache misses in the sweep but cost 160 MB at ten million rows, held by
+    // both models' panels at once; the sweep fetches the three ahead of itself instead.)
     struct RowKey {
         double score;
-        std::uint32_t classIndex; // position among the events (or non-events) in data order
+        std::uint32_t classIndex;
         std::uint32_t event;
     };
-    std::vector<RowKey> keys(total);
+    std::vector<std::uint32_t> classIndex(total);
     std::size_t eventsSeen = 0, nonEventsSeen = 0;
     for (std::size_t i = 0; i < total; ++i)
-        keys[i] = {score[i], static_cast<std::uint32_t>(outcome[i] ? eventsSeen++ : nonEventsSeen++), outcome[i] ? 1u : 0u};
+        classIndex[i] = static_cast<std::uint32_t>(outcome[i] ? eventsSeen++ : nonEventsSeen++);
     out.eventPlacements.resize(m);
     out.nonEventPlacements.resize(n);
     constexpr std::size_t ahead = 16;
-    auto key = [&](std::size_t j) -> const RowKey& {
-        if (j + ahead < total)
-            __builtin_prefetch(&keys[order[j + ahead]]);
-        return keys[order[j]];
+    auto key = [&](std::size_t j) -> RowKey {
+        if (j + ahead < total) {
+            const std::uint32_t later = order[j + ahead];
+            __builtin_prefetch(&score[later]);
+            __builtin_prefetch(&outcome[later]);
+            __builtin_prefetch(&classIndex[later]);
+        }
+        const std::uint32_t row = order[j];
+        return {score[row], classIndex[row], outcome[row] ? 1u : 0u};
     };
     // Sun & Xu: V10 = (rank among all − rank among events)/n, V01 = 1 − (rank among all − rank
     // among non-events)/m, all ranks mid-ranks; a tie block shares them.
@@ -50,7 +56,7 @@ Placements delongPlacements(std::span<const std::uint8_t> outcome, std::span<con
         std::size_t end = k + 1;
         std::size_t blockEvents = block.back().event;
         while (end < total) {
-            const RowKey& next = key(end);
+            const RowKey next = key(end);
             if (next.score != block.front().score)
                 break;
             block.push_back(next);
@@ -144,26 +150,133 @@ std::vector<RocPoint> rocCurve(std::span<const std::uint8_t> outcome, std::span<
     return rocCurve(outcome, score, ascendingOrder(score));
 }
 
+namespace {
+
+// The patients by ascending score, read through the shared order.
+struct ThroughOrder {
+    std::span<const std::uint8_t> outcome;
+    std::span<const double> scores;
+    const ScoreOrder& order;
+    std::size_t size() const { return order.size(); }
+    double score(std::size_t k) const { return scores[order[k]]; }
+    bool event(std::size_t k) const { return outcome[order[k]] != 0; }
+};
+
+// The same gathered into arrays in that order (9 bytes a patient), for walks repeated over it:
+// each walk then reads memory in sequence instead of at the order's random places.
+struct GatheredInOrder {
+    std::vector<double> scores;
+    std::vector<std::uint8_t> outcome;
+    explicit GatheredInOrder(const ThroughOrder& from)
+        : scores(from.size())
+        , outcome(from.size())
+    {
+        for (std::size_t k = 0; k < from.size(); ++k) {
+            scores[k] = from.score(k);
+            outcome[k] = from.event(k) ? 1 : 0;
+        }
+    }
+    std::size_t size() const { return scores.size(); }
+    double score(std::size_t k) const { return scores[k]; }
+    bool event(std::size_t k) const { return outcome[k] != 0; }
+};
+
+// Calls visit(point) for each point of the ROC curve, highest threshold first: walks the
+// patients by ascending score backwards, one point per tie block. False when a class is empty
+// (no curve).
+template <typename Patients, typename Visit>
+bool forEachRocPoint(const Patients& patients, double events, Visit&& visit)
+{
+    const double nonEvents = double(patients.size()) - events;
+    if (events == 0 || nonEvents == 0)
+        return false;
+    visit(RocPoint{patients.score(patients.size() - 1) + 1.0, 0.0, 1.0});
+    double tp = 0.0;
+    double fp = 0.0;
+    for (std::size_t k = patients.size(); k > 0;) {
+        const double threshold = patients.score(k - 1);
+        while (k > 0 && patients.score(k - 1) == threshold) {
+            (patients.event(k - 1) ? tp : fp) += 1.0;
+            --k;
+        }
+        visit(RocPoint{threshold, tp / events, 1.0 - fp / nonEvents});
+    }
+    return true;
+}
+
+// Drops the interior points of a curve that lie on the line from the last point kept to the
+// next one (they carry no area), taking the points one at a time: the first and last are kept.
+class CollinearFilter {
+public:
+    template <typename Keep>
+    void add(const RocPoint& point, Keep&& keep)
+    {
+        if (!m_started) {
+            m_started = true;
+            m_kept = point;
+            keep(point);
+            return;
+        }
+        if (m_pending) {
+            const RocPoint& a = m_kept;
+            const RocPoint& b = *m_pending;
+            const RocPoint& c = point;
+            const double cross = (b.specificity - a.specificity) * (c.sensitivity - a.sensitivity)
+                - (c.specificity - a.specificity) * (b.sensitivity - a.sensitivity);
+            if (std::abs(cross) > 1e-15) {
+                m_kept = b;
+                keep(b);
+            }
+        }
+        m_pending = point;
+    }
+    template <typename Keep>
+    void finish(Keep&& keep)
+    {
+        if (m_pending)
+            keep(*m_pending);
+    }
+
+private:
+    bool m_started = false;
+    RocPoint m_kept{};
+    std::optional<RocPoint> m_pending;
+};
+
+// Average precision, one point at a time, summed as averagePrecision sums it.
+class AveragePrecisionSum {
+public:
+    AveragePrecisionSum(double events, double nonEvents)
+        : m_events(events)
+        , m_nonEvents(nonEvents)
+    {
+    }
+    void add(const RocPoint& point)
+    {
+        if (m_previous) {
+            const double tp = point.sensitivity * m_events;
+            const double fp = (1.0 - point.specificity) * m_nonEvents;
+            const double precision = tp + fp > 0.0 ? tp / (tp + fp) : 1.0;
+            m_ap += (point.sensitivity - m_previous->sensitivity) * precision;
+        }
+        m_previous = point;
+    }
+    double value() const { return m_ap; }
+
+private:
+    double m_events, m_nonEvents;
+    double m_ap = 0.0;
+    std::optional<RocPoint> m_previous;
+};
+
+} // namespace
+
 std::vector<RocPoint> rocCurve(std::span<const std::uint8_t> outcome, std::span<const double> score,
                                const ScoreOrder& ascending)
 {
-    const double events = double(std::count(outcome.begin(), outcome.end(), std::uint8_t{1}));
-    const double nonEvents = double(outcome.size()) - events;
     std::vector<RocPoint> curve;
-    if (events == 0 || nonEvents == 0)
-        return curve;
-    // Highest score first: walk the shared ascending order backwards, one point per tie block.
-    curve.push_back({score[ascending.back()] + 1.0, 0.0, 1.0});
-    double tp = 0.0;
-    double fp = 0.0;
-    for (std::size_t k = ascending.size(); k > 0;) {
-        const double threshold = score[ascending[k - 1]];
-        while (k > 0 && score[ascending[k - 1]] == threshold) {
-            (outcome[ascending[k - 1]] ? tp : fp) += 1.0;
-            --k;
-        }
-        curve.push_back({threshold, tp / events, 1.0 - fp / nonEvents});
-    }
+    const double events = double(std::count(outcome.begin(), outcome.end(), std::uint8_t{1}));
+    forEachRocPoint(ThroughOrder{outcome, score, ascending}, events, [&](const RocPoint& point) { curve.push_back(point); });
     return curve;
 }
 
@@ -173,17 +286,12 @@ std::vector<RocPoint> thinRocCurve(const std::vector<RocPoint>& curve, std::size
         return curve;
     // Drop collinear interior points first: they carry no area. Then keep an even spread by
     // false-positive rate, always keeping the ends, so the chart keeps its shape.
-    std::vector<RocPoint> kept{curve.front()};
-    for (std::size_t i = 1; i + 1 < curve.size(); ++i) {
-        const RocPoint& a = kept.back();
-        const RocPoint& b = curve[i];
-        const RocPoint& c = curve[i + 1];
-        const double cross = (b.specificity - a.specificity) * (c.sensitivity - a.sensitivity)
-            - (c.specificity - a.specificity) * (b.sensitivity - a.sensitivity);
-        if (std::abs(cross) > 1e-15)
-            kept.push_back(b);
-    }
-    kept.push_back(curve.back());
+    std::vector<RocPoint> kept;
+    CollinearFilter filter;
+    const auto keep = [&](const RocPoint& point) { kept.push_back(point); };
+    for (const RocPoint& point : curve)
+        filter.add(point, keep);
+    filter.finish(keep);
     if (kept.size() <= maxPoints)
         return kept;
     std::vector<RocPoint> thinned;
@@ -191,6 +299,49 @@ std::vector<RocPoint> thinRocCurve(const std::vector<RocPoint>& curve, std::size
     for (std::size_t k = 0; k < maxPoints; ++k)
         thinned.push_back(kept[static_cast<std::size_t>(std::llround(double(k) * step))]);
     return thinned;
+}
+
+RocSummary rocSummary(std::span<const std::uint8_t> outcome, std::span<const double> score, const ScoreOrder& ascending,
+                      std::size_t maxPoints)
+{
+    // Two walks over the patients by score instead of a curve in memory (24 bytes per distinct
+    // score): the first sums the average precision and counts the points and those the thinning
+    // keeps, the second gathers the points to show.
+    const auto events = static_cast<std::size_t>(std::count(outcome.begin(), outcome.end(), std::uint8_t{1}));
+    const GatheredInOrder patients(ThroughOrder{outcome, score, ascending});
+    AveragePrecisionSum ap(double(events), double(outcome.size() - events));
+    CollinearFilter counting;
+    std::size_t points = 0, kept = 0;
+    const bool any = forEachRocPoint(patients, double(events), [&](const RocPoint& point) {
+        ap.add(point);
+        ++points;
+        counting.add(point, [&](const RocPoint&) { ++kept; });
+    });
+    counting.finish([&](const RocPoint&) { ++kept; });
+    RocSummary out;
+    if (!any)
+        return out;
+    out.averagePrecision = ap.value();
+    if (points <= maxPoints || maxPoints < 2) {
+        forEachRocPoint(patients, double(events), [&](const RocPoint& point) { out.thinned.push_back(point); });
+        return out;
+    }
+    // Kept point j is shown when it is the next of round(k·step), k = 0 … maxPoints − 1 (all of
+    // them when no more than maxPoints are kept), as thinRocCurve picks them.
+    const bool all = kept <= maxPoints;
+    const double step = all ? 1.0 : double(kept - 1) / double(maxPoints - 1);
+    std::size_t index = 0, next = 0;
+    const auto show = [&](const RocPoint& point) {
+        if (all || (next < maxPoints && index == static_cast<std::size_t>(std::llround(double(next) * step)))) {
+            out.thinned.push_back(point);
+            ++next;
+        }
+        ++index;
+    };
+    CollinearFilter filter;
+    forEachRocPoint(patients, double(events), [&](const RocPoint& point) { filter.add(point, show); });
+    filter.finish(show);
+    return out;
 }
 
 std::optional<double> averagePrecision(std::span<const std::uint8_t> outcome, std::span<const double> score)

@@ -5,6 +5,7 @@
 
 #include <cstddef>
 #include <cstdint>
+#include <optional>
 #include <span>
 #include <vector>
 
@@ -57,6 +58,15 @@ std::vector<RocPoint> rocCurve(std::span<const std::uint8_t> outcome, std::span<
 // curve is kept with both ends, which changes the trapezoidal area by far less than 0.001 on
 // dense curves (tested). Reported C statistics always come from the full data.
 std::vector<RocPoint> thinRocCurve(const std::vector<RocPoint>& curve, std::size_t maxPoints);
+
+// thinRocCurve(rocCurve(…), maxPoints) and averagePrecision of the same curve, without holding
+// the curve (24 bytes per distinct score). averagePrecision is empty when a class is empty.
+struct RocSummary {
+    std::vector<RocPoint> thinned;
+    std::optional<double> averagePrecision;
+};
+RocSummary rocSummary(std::span<const std::uint8_t> outcome, std::span<const double> score, const ScoreOrder& order,
+                      std::size_t maxPoints);
 
 // Area under the precision–recall curve as average precision, step-wise: Σ (R_k − R_{k−1}) P_k
 // over distinct thresholds (the definition of scikit-learn's average_precision_score).

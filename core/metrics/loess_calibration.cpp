@@ -211,50 +211,61 @@ std::size_t RiskPoints::occupied() const
     return static_cast<std::size_t>(std::count_if(count.begin(), count.end(), [](double c) { return c > 0.0; }));
 }
 
+namespace {
+
+constexpr std::size_t minimumDistinct = 10; // fewer: a points score, not a smooth risk [common practice]
+
+// Calls visit(risk, patients, events) for each distinct risk in ascending order: the points
+// collapseRisks makes, with the same sums.
+template <typename Visit>
+void forEachDistinctRisk(std::span<const std::uint8_t> y, std::span<const double> p, const ScoreOrder& order, Visit&& visit)
+{
+    for (std::size_t k = 0; k < order.size();) {
+        const double x = p[order[k]];
+        double count = 0.0, events = 0.0;
+        do {
+            count += 1.0;
+            events += y[order[k]];
+            ++k;
+        } while (k < order.size() && p[order[k]] == x);
+        visit(x, count, events);
+    }
+}
+
+} // namespace
+
 RiskSupport collapseRisks(std::span<const std::uint8_t> y, std::span<const double> p, const ScoreOrder& order)
 {
+    // Sized first: grown by doubling, the three arrays of a support as large as the cohort (a
+    // risk per patient, written with many decimals) would briefly need half as much again.
+    std::size_t distinct = 0;
+    forEachDistinctRisk(y, p, order, [&](double, double, double) { ++distinct; });
     RiskSupport s;
-    for (std::size_t k = 0; k < order.size(); ++k) {
-        const double x = p[order[k]];
-        if (s.x.empty() || x != s.x.back()) {
-            s.x.push_back(x);
-            s.count.push_back(0.0);
-            s.events.push_back(0.0);
-        }
-        s.count.back() += 1.0;
-        s.events.back() += y[order[k]];
-    }
+    s.x.reserve(distinct);
+    s.count.reserve(distinct);
+    s.events.reserve(distinct);
+    forEachDistinctRisk(y, p, order, [&](double x, double count, double events) {
+        s.x.push_back(x);
+        s.count.push_back(count);
+        s.events.push_back(events);
+    });
     return s;
 }
 
-bool loessInto(const RiskPoints& full, const LoessOptions& options, LoessSummary& out)
+namespace {
+
+// The curve at every point of s: a local fit at each (exact), or at up to maxVertices of them
+// with straight lines between (binned: the bins are dense, the curve smooth). False when a fit
+// fails or a stop is requested.
+bool fitCurve(const RiskPoints& s, double q, bool binned, const LoessOptions& options, std::vector<double>& curve)
 {
-    constexpr std::size_t minimumDistinct = 10; // fewer: a points score, not a smooth risk [common practice]
-    double n = 0.0;
-    std::size_t occupied = 0;
-    for (const double c : full.count) {
-        n += c;
-        occupied += c > 0.0;
-    }
-    const double q = std::floor(n * options.span);
-    if (occupied < minimumDistinct || q < 3.0)
-        return false;
-    out.ici = out.e50 = out.e90 = out.emax = 0.0;
-    out.binned = n > double(options.exactUpTo) && occupied > options.maxSupportPoints;
-    // Buffers kept per thread: bootstrap replicates call this again and again.
-    thread_local RiskSupport binnedSupport;
-    if (out.binned)
-        binInto(full, options.maxSupportPoints, binnedSupport);
-    const RiskPoints s = out.binned ? binnedSupport.points() : full;
-    thread_local std::vector<double> curve, cumulative;
+    thread_local std::vector<double> cumulative;
     curve.assign(s.x.size(), 0.0);
     cumulative.resize(s.x.size() + 1);
     cumulative[0] = 0.0;
     for (std::size_t i = 0; i < s.x.size(); ++i)
         cumulative[i + 1] = cumulative[i] + s.count[i];
-    // Binned: fits at up to maxVertices bin positions, straight lines between them (the bins
-    // are dense, the curve smooth). Exact: a fit at every distinct risk.
-    const std::size_t stride = out.binned ? (s.x.size() + options.maxVertices - 1) / options.maxVertices : 1;
+    const std::size_t stride = binned ? (s.x.size() + options.maxVertices - 1) / options.maxVertices : 1;
     thread_local std::vector<std::size_t> vertices;
     vertices.clear();
     for (std::size_t i = 0; i < s.x.size(); i += stride)
@@ -294,67 +305,181 @@ bool loessInto(const RiskPoints& full, const LoessOptions& options, LoessSummary
         for (std::size_t j = previous + 1; j < i; ++j)
             curve[j] = curve[previous] + (s.x[j] - s.x[previous]) / (s.x[i] - s.x[previous]) * (curve[i] - curve[previous]);
     }
+    return true;
+}
+
+// A binned curve read at ascending risks: linear between bin positions, held beyond the first
+// and the last.
+class CurveBetweenBins {
+public:
+    CurveBetweenBins(std::span<const double> x, std::span<const double> curve)
+        : m_x(x)
+        , m_curve(curve)
+    {
+    }
+    double at(double x)
+    {
+        while (m_j + 1 < m_x.size() && m_x[m_j + 1] <= x)
+            ++m_j;
+        if (x > m_x[m_j] && m_j + 1 < m_x.size())
+            return m_curve[m_j] + (x - m_x[m_j]) / (m_x[m_j + 1] - m_x[m_j]) * (m_curve[m_j + 1] - m_curve[m_j]);
+        return m_curve[m_j]; // at a bin position, or beyond the first or last: hold the end
+    }
+
+private:
+    std::span<const double> m_x, m_curve;
+    std::size_t m_j = 0;
+};
+
+// ICI, Emax, E50 and E90 of |curve − risk| over patients, from the distinct risks one at a time.
+// A local object, its add() inlined: the compiler then keeps the sums in registers while the
+// distances are stored (a sum kept in an object the caller owns could alias those stores).
+class DistanceSummary {
+public:
+    DistanceSummary(std::vector<double>& distance, std::size_t points)
+        : m_distance(distance)
+        , m_buckets(threadBuckets())
+        , m_filler(m_buckets)
+    {
+        m_distance.resize(points);
+    }
+    // Branch-free (which points hold patients is random): a point without patients adds an
+    // exact zero to the sum and a zero to the maximum. The distances' counts by bucket, for E50
+    // and E90, are gathered here rather than in another pass over them.
+    void add(std::size_t k, double fitted, double x, double count)
+    {
+        const double d = std::abs(fitted - x);
+        m_distance[k] = d;
+        m_finite = m_finite && std::isfinite(d);
+        m_sum += d * count;
+        m_emax = std::max(m_emax, count > 0.0 ? d : 0.0);
+        m_filler.add(d, count);
+    }
+    // False when a local fit overflowed: no curve rather than a meaningless one.
+    bool finish(std::span<const double> counts, double n, LoessSummary& out)
+    {
+        m_filler.finish();
+        out.ici = m_sum / n;
+        out.emax = m_emax;
+        if (!m_finite)
+            return false;
+        const double probabilities[] = {0.5, 0.9};
+        double quantiles[2];
+        weightedQuantilesType7(m_distance, counts, n, probabilities, quantiles, &m_buckets);
+        out.e50 = quantiles[0];
+        out.e90 = quantiles[1];
+        return true;
+    }
+
+private:
+    // The buckets' counts are kept per thread (a few thousand doubles), cleared for each use.
+    static QuantileBuckets& threadBuckets()
+    {
+        thread_local QuantileBuckets buckets;
+        buckets.clear();
+        return buckets;
+    }
+
+    std::vector<double>& m_distance;
+    QuantileBuckets& m_buckets;
+    QuantileBuckets::Filler m_filler;
+    double m_sum = 0.0, m_emax = 0.0;
+    bool m_finite = true;
+};
+
+// loessInto with the buffer of the points' distances from the curve given: the bootstrap's is
+// kept per thread between replicates, a single fit's is freed when it ends.
+bool loessIntoUsing(const RiskPoints& full, const LoessOptions& options, LoessSummary& out, std::vector<double>& distance)
+{
+    double n = 0.0;
+    std::size_t occupied = 0;
+    for (const double c : full.count) {
+        n += c;
+        occupied += c > 0.0;
+    }
+    const double q = std::floor(n * options.span);
+    if (occupied < minimumDistinct || q < 3.0)
+        return false;
+    out.ici = out.e50 = out.e90 = out.emax = 0.0;
+    out.binned = n > double(options.exactUpTo) && occupied > options.maxSupportPoints;
+    // Buffers kept per thread: bootstrap replicates call this again and again.
+    thread_local RiskSupport binnedSupport;
+    if (out.binned)
+        binInto(full, options.maxSupportPoints, binnedSupport);
+    const RiskPoints s = out.binned ? binnedSupport.points() : full;
+    thread_local std::vector<double> curve;
+    if (!fitCurve(s, q, out.binned, options, curve))
+        return false;
     // The fitted value at each distinct risk (its own fit, or interpolated between bin positions)
-    // and its distance from the risk, in one pass. Branch-free where it can be (which points hold
-    // patients is random): a point without patients adds an exact zero to the sum and a zero to
-    // the maximum.
-    thread_local std::vector<double> distance;
-    distance.resize(full.x.size());
+    // and its distance from the risk, in one pass, through raw pointers.
     out.fitted.resize(full.x.size());
-    // Locals and raw pointers in this loop, so that the compiler keeps the sums in registers
-    // (a double member of `out` could alias the stores to the arrays).
-    double sum = 0.0, emax = 0.0;
-    bool finite = true;
-    // The counts of the distances by bucket, for E50 and E90, gathered here rather than in
-    // another pass over them.
-    thread_local QuantileBuckets buckets;
-    buckets.clear();
-    QuantileBuckets::Filler filler(buckets);
-    double* const fittedAt = out.fitted.data();
-    double* const distanceAt = distance.data();
-    const double* const xAt = full.x.data();
-    const double* const countAt = full.count.data();
-    auto measure = [&](std::size_t k, double fitted) {
-        fittedAt[k] = fitted;
-        const double d = std::abs(fitted - xAt[k]);
-        distanceAt[k] = d;
-        finite = finite && std::isfinite(d);
-        sum += d * countAt[k];
-        emax = std::max(emax, countAt[k] > 0.0 ? d : 0.0);
-        filler.add(d, countAt[k]);
-    };
+    double* const fitted = out.fitted.data();
+    const double* const x = full.x.data();
+    const double* const count = full.count.data();
+    DistanceSummary summary(distance, full.x.size());
     if (!out.binned) {
-        for (std::size_t k = 0; k < full.x.size(); ++k)
-            measure(k, curve[k]);
-    } else {
-        std::size_t j = 0;
         for (std::size_t k = 0; k < full.x.size(); ++k) {
-            const double x = xAt[k];
-            while (j + 1 < s.x.size() && s.x[j + 1] <= x)
-                ++j;
-            if (x > s.x[j] && j + 1 < s.x.size())
-                measure(k, curve[j] + (x - s.x[j]) / (s.x[j + 1] - s.x[j]) * (curve[j + 1] - curve[j]));
-            else
-                measure(k, curve[j]); // at a bin position, or beyond the first or last: hold the end
+            fitted[k] = curve[k];
+            summary.add(k, fitted[k], x[k], count[k]);
+        }
+    } else {
+        CurveBetweenBins between(s.x, curve);
+        for (std::size_t k = 0; k < full.x.size(); ++k) {
+            fitted[k] = between.at(x[k]);
+            summary.add(k, fitted[k], x[k], count[k]);
         }
     }
-    filler.finish();
-    out.emax = emax;
-    out.ici = sum / n;
-    if (!finite)
-        return false; // a local fit overflowed: no curve rather than a meaningless one
-    const double probabilities[] = {0.5, 0.9};
-    double quantiles[2];
-    weightedQuantilesType7(distance, full.count, n, probabilities, quantiles, &buckets);
-    out.e50 = quantiles[0];
-    out.e90 = quantiles[1];
-    return true;
+    return summary.finish(full.count, n, out);
+}
+
+// binInto of the support collapseRisks would make, filled as the order is walked: the same bins
+// with the same sums, without the support.
+void binOnOrder(std::span<const std::uint8_t> y, std::span<const double> p, const ScoreOrder& order, double lo, double hi,
+                std::size_t bins, RiskSupport& b)
+{
+    const double width = (hi - lo) / double(bins);
+    auto binOf = [&](double x) { return std::min(bins - 1, static_cast<std::size_t>((x - lo) / width)); };
+    b = RiskSupport{};
+    std::size_t index = 0;
+    double count = 0.0, events = 0.0, weightedX = 0.0;
+    auto close = [&] {
+        if (count > 0.0) {
+            b.x.push_back(weightedX / count);
+            b.count.push_back(count);
+            b.events.push_back(events);
+        }
+        count = events = weightedX = 0.0;
+    };
+    bool first = true;
+    forEachDistinctRisk(y, p, order, [&](double x, double patients, double pointEvents) {
+        if (first || binOf(x) != index) {
+            if (!first)
+                close();
+            index = binOf(x);
+            first = false;
+        }
+        count += patients;
+        events += pointEvents;
+        weightedX += x * patients;
+    });
+    close();
+}
+
+} // namespace
+
+bool loessInto(const RiskPoints& full, const LoessOptions& options, LoessSummary& out)
+{
+    thread_local std::vector<double> distance;
+    return loessIntoUsing(full, options, out, distance);
 }
 
 std::optional<LoessSummary> loessOnSupport(const RiskPoints& full, const LoessOptions& options)
 {
+    // A buffer of its own: a single fit on a large cohort would otherwise leave a double per
+    // distinct risk held by the thread for as long as it lives.
     LoessSummary out;
-    if (!loessInto(full, options, out))
+    std::vector<double> distance;
+    if (!loessIntoUsing(full, options, out, distance))
         return std::nullopt;
     return out;
 }
@@ -380,6 +505,60 @@ std::optional<LoessCalibration> loessCalibration(std::span<const std::uint8_t> o
             ++k;
         out.fitted[order[j]] = summary->fitted[k];
     }
+    return out;
+}
+
+std::optional<LoessCurve> loessCurve(std::span<const std::uint8_t> outcome, std::span<const double> risk, const ScoreOrder& order,
+                                     std::size_t points, const LoessOptions& options)
+{
+    std::size_t distinct = 0;
+    double first = 0.0, last = 0.0;
+    forEachDistinctRisk(outcome, risk, order, [&](double x, double, double) {
+        first = distinct++ == 0 ? x : first;
+        last = x;
+    });
+    // Whole numbers: the same double as the support's summed counts.
+    const double n = double(order.size());
+    const bool binned = n > double(options.exactUpTo) && distinct > options.maxSupportPoints;
+    LoessCurve out;
+    const std::size_t wanted = std::min(distinct, points);
+    // The k-th of `wanted` points sits at distinct risk k·(distinct − 1)/(wanted − 1).
+    auto pointAt = [&](std::size_t k) { return wanted == 1 ? 0 : k * (distinct - 1) / (wanted - 1); };
+    if (!binned) {
+        const RiskSupport support = collapseRisks(outcome, risk, order);
+        const auto summary = loessOnSupport(support, options);
+        if (!summary)
+            return std::nullopt;
+        out.summary = *summary;
+        for (std::size_t k = 0; k < wanted; ++k)
+            out.points.emplace_back(support.x[pointAt(k)], summary->fitted[pointAt(k)]);
+        out.summary.fitted.clear();
+        return out;
+    }
+    const double q = std::floor(n * options.span);
+    if (distinct < minimumDistinct || q < 3.0)
+        return std::nullopt;
+    out.summary.binned = true;
+    RiskSupport bins;
+    binOnOrder(outcome, risk, order, first, last, options.maxSupportPoints, bins);
+    std::vector<double> curve;
+    if (!fitCurve(bins.points(), q, true, options, curve))
+        return std::nullopt;
+    // The distances and counts of the distinct risks (two doubles each) are all that is held.
+    std::vector<double> distance, counts(distinct);
+    DistanceSummary summary(distance, distinct);
+    CurveBetweenBins between(bins.x, curve);
+    std::size_t k = 0, next = 0;
+    forEachDistinctRisk(outcome, risk, order, [&](double x, double patients, double) {
+        const double fitted = between.at(x);
+        summary.add(k, fitted, x, patients);
+        counts[k] = patients;
+        for (; next < wanted && pointAt(next) == k; ++next)
+            out.points.emplace_back(x, fitted);
+        ++k;
+    });
+    if (!summary.finish(counts, n, out.summary))
+        return std::nullopt;
     return out;
 }
 

@@ -7,6 +7,7 @@
 #include <optional>
 #include <stop_token>
 #include <span>
+#include <utility>
 #include <vector>
 
 namespace plumbline {
@@ -84,5 +85,19 @@ std::optional<LoessCalibration> loessCalibration(std::span<const std::uint8_t> o
 std::optional<LoessCalibration> loessCalibration(std::span<const std::uint8_t> outcome, std::span<const double> risk,
                                                  const LoessOptions& options = {});
 
+
+// The smoothed curve of a whole sample, read off its shared order, for its panel: the summary of
+// loessCalibration (ICI, E50, E90, Emax, binned; no fitted values) and `points` (risk, fitted)
+// pairs evenly spread over the distinct risks (the k-th of m at distinct risk k·(d − 1)/(m − 1)).
+// Binned, the support (three doubles per distinct risk) is never held: the bins are filled as
+// the order is walked, and the curve read at each distinct risk as it is walked again, keeping
+// only each risk's distance and count for E50 and E90. The same numbers as loessOnSupport of
+// collapseRisks.
+struct LoessCurve {
+    LoessSummary summary;
+    std::vector<std::pair<double, double>> points;
+};
+std::optional<LoessCurve> loessCurve(std::span<const std::uint8_t> outcome, std::span<const double> risk, const ScoreOrder& order,
+                                     std::size_t points, const LoessOptions& options = {});
 
 } // namespace plumbline

@@ -29,7 +29,8 @@ double logExpit(double x)
     return x >= 0 ? -std::log1p(std::exp(-x)) : x - std::log1p(std::exp(x));
 }
 
-double binomialLogLikelihood(const BinomialPoints& d, double a, double b)
+template <typename Points>
+double binomialLogLikelihood(const Points& d, double a, double b)
 {
     double ll = 0.0;
     for (std::size_t k = 0; k < d.lp.size(); ++k) {
@@ -58,18 +59,32 @@ std::vector<double>& riskBuffer()
     return buffer;
 }
 
-// Rows (0/1 outcome, optional frequency weights) as grouped data, one point per row.
+// Rows (0/1 outcome, optional frequency weights) read as grouped data, one point per row,
+// without copying them into two more row-sized arrays: a row's trials and events are worked out
+// where a sum reads them, as the same doubles a copy would hold, so every sum is unchanged.
+// Weights: doubles (frequency weights), or bytes 1 and 0 (in the fit or left out), read as the
+// doubles 1.0 and 0.0.
+template <typename Weight>
+struct RowTrials {
+    std::span<const Weight> weights;
+    double operator[](std::size_t i) const { return weights.empty() ? 1.0 : double(weights[i]); }
+};
+template <typename Weight>
+struct RowEvents {
+    std::span<const std::uint8_t> outcome;
+    RowTrials<Weight> trials;
+    double operator[](std::size_t i) const { return outcome[i] ? trials[i] : 0.0; }
+};
+template <typename Weight>
 struct RowPoints {
-    std::vector<double> events;
-    std::vector<double> trials;
-    RowPoints(std::span<const std::uint8_t> outcome, std::span<const double> weights)
-        : events(outcome.size())
-        , trials(outcome.size())
+    std::span<const double> lp;
+    RowEvents<Weight> events;
+    RowTrials<Weight> trials;
+    RowPoints(std::span<const std::uint8_t> outcome, std::span<const double> logits, std::span<const Weight> weights)
+        : lp(logits)
+        , events{outcome, {weights}}
+        , trials{weights}
     {
-        for (std::size_t i = 0; i < outcome.size(); ++i) {
-            trials[i] = weights.empty() ? 1.0 : weights[i];
-            events[i] = outcome[i] ? trials[i] : 0.0;
-        }
     }
 };
 
@@ -108,11 +123,20 @@ double logLikelihoodOfLogits(const BinomialPoints& points)
 double logLikelihoodOfLogits(std::span<const std::uint8_t> outcome, std::span<const double> lp,
                              std::span<const double> weights)
 {
-    const RowPoints rows(outcome, weights);
-    return logLikelihoodOfLogits(BinomialPoints{lp, rows.events, rows.trials});
+    return binomialLogLikelihood(RowPoints<double>(outcome, lp, weights), 0.0, 1.0);
 }
 
-std::optional<InterceptFit> fitCalibrationIntercept(const BinomialPoints& d, double start)
+double logLikelihoodOfLogits(std::span<const std::uint8_t> outcome, std::span<const double> lp,
+                             std::span<const std::uint8_t> included)
+{
+    return binomialLogLikelihood(RowPoints<std::uint8_t>(outcome, lp, included), 0.0, 1.0);
+}
+
+namespace {
+
+// Points: BinomialPoints, or RowPoints read in place.
+template <typename Points>
+std::optional<InterceptFit> interceptFit(const Points& d, double start)
 {
     double alpha = start;
     for (int iteration = 0; iteration < maxIterations; ++iteration) {
@@ -141,6 +165,13 @@ std::optional<InterceptFit> fitCalibrationIntercept(const BinomialPoints& d, dou
         }
     }
     return std::nullopt;
+}
+
+} // namespace
+
+std::optional<InterceptFit> fitCalibrationIntercept(const BinomialPoints& d, double start)
+{
+    return interceptFit(d, start);
 }
 
 std::optional<double> calibrationInterceptEstimate(const BinomialPoints& d, double start, const InterceptSums* atStart)
@@ -179,11 +210,20 @@ std::optional<double> calibrationInterceptEstimate(const BinomialPoints& d, doub
 std::optional<InterceptFit> fitCalibrationIntercept(std::span<const std::uint8_t> outcome, std::span<const double> lp,
                                                     std::span<const double> weights)
 {
-    const RowPoints rows(outcome, weights);
-    return fitCalibrationIntercept(BinomialPoints{lp, rows.events, rows.trials});
+    return interceptFit(RowPoints<double>(outcome, lp, weights), 0.0);
 }
 
-std::optional<SlopeFit> fitCalibrationSlope(const BinomialPoints& d, double startIntercept, double startSlope)
+std::optional<InterceptFit> fitCalibrationIntercept(std::span<const std::uint8_t> outcome, std::span<const double> lp,
+                                                    std::span<const std::uint8_t> included)
+{
+    return interceptFit(RowPoints<std::uint8_t>(outcome, lp, included), 0.0);
+}
+
+namespace {
+
+// Points: BinomialPoints, or RowPoints read in place.
+template <typename Points>
+std::optional<SlopeFit> slopeFit(const Points& d, double startIntercept, double startSlope)
 {
     double a = startIntercept;
     double b = startSlope;
@@ -228,6 +268,13 @@ std::optional<SlopeFit> fitCalibrationSlope(const BinomialPoints& d, double star
         }
     }
     return std::nullopt;
+}
+
+} // namespace
+
+std::optional<SlopeFit> fitCalibrationSlope(const BinomialPoints& d, double startIntercept, double startSlope)
+{
+    return slopeFit(d, startIntercept, startSlope);
 }
 
 std::optional<SlopeEstimate> calibrationSlopeEstimate(const BinomialPoints& d, double startIntercept, double startSlope,
@@ -279,8 +326,13 @@ std::optional<SlopeEstimate> calibrationSlopeEstimate(const BinomialPoints& d, d
 std::optional<SlopeFit> fitCalibrationSlope(std::span<const std::uint8_t> outcome, std::span<const double> lp,
                                             std::span<const double> weights, double startIntercept, double startSlope)
 {
-    const RowPoints rows(outcome, weights);
-    return fitCalibrationSlope(BinomialPoints{lp, rows.events, rows.trials}, startIntercept, startSlope);
+    return slopeFit(RowPoints<double>(outcome, lp, weights), startIntercept, startSlope);
+}
+
+std::optional<SlopeFit> fitCalibrationSlope(std::span<const std::uint8_t> outcome, std::span<const double> lp,
+                                            std::span<const std::uint8_t> included)
+{
+    return slopeFit(RowPoints<std::uint8_t>(outcome, lp, included), 0.0, 1.0);
 }
 
 } // namespace plumbline

@@ -61,6 +61,9 @@ std::optional<double> calibrationInterceptEstimate(const BinomialPoints& points,
                                                    const InterceptSums* atStart = nullptr);
 std::optional<InterceptFit> fitCalibrationIntercept(std::span<const std::uint8_t> outcome, std::span<const double> lp,
                                                     std::span<const double> weights = {});
+// The same with each row in the fit (1) or left out (0): a byte a row instead of a double.
+std::optional<InterceptFit> fitCalibrationIntercept(std::span<const std::uint8_t> outcome, std::span<const double> lp,
+                                                    std::span<const std::uint8_t> included);
 
 // Logistic recalibration: logit P(y=1) = a + b·lp by Newton–Raphson (Cox 1958); a, b with Wald
 // SEs. nullopt on separation or when lp is constant (the slope is then not identifiable).
@@ -109,10 +112,14 @@ void predictedRisksInto(std::span<const double> lp, double a, double b, std::vec
 std::optional<SlopeFit> fitCalibrationSlope(std::span<const std::uint8_t> outcome, std::span<const double> lp,
                                             std::span<const double> weights = {}, double startIntercept = 0.0,
                                             double startSlope = 1.0);
+std::optional<SlopeFit> fitCalibrationSlope(std::span<const std::uint8_t> outcome, std::span<const double> lp,
+                                            std::span<const std::uint8_t> included);
 
 // Log-likelihood of the unmodified risks, Σ y ln p + (1−y) ln(1−p), from clamped logits.
 double logLikelihoodOfLogits(const BinomialPoints& points);
 double logLikelihoodOfLogits(std::span<const std::uint8_t> outcome, std::span<const double> lp,
                              std::span<const double> weights = {});
+double logLikelihoodOfLogits(std::span<const std::uint8_t> outcome, std::span<const double> lp,
+                             std::span<const std::uint8_t> included);
 
 } // namespace plumbline

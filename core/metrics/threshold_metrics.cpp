@@ -1,5 +1,7 @@
 #include "metrics/threshold_metrics.hpp"
 
+#include "metrics/threshold_counts.hpp"
+
 #include <algorithm>
 
 namespace plumbline {
@@ -23,25 +25,20 @@ std::vector<ThresholdMetrics> thresholdMetrics(std::span<const std::uint8_t> out
                                                const ScoreOrder& order, std::span<const double> thresholds,
                                                double confidence, CiMethod method)
 {
-    // Risks of each class in ascending order from the shared order; each threshold is then a
-    // binary search.
-    std::vector<double> eventRisks;
-    std::vector<double> nonEventRisks;
-    for (const std::uint32_t row : order)
-        (outcome[row] ? eventRisks : nonEventRisks).push_back(risk[row]);
+    // Each threshold is a binary search in the shared order.
+    const std::vector<ThresholdCounts> above = countsAtOrAbove(outcome, risk, order, thresholds);
     const std::size_t n = outcome.size();
-    const double rate = n ? double(eventRisks.size()) / double(n) : 0.0;
+    const std::size_t events = static_cast<std::size_t>(std::count(outcome.begin(), outcome.end(), std::uint8_t{1}));
+    const double rate = n ? double(events) / double(n) : 0.0;
     std::vector<ThresholdMetrics> out;
-    for (double t : thresholds) {
+    for (std::size_t j = 0; j < thresholds.size(); ++j) {
+        const double t = thresholds[j];
         ThresholdMetrics m;
         m.threshold = t;
-        const auto atOrAbove = [t](const std::vector<double>& sorted) {
-            return std::size_t(sorted.end() - std::lower_bound(sorted.begin(), sorted.end(), t));
-        };
-        m.tp = atOrAbove(eventRisks);
-        m.fn = eventRisks.size() - m.tp;
-        m.fp = atOrAbove(nonEventRisks);
-        m.tn = nonEventRisks.size() - m.fp;
+        m.tp = above[j].events;
+        m.fn = events - m.tp;
+        m.fp = above[j].nonEvents;
+        m.tn = n - events - m.fp;
         m.sensitivity = proportion(m.tp, m.tp + m.fn, confidence, method);
         m.specificity = proportion(m.tn, m.tn + m.fp, confidence, method);
         m.ppv = proportion(m.tp, m.tp + m.fp, confidence, method);

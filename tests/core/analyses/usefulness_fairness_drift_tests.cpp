@@ -45,6 +45,26 @@ TEST_CASE("The decision curve matches the Toy-20 and Gen-1000 net benefit check 
     CHECK_THAT(genCurve[0].standardized, WithinAbs(0.738759, 5e-7));
 }
 
+TEST_CASE("The sample's decision curve from counts at or above each threshold equals the one from support points", "[decision]")
+{
+    for (const auto& data : {toy20A(), gen1000()}) {
+        const ScoreOrder order = ascendingOrder(data.p);
+        const ModelSupport support = buildModelSupport(data.p, order, true);
+        const std::vector<double> t = decisionGrid(0.01, 0.6, 0.01);
+        const auto fromSupport = decisionCurve(support, sampleCounts(support, data.y), t);
+        const auto events = static_cast<std::size_t>(std::count(data.y.begin(), data.y.end(), std::uint8_t{1}));
+        const auto fromCounts = decisionCurve(countsAtOrAbove(data.y, data.p, order, t), events, data.y.size(), t);
+        REQUIRE(fromCounts.size() == fromSupport.size());
+        for (std::size_t k = 0; k < t.size(); ++k) {
+            CHECK(fromCounts[k].threshold == fromSupport[k].threshold);
+            CHECK(fromCounts[k].netBenefit == fromSupport[k].netBenefit);
+            CHECK(fromCounts[k].treatAll == fromSupport[k].treatAll);
+            CHECK(fromCounts[k].standardized == fromSupport[k].standardized);
+            CHECK(fromCounts[k].netReductionPer100 == fromSupport[k].netReductionPer100);
+        }
+    }
+}
+
 TEST_CASE("The default decision grid runs from 0.05 to 0.50 by 0.01 with exact values", "[decision]")
 {
     const auto grid = decisionGrid(0.05, 0.50, 0.01);
@@ -162,6 +182,46 @@ TEST_CASE("A calibrated model without drift raises no drift flag", "[periods]")
     CHECK(periods->latestYearPeriods.back() == "2025-12");
     REQUIRE(periods->latestYear.size() == 1);
     CHECK_THAT(*periods->latestYear[0].oe.value, WithinAbs(1.0, 1e-12));
+}
+
+TEST_CASE("Periods computed with the cohort's score orders given equal those sorted on their own", "[periods]")
+{
+    const auto files = simulateCohort({24000, 20240101}, false);
+    IntakeSettings settings = settingsFor({"supplier_score", "local_score"}, "readmitted_30d");
+    settings.periodColumn = "discharge_date";
+    const auto intake = intakeOf(settings, files.cohort);
+    REQUIRE(intake);
+    const Cohort& cohort = intake->cohort;
+    const std::vector<ScoreOrder> orders{ascendingOrder(cohort.models[0].values), ascendingOrder(cohort.models[1].values)};
+    const auto own = analysePeriods(cohort, *cohort.period, std::nullopt, PeriodUnit::Month, 0.95);
+    const auto given = analysePeriods(cohort, *cohort.period, std::nullopt, PeriodUnit::Month, 0.95, false, &orders);
+    REQUIRE(own);
+    REQUIRE(given);
+    REQUIRE(own->results.size() == given->results.size());
+    const auto same = [](const Estimate& a, const Estimate& b) {
+        return a.value == b.value && a.se == b.se && a.lower == b.lower && a.upper == b.upper;
+    };
+    for (std::size_t k = 0; k < own->results.size(); ++k) {
+        CHECK(own->results[k].period == given->results[k].period);
+        CHECK(own->results[k].n == given->results[k].n);
+        CHECK(same(own->results[k].c, given->results[k].c));
+        CHECK(same(own->results[k].oe, given->results[k].oe));
+        CHECK(same(own->results[k].calibrationIntercept, given->results[k].calibrationIntercept));
+    }
+    REQUIRE(given->firstYear.size() == 2);
+    CHECK(same(own->firstYear[1].c, given->firstYear[1].c));
+    CHECK(same(own->latestYear[1].c, given->latestYear[1].c));
+    // The C statistic of a period is the one of its rows on their own.
+    std::vector<std::uint8_t> y;
+    std::vector<double> p;
+    for (std::size_t i = 0; i < cohort.rows(); ++i)
+        if (cohort.period->levels[cohort.period->codes[i]].starts_with("2024-03")) {
+            y.push_back(cohort.outcome[i]);
+            p.push_back(cohort.models[0].values[i]);
+        }
+    const auto march = std::find_if(given->results.begin(), given->results.end(), [](const PeriodResult& r) { return r.period == "2024-03"; });
+    REQUIRE(march != given->results.end());
+    CHECK(march->c.value == cStatistic(y, p, CStatisticScale::Logit, 0.95).value);
 }
 
 TEST_CASE("The latest months' O/E is pooled over the last 12 months after the first year", "[periods]")

@@ -160,3 +160,40 @@ TEST_CASE("Average precision matches the scikit-learn documentation example", "[
     const std::vector<double> s{0.1, 0.4, 0.35, 0.8};
     CHECK_THAT(*averagePrecision(y, s), WithinAbs(5.0 / 6.0, 1e-15));
 }
+
+TEST_CASE("The ROC summary walked twice equals the thinned stored curve and its average precision", "[discrimination]")
+{
+    // Risks with many ties (a coarse grid) and without (continuous), so that collinear runs,
+    // tie blocks and the even spread are all exercised; every maximum from 2 to above the size.
+    RandomStream random(11);
+    std::vector<std::uint8_t> y;
+    std::vector<double> coarse, fine;
+    for (int i = 0; i < 3000; ++i) {
+        fine.push_back(random.uniform());
+        coarse.push_back(double(random.below(60)) / 60.0);
+        y.push_back(random.uniform() < 0.3 + 0.4 * fine.back() ? 1 : 0);
+    }
+    for (const auto* p : {&coarse, &fine}) {
+        const ScoreOrder order = ascendingOrder(*p);
+        const auto curve = rocCurve(y, *p, order);
+        const auto events = static_cast<std::size_t>(std::count(y.begin(), y.end(), std::uint8_t{1}));
+        for (const std::size_t maxPoints : {std::size_t{0}, std::size_t{2}, std::size_t{3}, std::size_t{50}, std::size_t{200},
+                                            curve.size() - 1, curve.size(), std::size_t{100000}}) {
+            const RocSummary summary = rocSummary(y, *p, order, maxPoints);
+            const auto thinned = thinRocCurve(curve, maxPoints);
+            REQUIRE(summary.thinned.size() == thinned.size());
+            for (std::size_t k = 0; k < thinned.size(); ++k) {
+                CHECK(summary.thinned[k].threshold == thinned[k].threshold);
+                CHECK(summary.thinned[k].sensitivity == thinned[k].sensitivity);
+                CHECK(summary.thinned[k].specificity == thinned[k].specificity);
+            }
+            REQUIRE(summary.averagePrecision);
+            CHECK(*summary.averagePrecision == *averagePrecision(curve, events, y.size() - events));
+        }
+    }
+    const std::vector<std::uint8_t> oneClass(10, 1);
+    const std::vector<double> scores{0.1, 0.2, 0.3, 0.4, 0.5, 0.6, 0.7, 0.8, 0.9, 0.95};
+    const RocSummary none = rocSummary(oneClass, scores, ascendingOrder(scores), 200);
+    CHECK(none.thinned.empty());
+    CHECK_FALSE(none.averagePrecision);
+}

@@ -255,3 +255,53 @@ TEST_CASE("The searched neighbourhood gives the same fits as growing it point by
         }
     }
 }
+
+TEST_CASE("The sample's curve read off the order equals the loess of its collapsed support", "[loess]")
+{
+    // Risks with ties on a fine grid, binned (small thresholds for binning) and exact.
+    RandomStream random(5);
+    std::vector<std::uint8_t> y;
+    std::vector<double> p;
+    for (int i = 0; i < 6000; ++i) {
+        p.push_back(0.02 + double(random.below(4000)) / 4200.0);
+        y.push_back(random.uniform() < p.back() * 0.8 + 0.05 ? 1 : 0);
+    }
+    const ScoreOrder order = ascendingOrder(p);
+    const RiskSupport support = collapseRisks(y, p, order);
+    LoessOptions binned;
+    binned.exactUpTo = 1000;
+    binned.maxSupportPoints = 300;
+    binned.maxVertices = 60;
+    LoessOptions exact;
+    exact.exactUpTo = 100000;
+    for (const auto* options : {&binned, &exact}) {
+        const auto expected = loessOnSupport(support, *options);
+        REQUIRE(expected);
+        for (const std::size_t points : {std::size_t{1}, std::size_t{2}, std::size_t{101}, support.x.size() + 5}) {
+            const auto curve = loessCurve(y, p, order, points, *options);
+            REQUIRE(curve);
+            CHECK(curve->summary.binned == expected->binned);
+            CHECK(curve->summary.ici == expected->ici);
+            CHECK(curve->summary.e50 == expected->e50);
+            CHECK(curve->summary.e90 == expected->e90);
+            CHECK(curve->summary.emax == expected->emax);
+            const std::size_t wanted = std::min(points, support.x.size());
+            REQUIRE(curve->points.size() == wanted);
+            for (std::size_t k = 0; k < wanted; ++k) {
+                const std::size_t at = wanted == 1 ? 0 : k * (support.x.size() - 1) / (wanted - 1);
+                CHECK(curve->points[k].first == support.x[at]);
+                CHECK(curve->points[k].second == expected->fitted[at]);
+            }
+        }
+    }
+    CHECK(loessOnSupport(support, binned)->binned);
+    // Fewer than ten distinct risks: no curve, binned or not.
+    const std::vector<double> points{0.1, 0.2, 0.3, 0.4, 0.5, 0.6};
+    std::vector<double> few;
+    std::vector<std::uint8_t> fy;
+    for (int i = 0; i < 3000; ++i) {
+        few.push_back(points[std::size_t(i) % points.size()]);
+        fy.push_back(i % 3 == 0 ? 1 : 0);
+    }
+    CHECK_FALSE(loessCurve(fy, few, ascendingOrder(few), 100, binned));
+}

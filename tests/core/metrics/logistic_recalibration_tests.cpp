@@ -143,3 +143,29 @@ TEST_CASE("Replicate calibration estimates agree with the full fits to 1e-12", "
         }
     }
 }
+
+TEST_CASE("Fits with rows left out by a byte equal those with weights of 0 and 1", "[calibration]")
+{
+    // Gen-1000 with every seventh patient left out: the same rows, the same doubles, the same sums.
+    const auto gen = gen1000();
+    const std::vector<double> lp = clampedLogits(gen.p);
+    std::vector<double> weights(gen.y.size(), 1.0);
+    std::vector<std::uint8_t> included(gen.y.size(), 1);
+    for (std::size_t i = 0; i < gen.y.size(); i += 7) {
+        weights[i] = 0.0;
+        included[i] = 0;
+    }
+    const auto a = fitCalibrationIntercept(gen.y, lp, weights), b = fitCalibrationIntercept(gen.y, lp, included);
+    const auto c = fitCalibrationSlope(gen.y, lp, weights), d = fitCalibrationSlope(gen.y, lp, included);
+    REQUIRE((a && b && c && d));
+    CHECK(a->alpha == b->alpha);
+    CHECK(a->se == b->se);
+    CHECK(a->logLikelihood == b->logLikelihood);
+    CHECK(c->intercept == d->intercept);
+    CHECK(c->slope == d->slope);
+    CHECK(c->slopeSe == d->slopeSe);
+    CHECK(c->logLikelihood == d->logLikelihood);
+    CHECK(logLikelihoodOfLogits(gen.y, lp, weights) == logLikelihoodOfLogits(gen.y, lp, included));
+    // Leaving rows out changes the fit: the bytes are read.
+    CHECK(fitCalibrationIntercept(gen.y, lp)->alpha != b->alpha);
+}
