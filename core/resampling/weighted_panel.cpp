@@ -197,25 +197,19 @@ AscendingSweep sweepAscending(const ModelSupport& s, const SupportCounts& c, con
     const double* const nonEvents = c.nonEvents.data();
     double totalEvents = 0.0, totalNonEvents = 0.0, cNumerator = 0.0, belowNonEvents = 0.0;
     AscendingSweep out;
-    if (!s.risks) {
-        for (std::size_t k = 0; k < d; ++k) {
-            totalEvents += events[k];
-            totalNonEvents += nonEvents[k];
-            cNumerator += events[k] * (belowNonEvents + 0.5 * nonEvents[k]);
-            belowNonEvents += nonEvents[k];
-        }
-        out.totals = {totalEvents, totalNonEvents};
-        out.cNumerator = cNumerator;
-        return out;
-    }
+    // A points score gets the discrimination sums only: everything below `risks` in the loop
+    // reads arrays a risk support alone has (the test is the same at every point).
+    const bool risks = s.risks;
     const bool precomputed = s.logRisk.size() == d && s.logComplement.size() == d;
-    const bool startSums = s.startRisks && sameStart(s.startRisks->start, start);
+    const bool startSums = risks && s.startRisks && sameStart(s.startRisks->start, start);
     const double* const interceptRisk = startSums ? s.startRisks->intercept.data() : nullptr;
     const double* const slopeRisk = startSums ? s.startRisks->slope.data() : nullptr;
     const double* const lp = s.lp.data();
-    fit.lp.resize(d);
-    fit.events.resize(d);
-    fit.trials.resize(d);
+    if (risks) {
+        fit.lp.resize(d);
+        fit.events.resize(d);
+        fit.trials.resize(d);
+    }
     double* const fitLp = fit.lp.data();
     double* const fitEvents = fit.events.data();
     double* const fitTrials = fit.trials.data();
@@ -230,6 +224,8 @@ AscendingSweep sweepAscending(const ModelSupport& s, const SupportCounts& c, con
         totalNonEvents += f;
         cNumerator += e * (belowNonEvents + 0.5 * f);
         belowNonEvents += f;
+        if (!risks)
+            continue;
         // Accuracy.
         squared += e * (1.0 - p) * (1.0 - p) + f * p * p;
         eventRisk += e * p;

@@ -23,8 +23,17 @@ PanelValues weightedOf(const CheckData& d, const std::vector<std::uint16_t>& cou
     return weightedPanel(support, c, FitStart{}, &loess);
 }
 
-// The panel computed the ordinary way on explicitly resampled rows.
-PanelValues expandedOf(const CheckData& d, const std::vector<std::uint16_t>& counts)
+// A bootstrap draw: n rows drawn with replacement, as counts per row.
+std::vector<std::uint16_t> drawnCounts(RandomStream& random, std::size_t n)
+{
+    std::vector<std::uint16_t> counts(n, 0);
+    for (std::size_t k = 0; k < n; ++k)
+        ++counts[random.below(n)];
+    return counts;
+}
+
+// The rows of a resample written out: row i repeated counts[i] times.
+CheckData expandedRows(const CheckData& d, const std::vector<std::uint16_t>& counts)
 {
     CheckData expanded;
     for (std::size_t i = 0; i < d.y.size(); ++i)
@@ -32,6 +41,13 @@ PanelValues expandedOf(const CheckData& d, const std::vector<std::uint16_t>& cou
             expanded.y.push_back(d.y[i]);
             expanded.p.push_back(d.p[i]);
         }
+    return expanded;
+}
+
+// The panel computed the ordinary way on explicitly resampled rows.
+PanelValues expandedOf(const CheckData& d, const std::vector<std::uint16_t>& counts)
+{
+    const CheckData expanded = expandedRows(d, counts);
     const ModelValidation m = validateModel(expanded.y, {"m", expanded.p}, ScoreScale::Probability, PanelSettings{});
     PanelValues out{};
     for (std::size_t k = 0; k < PanelMetricCount; ++k)
@@ -69,9 +85,7 @@ TEST_CASE("Every weighted metric equals the metric on the explicitly resampled r
     const std::vector<CheckData> datasets{toy20A(), toy20B(), contradicted, gen1000()};
     for (const CheckData& d : datasets) {
         for (int trial = 0; trial < 4; ++trial) {
-            std::vector<std::uint16_t> counts(d.y.size(), 0);
-            for (std::size_t k = 0; k < d.y.size(); ++k)
-                ++counts[random.below(d.y.size())];
+            const std::vector<std::uint16_t> counts = drawnCounts(random, d.y.size());
             const PanelValues weighted = weightedOf(d, counts);
             const PanelValues expanded = expandedOf(d, counts);
             for (std::size_t k = 0; k < PanelMetricCount; ++k) {
@@ -198,9 +212,7 @@ TEST_CASE("Fits whose first pass reads the start risks give the fits that comput
         addStartRisks(prepared, start);
         const FitStart other{start.calibrationIntercept + 0.01, start.recalibrationIntercept, start.slope};
         for (int trial = 0; trial < 20; ++trial) {
-            std::vector<std::uint16_t> counts(d.y.size(), 0);
-            for (std::size_t k = 0; k < d.y.size(); ++k)
-                ++counts[random.below(d.y.size())];
+            const std::vector<std::uint16_t> counts = drawnCounts(random, d.y.size());
             SupportCounts c;
             countRows(plain, d.y, counts, c);
             const PanelValues a = weightedPanel(plain, c, start, nullptr), b = weightedPanel(prepared, c, start, nullptr);
@@ -257,4 +269,29 @@ TEST_CASE("Counting from packed rows gives the counts of the lookups, and only f
     for (std::size_t i = 0; i < rows; ++i)
         expected += otherY[i] * counts[i];
     CHECK(events == expected);
+}
+
+TEST_CASE("A points score's replicate has the C and average precision of its resampled rows, nothing else",
+          "[bootstrap][weighted]")
+{
+    // Hanley & McNeil's 109 ratings (Radiology 1982): C 1321/1479 on the sample itself (the check
+    // value of the panel's tests); a replicate's C and AP equal the ordinary computation on the
+    // explicitly resampled rows, and no risk metric is formed from a points score.
+    const CheckData d = hm109();
+    const ModelSupport support = buildModelSupport(d.p, ascendingOrder(d.p), false);
+    const PanelValues sample = weightedPanel(support, sampleCounts(support, d.y), FitStart{}, nullptr);
+    CHECK_THAT(*sample[CStatistic], WithinAbs(1321.0 / 1479.0, 1e-12));
+    RandomStream random(109);
+    for (int trial = 0; trial < 10; ++trial) {
+        const std::vector<std::uint16_t> counts = drawnCounts(random, d.y.size());
+        SupportCounts c;
+        countRows(support, d.y, counts, c);
+        const PanelValues v = weightedPanel(support, c, FitStart{}, nullptr);
+        const CheckData expanded = expandedRows(d, counts);
+        const ModelValidation m = validateModel(expanded.y, {"m", expanded.p}, ScoreScale::Points, PanelSettings{});
+        CHECK_THAT(*v[CStatistic], WithinAbs(*m.metric("c_statistic")->value, 1e-12));
+        CHECK_THAT(*v[Auprc], WithinAbs(*m.metric(panelKeys[Auprc])->value, 1e-12));
+        for (const PanelMetric k : {Brier, CalibrationSlope, CalibrationIntercept, OeRatio, Ici})
+            CHECK_FALSE(v[k]);
+    }
 }
