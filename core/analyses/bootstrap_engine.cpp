@@ -73,8 +73,7 @@ PreparedModel prepareModel(const Cohort& cohort, std::size_t m, const ModelValid
 // Multinomial counts over the rows, redrawn while a class is missing (non-stratified).
 void drawCounts(const Shared& shared, RandomStream& random, std::vector<std::uint16_t>& counts, std::size_t& redraws)
 {
-    const auto& y = shared.cohort.outcome;
-    const std::size_t n = y.size();
+    const std::size_t n = shared.cohort.outcome.size();
     for (;;) {
         std::fill(counts.begin(), counts.end(), 0);
         if (shared.settings.stratified) {
@@ -84,12 +83,13 @@ void drawCounts(const Shared& shared, RandomStream& random, std::vector<std::uin
                 ++counts[shared.nonEventRows[random.below(shared.nonEventRows.size())]];
             return;
         }
+        for (std::size_t k = 0; k < n; ++k)
+            ++counts[random.below(n)];
+        // The events drawn, counted afterwards over the event rows (in ascending order, a read
+        // the processor streams) rather than by reading each drawn row's outcome at random.
         std::size_t events = 0;
-        for (std::size_t k = 0; k < n; ++k) {
-            const std::uint64_t row = random.below(n);
-            ++counts[row];
-            events += y[row];
-        }
+        for (const std::uint32_t row : shared.eventRows)
+            events += counts[row];
         if (events > 0 && events < n)
             return;
         ++redraws;

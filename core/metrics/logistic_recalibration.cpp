@@ -1,6 +1,6 @@
 #include "metrics/logistic_recalibration.hpp"
 
-#include <Eigen/Core>
+#include "metrics/vector_expit.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -44,19 +44,28 @@ double binomialLogLikelihood(const Points& d, double a, double b)
     return ll;
 }
 
-// expit(a + b·lp) at every point into `out`, with Eigen's vectorised exp: the replicates' Newton
-// passes spend most of their time here. A point without trials gets a value too; its weight in
-// every sum is zero.
-void expitInto(const BinomialPoints& d, double a, double b, std::vector<double>& out)
+// Calls add(k, p) for every point in order, p = expit(a + b·lp[k]) computed in vector lanes a
+// block at a time: the risks of a block stay in the cache between being computed and being
+// summed (a million of them written out and read back cost more than computing them).
+// An odd count's last risk is computed with the scalar exp, as Eigen's vectorised expression,
+// which these passes used before, computed it (its vector loop takes pairs): every fit stays the
+// same to the bit.
+template <typename Add>
+void forEachPredictedRisk(std::span<const double> lp, double a, double b, Add&& add)
 {
-    predictedRisksInto(d.lp, a, b, out);
-}
-
-// A buffer per thread for the predicted risks, kept between replicates.
-std::vector<double>& riskBuffer()
-{
-    thread_local std::vector<double> buffer;
-    return buffer;
+    constexpr std::size_t block = 256;
+    alignas(32) double risks[block];
+    const std::size_t n = lp.size();
+    const std::size_t paired = n - n % 2;
+    for (std::size_t start = 0; start < n; start += block) {
+        const std::size_t count = std::min(block, n - start);
+        const std::size_t inLanes = std::min(count, paired - start);
+        vectorExpit(lp.data() + start, inLanes, a, b, risks);
+        for (std::size_t k = inLanes; k < count; ++k)
+            risks[k] = 1.0 / (1.0 + std::exp(-(a + b * lp[start + k])));
+        for (std::size_t k = 0; k < count; ++k)
+            add(start + k, risks[k]);
+    }
 }
 
 // Rows (0/1 outcome, optional frequency weights) read as grouped data, one point per row,
@@ -93,9 +102,7 @@ struct RowPoints {
 void predictedRisksInto(std::span<const double> lp, double a, double b, std::vector<double>& out)
 {
     out.resize(lp.size());
-    const Eigen::Map<const Eigen::ArrayXd> x(lp.data(), Eigen::Index(lp.size()));
-    Eigen::Map<Eigen::ArrayXd> pi(out.data(), Eigen::Index(out.size()));
-    pi = (1.0 + (-(a + b * x)).exp()).inverse();
+    forEachPredictedRisk(lp, a, b, [&](std::size_t k, double p) { out[k] = p; });
 }
 
 std::vector<double> clampedLogits(std::span<const double> risk, std::size_t* clampedCount)
@@ -182,15 +189,13 @@ std::optional<double> calibrationInterceptEstimate(const BinomialPoints& d, doub
     // pass's step is then of order 1e-7 and its corrected result within about 1e-20 of the root
     // (the earlier rule, stop when a Newton step is below 1e-10, needed a third pass).
     double alpha = start;
-    std::vector<double>& pi = riskBuffer();
     for (int iteration = 0; iteration < maxIterations; ++iteration) {
         InterceptSums sums;
         if (iteration == 0 && atStart) {
             sums = *atStart;
         } else {
-            expitInto(d, alpha, 1.0, pi);
-            for (std::size_t k = 0; k < pi.size(); ++k)
-                sums.add(d.events[k], d.trials[k], pi[k]);
+            forEachPredictedRisk(d.lp, alpha, 1.0,
+                                 [&](std::size_t k, double p) { sums.add(d.events[k], d.trials[k], p); });
         }
         const auto [score, information, skew] = sums;
         if (!(information > 0.0))
@@ -287,15 +292,13 @@ std::optional<SlopeEstimate> calibrationSlopeEstimate(const BinomialPoints& d, d
     double largestLp = 0.0;
     for (const double x : d.lp)
         largestLp = std::max(largestLp, std::abs(x));
-    std::vector<double>& pi = riskBuffer();
     for (int iteration = 0; iteration < maxIterations; ++iteration) {
         SlopeSums sums;
         if (iteration == 0 && atStart) {
             sums = *atStart;
         } else {
-            expitInto(d, a, b, pi);
-            for (std::size_t k = 0; k < pi.size(); ++k)
-                sums.add(d.lp[k], d.events[k], d.trials[k], pi[k]);
+            forEachPredictedRisk(d.lp, a, b,
+                                 [&](std::size_t k, double p) { sums.add(d.lp[k], d.events[k], d.trials[k], p); });
         }
         const auto [g0, g1, h00, h01, h11, t0, t1, t2, t3] = sums;
         const double det = h00 * h11 - h01 * h01;
