@@ -34,9 +34,12 @@ void addRiskTerms(ModelSupport& s)
     s.lp = clampedLogits(s.x);
     s.logRisk.resize(s.x.size());
     s.logComplement.resize(s.x.size());
+    // Zero where the logarithm is infinite (a risk of exactly 0 or 1): only a patient whose
+    // outcome contradicts that risk would need the term, and then no log-likelihood is reported.
+    // A finite value lets the sweeps multiply by a count of zero without a branch.
     for (std::size_t k = 0; k < s.x.size(); ++k) {
-        s.logRisk[k] = std::log(s.x[k]);
-        s.logComplement[k] = std::log1p(-s.x[k]);
+        s.logRisk[k] = s.x[k] > 0.0 ? std::log(s.x[k]) : 0.0;
+        s.logComplement[k] = s.x[k] < 1.0 ? std::log1p(-s.x[k]) : 0.0;
     }
 }
 
@@ -82,23 +85,27 @@ void countRows(const ModelSupport& support, std::span<const std::uint8_t> outcom
     constexpr std::size_t cachedPoints = 1 << 15;
     if (support.packedOutcome == outcome.data() && support.packedRows.size() == outcome.size()
         && support.x.size() > cachedPoints) {
-        // The same walk, with the outcome and the point changes read from the packed rows.
+        // The same walk, with the outcome and the point changes read from the packed rows, and
+        // without a branch (where a point starts is random, so a branch would often be
+        // mispredicted): a point's running sums are integers, restarted by a mask at its first
+        // row, and stored at every row (the last store is the point's total). Whole numbers
+        // below 2^53, so the doubles are those the additions in doubles gave.
         counts.events.resize(support.x.size());
         counts.nonEvents.resize(support.x.size());
         double* events = counts.events.data();
         double* nonEvents = counts.nonEvents.data();
         std::size_t k = std::numeric_limits<std::size_t>::max(); // the first row moves it to point 0
+        std::uint64_t pointEvents = 0, pointNonEvents = 0;
         for (const std::uint32_t packed : support.packedRows) {
-            const double c = rowCounts[packed & rowBits];
-            const double y = packed >> 31;
-            if (packed & firstOfPointBit) {
-                ++k;
-                events[k] = c * y;
-                nonEvents[k] = c - c * y;
-            } else {
-                events[k] += c * y;
-                nonEvents[k] += c - c * y;
-            }
+            const std::uint64_t c = rowCounts[packed & rowBits];
+            const std::uint64_t event = 0 - std::uint64_t(packed >> 31); // all ones for an event
+            const std::uint64_t first = (packed >> 30) & 1;
+            const std::uint64_t keep = first - 1; // all ones unless the point starts here
+            k += first;
+            pointEvents = (pointEvents & keep) + (c & event);
+            pointNonEvents = (pointNonEvents & keep) + (c & ~event);
+            events[k] = double(pointEvents);
+            nonEvents[k] = double(pointNonEvents);
         }
         return;
     }
@@ -205,6 +212,8 @@ AscendingSweep sweepAscending(const ModelSupport& s, const SupportCounts& c, con
     const double* const interceptRisk = startSums ? s.startRisks->intercept.data() : nullptr;
     const double* const slopeRisk = startSums ? s.startRisks->slope.data() : nullptr;
     const double* const lp = s.lp.data();
+    const double* const logRisk = precomputed ? s.logRisk.data() : nullptr;
+    const double* const logComplement = precomputed ? s.logComplement.data() : nullptr;
     if (risks) {
         fit.lp.resize(d);
         fit.events.resize(d);
@@ -230,11 +239,14 @@ AscendingSweep sweepAscending(const ModelSupport& s, const SupportCounts& c, con
         squared += e * (1.0 - p) * (1.0 - p) + f * p * p;
         eventRisk += e * p;
         nonEventRisk += f * p;
-        if ((e > 0.0 && p <= 0.0) || (f > 0.0 && p >= 1.0))
-            contradicted = true;
-        else
-            logLikelihood += (e > 0.0 ? e * (precomputed ? s.logRisk[k] : std::log(p)) : 0.0)
-                + (f > 0.0 ? f * (precomputed ? s.logComplement[k] : std::log1p(-p)) : 0.0);
+        // Without branches on the counts (which points hold events is random in a replicate): a
+        // zero count times a finite logarithm adds a zero, and a contradicted panel reports no
+        // log-likelihood, so what its terms add does not matter.
+        contradicted |= ((e > 0.0) & (p <= 0.0)) | ((f > 0.0) & (p >= 1.0));
+        if (logRisk)
+            logLikelihood += e * logRisk[k] + f * logComplement[k];
+        else if (!((e > 0.0 && p <= 0.0) || (f > 0.0 && p >= 1.0)))
+            logLikelihood += (e > 0.0 ? e * std::log(p) : 0.0) + (f > 0.0 ? f * std::log1p(-p) : 0.0);
         // Calibration fits: patients whose outcome contradicts a risk of 0 or 1 are left out, as
         // in the full sample. Only points holding a patient are kept (about a third of a
         // replicate's points hold none; such a point adds exactly zero to every sum), written

@@ -34,7 +34,7 @@ struct StartRisks {
 struct ModelSupport {
     std::vector<double> x;                 // distinct scores, ascending
     std::vector<double> lp;                // clamped logits of x (risks only)
-    std::vector<double> logRisk;           // ln x and ln(1 − x) (risks only): fixed, so computed once
+    std::vector<double> logRisk;           // ln x and ln(1 − x) (risks only; 0 where infinite): fixed, so computed once
     std::vector<double> logComplement;     // rather than in every replicate
     std::vector<std::uint32_t> rowSupport; // support point of each row
     ScoreOrder rowsInOrder;                // the rows by ascending score: counting walks them so
