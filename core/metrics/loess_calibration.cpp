@@ -26,8 +26,17 @@ void binInto(const RiskPoints& s, std::size_t bins, RiskSupport& b)
     std::size_t first = 0;
     while (first < s.x.size()) {
         const std::size_t index = binOf(s.x[first]);
-        const auto end = std::partition_point(s.x.begin() + std::ptrdiff_t(first), s.x.end(),
-                                              [&](double x) { return binOf(x) == index; });
+        // The bin's end, searched for near its start (a bin spans a small part of the support):
+        // steps doubling from the start, then halving, so the points read stay close together
+        // instead of a search over the whole support missing the cache at every step.
+        auto inBin = [&](double x) { return binOf(x) == index; };
+        std::size_t below = first + 1, step = 1; // s.x[below - 1] is in the bin
+        while (below + step <= s.x.size() && inBin(s.x[below + step - 1])) {
+            below += step;
+            step *= 2;
+        }
+        const std::size_t limit = std::min(s.x.size(), below + step - 1);
+        const auto end = std::partition_point(s.x.begin() + std::ptrdiff_t(below), s.x.begin() + std::ptrdiff_t(limit), inBin);
         const auto last = static_cast<std::size_t>(end - s.x.begin());
         double count = 0.0, events = 0.0, weightedX = 0.0;
         for (std::size_t i = first; i < last; ++i) {
@@ -391,12 +400,22 @@ private:
 // kept per thread between replicates, a single fit's is freed when it ends.
 bool loessIntoUsing(const RiskPoints& full, const LoessOptions& options, LoessSummary& out, std::vector<double>& distance)
 {
-    double n = 0.0;
+    // Four running sums: the counts are whole numbers, so their total is exact in any order, and
+    // four chains of additions run in parallel where one would wait on each addition in turn.
+    double partial[4] = {0.0, 0.0, 0.0, 0.0};
     std::size_t occupied = 0;
-    for (const double c : full.count) {
-        n += c;
-        occupied += c > 0.0;
+    const std::size_t points = full.count.size();
+    std::size_t i = 0;
+    for (; i + 4 <= points; i += 4)
+        for (std::size_t j = 0; j < 4; ++j) {
+            partial[j] += full.count[i + j];
+            occupied += full.count[i + j] > 0.0;
+        }
+    for (; i < points; ++i) {
+        partial[0] += full.count[i];
+        occupied += full.count[i] > 0.0;
     }
+    const double n = (partial[0] + partial[1]) + (partial[2] + partial[3]);
     const double q = std::floor(n * options.span);
     if (occupied < minimumDistinct || q < 3.0)
         return false;

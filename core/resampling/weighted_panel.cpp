@@ -425,15 +425,30 @@ void sweepFromTheTop(const ModelSupport& s, const SupportCounts& c, double event
     auto nextThreshold = firstAbove.begin();
     double tp = 0.0, fp = 0.0, lastTp = 0.0, lastFp = 0.0, ap = 0.0;
     std::size_t next = 0;
+    // Average precision (docs/methods.md §15) adds a term at each point holding events, and
+    // which points hold them is random in a replicate: the points' running counts are written
+    // to a small buffer, kept when the point holds events, and their terms added a buffer at a
+    // time, in the same order, so the sweep itself does not branch on them.
+    constexpr std::size_t held = 256;
+    double heldEvents[held], heldTp[held], heldFp[held];
+    std::size_t holding = 0;
+    auto addHeld = [&] {
+        for (std::size_t i = 0; i < holding; ++i)
+            ap += heldEvents[i] / events * heldTp[i] / (heldTp[i] + heldFp[i]);
+        holding = 0;
+    };
     for (std::size_t k = s.x.size(); k > 0; --k) {
         for (; nextThreshold != firstAbove.end() && std::get<0>(*nextThreshold) == k; ++nextThreshold)
             above[std::get<2>(*nextThreshold)] = {tp, fp};
         const double e = c.events[k - 1];
         tp += e;
         fp += c.nonEvents[k - 1];
-        // Average precision (docs/methods.md §15).
-        if (e > 0.0)
-            ap += e / events * tp / (tp + fp);
+        heldEvents[holding] = e;
+        heldTp[holding] = tp;
+        heldFp[holding] = fp;
+        holding += e > 0.0;
+        if (holding == held)
+            addHeld();
         if (next < rates.size() && !(fp < beyond[next])) { // rates[next] < fp / nonEvents, or not known without dividing
             const double fpr = fp / nonEvents, tpr = tp / events;
             const double lastFpr = lastFp / nonEvents, lastTpr = lastTp / events;
@@ -445,6 +460,7 @@ void sweepFromTheTop(const ModelSupport& s, const SupportCounts& c, double event
         lastFp = fp;
         lastTp = tp;
     }
+    addHeld();
     for (; nextThreshold != firstAbove.end(); ++nextThreshold)
         above[std::get<2>(*nextThreshold)] = {tp, fp};
     const double n = tp + fp;
