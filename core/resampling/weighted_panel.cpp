@@ -193,6 +193,54 @@ bool sameStart(const FitStart& a, const FitStart& b)
         && a.slope == b.slope;
 }
 
+// The sums of both fits' first Newton pass (InterceptSums::add and SlopeSums::add at each point)
+// kept two to a 128-bit vector: the two fits' risks side by side, and the slope fit's sums in
+// pairs that take the same products ([h00, t0], [h01, t1], [h11, t2], [g0, g1]). Each lane does
+// the scalar code's operations in its order, so every sum is the same double; the sweep runs
+// out of registers with twenty scalar sums, and pairs halve the instructions.
+using Pair = double __attribute__((vector_size(2 * sizeof(double))));
+
+struct StartSumPairs {
+    Pair scoreInformation{}; // intercept fit: score, information
+    double skew = 0.0;
+    Pair first{}, second{}, third{}, gradient{}; // [h00, t0], [h01, t1], [h11, t2], [g0, g1]
+    double t3 = 0.0;
+
+    [[gnu::always_inline]] void add(double x, double events, double trials, double interceptRisk, double slopeRisk)
+    {
+        const Pair p = {interceptRisk, slopeRisk};
+        const Pair tp = trials * p;
+        const Pair v = tp * (1.0 - p);
+        const Pair r = events - tp;
+        const Pair w = v * (1.0 - 2.0 * p);
+        scoreInformation += Pair{r[0], v[0]};
+        skew += w[0];
+        const Pair a = {v[1], w[1]};
+        const Pair ax = a * x;
+        const Pair axx = ax * x;
+        first += a;
+        second += ax;
+        third += axx;
+        t3 += axx[1] * x;
+        gradient += Pair{r[1], r[1]} * Pair{1.0, x};
+    }
+    void into(InterceptSums& intercept, SlopeSums& slope) const
+    {
+        intercept.score = scoreInformation[0];
+        intercept.information = scoreInformation[1];
+        intercept.skew = skew;
+        slope.h00 = first[0];
+        slope.t0 = first[1];
+        slope.h01 = second[0];
+        slope.t1 = second[1];
+        slope.h11 = third[0];
+        slope.t2 = third[1];
+        slope.t3 = t3;
+        slope.g0 = gradient[0];
+        slope.g1 = gradient[1];
+    }
+};
+
 AscendingSweep sweepAscending(const ModelSupport& s, const SupportCounts& c, const FitStart& start, FitPoints& fit)
 {
     // Every sum is a local until the end, and the arrays are raw pointers: the result lives in
@@ -222,10 +270,10 @@ AscendingSweep sweepAscending(const ModelSupport& s, const SupportCounts& c, con
     double* const fitLp = fit.lp.data();
     double* const fitEvents = fit.events.data();
     double* const fitTrials = fit.trials.data();
-    double squared = 0.0, logLikelihood = 0.0, eventRisk = 0.0, nonEventRisk = 0.0;
+    double squared = 0.0, logLikelihood = 0.0;
     bool contradicted = false;
-    InterceptSums intercept;
-    SlopeSums slope;
+    StartSumPairs startPairs;
+    Pair risk{}; // Σ events·p, Σ non-events·p
     std::size_t used = 0;
     for (std::size_t k = 0; k < d; ++k) {
         const double p = x[k], e = events[k], f = nonEvents[k];
@@ -235,17 +283,20 @@ AscendingSweep sweepAscending(const ModelSupport& s, const SupportCounts& c, con
         belowNonEvents += f;
         if (!risks)
             continue;
-        // Accuracy.
-        squared += e * (1.0 - p) * (1.0 - p) + f * p * p;
-        eventRisk += e * p;
-        nonEventRisk += f * p;
+        // Accuracy, the events' and non-events' terms side by side in a vector's lanes.
+        const Pair counts = {e, f};
+        const Pair distance = {1.0 - p, p};
+        const Pair squares = counts * distance * distance;
+        squared += squares[0] + squares[1];
+        risk += counts * p;
         // Without branches on the counts (which points hold events is random in a replicate): a
         // zero count times a finite logarithm adds a zero, and a contradicted panel reports no
         // log-likelihood, so what its terms add does not matter.
         contradicted |= ((e > 0.0) & (p <= 0.0)) | ((f > 0.0) & (p >= 1.0));
-        if (logRisk)
-            logLikelihood += e * logRisk[k] + f * logComplement[k];
-        else if (!((e > 0.0 && p <= 0.0) || (f > 0.0 && p >= 1.0)))
+        if (logRisk) {
+            const Pair terms = counts * Pair{logRisk[k], logComplement[k]};
+            logLikelihood += terms[0] + terms[1];
+        } else if (!((e > 0.0 && p <= 0.0) || (f > 0.0 && p >= 1.0)))
             logLikelihood += (e > 0.0 ? e * std::log(p) : 0.0) + (f > 0.0 ? f * std::log1p(-p) : 0.0);
         // Calibration fits: patients whose outcome contradicts a risk of 0 or 1 are left out, as
         // in the full sample. Only points holding a patient are kept (about a third of a
@@ -258,22 +309,19 @@ AscendingSweep sweepAscending(const ModelSupport& s, const SupportCounts& c, con
         fitEvents[used] = agreeingEvents;
         fitTrials[used] = trials;
         used += trials > 0.0;
-        if (interceptRisk) {
-            intercept.add(agreeingEvents, trials, interceptRisk[k]);
-            slope.add(lp[k], agreeingEvents, trials, slopeRisk[k]);
-        }
+        if (interceptRisk)
+            startPairs.add(lp[k], agreeingEvents, trials, interceptRisk[k], slopeRisk[k]);
     }
     out.totals = {totalEvents, totalNonEvents};
     out.cNumerator = cNumerator;
     out.squared = squared;
     out.logLikelihood = logLikelihood;
-    out.eventRisk = eventRisk;
-    out.nonEventRisk = nonEventRisk;
+    out.eventRisk = risk[0];
+    out.nonEventRisk = risk[1];
     out.contradicted = contradicted;
     out.used = used;
     out.startSums = startSums;
-    out.intercept = intercept;
-    out.slope = slope;
+    startPairs.into(out.intercept, out.slope);
     return out;
 }
 
