@@ -10,11 +10,22 @@
 
 #include <algorithm>
 #include <cstdio>
+#include <exception>
+#include <mutex>
+#include <optional>
 #include <stdexcept>
+#include <thread>
 
 namespace plumbline {
 
 namespace {
+
+// One model's part of the analysis over time, gathered apart and merged in model order.
+struct ModelPeriods {
+    std::optional<PeriodReference> firstYear, latestYear;
+    std::vector<PeriodResult> results;
+    std::optional<std::string> warning;
+};
 
 bool realDate(int year, int month, int day)
 {
@@ -171,7 +182,7 @@ std::expected<PeriodAnalysis, InputError> analysePeriods(const Cohort& cohort, c
         if (!periods.rows(k).empty())
             periodsWithRows.push_back(k);
     const double z = zForConfidence(confidence);
-    for (std::size_t m = 0; m < cohort.models.size(); ++m) {
+    auto analyseModel = [&](std::size_t m, ModelPeriods& mine) {
         auto subset = [&](const std::vector<std::uint32_t>& index, std::vector<std::uint8_t>& y, std::vector<double>& p) {
             y.clear();
             p.clear();
@@ -203,11 +214,11 @@ std::expected<PeriodAnalysis, InputError> analysePeriods(const Cohort& cohort, c
         subset(years.rows(0), y, p);
         const Estimate referenceOe = observedExpectedRatio(y, p, confidence);
         const Estimate referenceCitl = citl(y, p);
-        out.firstYear.push_back({cohort.models[m].name, c(y, p, yearOrders[0]), referenceOe, referenceCitl});
+        mine.firstYear = PeriodReference({cohort.models[m].name, c(y, p, yearOrders[0]), referenceOe, referenceCitl});
         if (!years.rows(1).empty()) {
             subset(years.rows(1), y, p);
             const Estimate latestC = c(y, p, yearOrders[1]);
-            out.latestYear.push_back({cohort.models[m].name, latestC, observedExpectedRatio(y, p, confidence), citl(y, p)});
+            mine.latestYear = PeriodReference({cohort.models[m].name, latestC, observedExpectedRatio(y, p, confidence), citl(y, p)});
         }
         std::vector<ScoreOrder> periodOrders = periods.orders(order);
         for (const std::size_t k : periodsWithRows) {
@@ -230,16 +241,45 @@ std::expected<PeriodAnalysis, InputError> analysePeriods(const Cohort& cohort, c
                        && (*e.upper < *reference.lower || *e.lower > *reference.upper);
             };
             r.outsideFirstYear = !inFirstYear && (outside(r.oe, referenceOe) || outside(r.calibrationIntercept, referenceCitl));
-            out.results.push_back(std::move(r));
+            mine.results.push_back(std::move(r));
         }
         // A warning when the most recent periods have left the first year's range.
         const std::size_t count = periodsWithRows.size();
         std::size_t recentOutside = 0;
-        for (std::size_t k = out.results.size() - std::min<std::size_t>(2, count); k < out.results.size(); ++k)
-            recentOutside += out.results[k].outsideFirstYear ? 1 : 0;
+        for (std::size_t k = mine.results.size() - std::min<std::size_t>(2, count); k < mine.results.size(); ++k)
+            recentOutside += mine.results[k].outsideFirstYear ? 1 : 0;
         if (recentOutside > 0)
-            out.warnings.push_back("Model '" + cohort.models[m].name + "': calibration in the most recent period"
+            mine.warning = std::string("Model '" + cohort.models[m].name + "': calibration in the most recent period"
                                    + (recentOutside > 1 ? "s lies" : " lies") + " outside the first year's interval: the model may be drifting.");
+    };
+    // The models' analyses are independent: one per thread, two threads, each writing only its
+    // own slot; merged in model order, so the result does not depend on the threads.
+    std::vector<ModelPeriods> perModel(cohort.models.size());
+    std::exception_ptr failure;
+    std::mutex failureMutex;
+    auto work = [&](std::size_t first) {
+        try {
+            for (std::size_t m = first; m < cohort.models.size(); m += 2)
+                analyseModel(m, perModel[m]);
+        } catch (...) {
+            const std::lock_guard lock(failureMutex);
+            failure = std::current_exception();
+        }
+    };
+    {
+        std::jthread second(work, std::size_t{1});
+        work(0);
+    }
+    if (failure)
+        std::rethrow_exception(failure);
+    for (ModelPeriods& mine : perModel) {
+        out.firstYear.push_back(std::move(*mine.firstYear));
+        if (mine.latestYear)
+            out.latestYear.push_back(std::move(*mine.latestYear));
+        out.results.insert(out.results.end(), std::make_move_iterator(mine.results.begin()),
+                           std::make_move_iterator(mine.results.end()));
+        if (mine.warning)
+            out.warnings.push_back(std::move(*mine.warning));
     }
     for (const std::size_t k : periodsWithRows) {
         const auto& index = periods.rows(k);

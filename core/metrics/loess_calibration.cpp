@@ -233,6 +233,7 @@ void forEachDistinctRisk(std::span<const std::uint8_t> y, std::span<const double
         const double x = p[order[k]];
         double count = 0.0, events = 0.0;
         do {
+            prefetchInOrder(order, k, p.data(), y.data());
             count += 1.0;
             events += y[order[k]];
             ++k;

@@ -19,6 +19,7 @@ std::vector<OperatingPoint> operatingPoints(std::span<const std::uint8_t> outcom
     for (std::size_t s = 0; s <= steps; ++s) {
         const double t = double(s) / double(steps);
         while (k < order.size() && risk[order[k]] < t) {
+            prefetchInOrder(order, k, risk.data(), outcome.data());
             (outcome[order[k]] ? eventsBelow : nonEventsBelow) += 1;
             ++k;
         }

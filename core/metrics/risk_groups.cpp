@@ -26,8 +26,11 @@ std::vector<RiskGroup> riskGroups(std::span<const std::uint8_t> outcome, std::sp
     std::size_t start = 0;
     for (std::size_t i = 0; i < n;) {
         std::size_t j = i;
-        while (j + 1 < n && risk[order[j + 1]] == risk[order[i]])
+        while (j + 1 < n && risk[order[j + 1]] == risk[order[i]]) {
+            prefetchInOrder(order, j + 1, risk.data());
             ++j;
+        }
+        prefetchInOrder(order, j + 1, risk.data());
         const double reached = double(j + 1);
         if (reached >= target * double(spans.size() + 1) - 1e-9 || j + 1 == n) {
             spans.emplace_back(start, j + 1);
@@ -46,6 +49,7 @@ std::vector<RiskGroup> riskGroups(std::span<const std::uint8_t> outcome, std::sp
         g.riskMin = risk[order[from]];
         g.riskMax = risk[order[to - 1]];
         for (std::size_t k = from; k < to; ++k) {
+            prefetchInOrder(order, k, risk.data(), outcome.data());
             g.events += outcome[order[k]];
             g.expected += risk[order[k]];
         }

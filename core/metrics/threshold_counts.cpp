@@ -23,12 +23,16 @@ std::vector<ThresholdCounts> countsAtOrAbove(std::span<const std::uint8_t> outco
     std::vector<std::size_t> eventsBelow(thresholds.size());
     std::size_t k = 0, events = 0;
     for (const std::size_t j : byPosition) {
-        for (; k < position[j]; ++k)
+        for (; k < position[j]; ++k) {
+            prefetchInOrder(order, k, outcome.data());
             events += outcome[order[k]];
+        }
         eventsBelow[j] = events;
     }
-    for (; k < n; ++k)
+    for (; k < n; ++k) {
+        prefetchInOrder(order, k, outcome.data());
         events += outcome[order[k]];
+    }
     std::vector<ThresholdCounts> out(thresholds.size());
     for (std::size_t j = 0; j < thresholds.size(); ++j) {
         out[j].events = events - eventsBelow[j];
