@@ -1,6 +1,7 @@
 #include "analyses/period_analysis.hpp"
 
 #include "analyses/row_subsets.hpp"
+#include "analyses/two_threads.hpp"
 
 #include "intake/written_date.hpp"
 #include "metrics/calibration_summary.hpp"
@@ -10,11 +11,8 @@
 
 #include <algorithm>
 #include <cstdio>
-#include <exception>
-#include <mutex>
 #include <optional>
 #include <stdexcept>
-#include <thread>
 
 namespace plumbline {
 
@@ -255,23 +253,7 @@ std::expected<PeriodAnalysis, InputError> analysePeriods(const Cohort& cohort, c
     // The models' analyses are independent: one per thread, two threads, each writing only its
     // own slot; merged in model order, so the result does not depend on the threads.
     std::vector<ModelPeriods> perModel(cohort.models.size());
-    std::exception_ptr failure;
-    std::mutex failureMutex;
-    auto work = [&](std::size_t first) {
-        try {
-            for (std::size_t m = first; m < cohort.models.size(); m += 2)
-                analyseModel(m, perModel[m]);
-        } catch (...) {
-            const std::lock_guard lock(failureMutex);
-            failure = std::current_exception();
-        }
-    };
-    {
-        std::jthread second(work, std::size_t{1});
-        work(0);
-    }
-    if (failure)
-        std::rethrow_exception(failure);
+    onTwoThreads(cohort.models.size(), [&](std::size_t m) { analyseModel(m, perModel[m]); });
     for (ModelPeriods& mine : perModel) {
         out.firstYear.push_back(std::move(*mine.firstYear));
         if (mine.latestYear)

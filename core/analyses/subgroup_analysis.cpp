@@ -1,16 +1,14 @@
 #include "analyses/subgroup_analysis.hpp"
 
 #include "metrics/distributions.hpp"
+#include "analyses/two_threads.hpp"
 #include "analyses/validation.hpp"
 
 #include <boost/math/distributions/poisson.hpp>
 
 #include <algorithm>
 #include <cmath>
-#include <exception>
-#include <mutex>
 #include <numeric>
-#include <thread>
 
 namespace plumbline {
 
@@ -108,29 +106,14 @@ SubgroupAnalysis analyseSubgroups(const Cohort& cohort, const PanelSettings& set
             // The levels' runs need only their orders.
             std::vector<std::uint32_t>().swap(indexInLevel);
         }
-        std::exception_ptr failure;
-        std::mutex failureMutex;
-        auto work = [&](std::size_t first) {
-            try {
-                for (std::size_t i = first; i < codes.size(); i += 2) {
-                    const Cohort level = levelCohort(cohort, column, codes[i]);
-                    runs[i].rows = level.rows();
-                    runs[i].events = level.events();
-                    runs[i].result = runValidation(level, settings, 1, std::move(levelOrders[codes[i]]));
-                    for (const auto& model : level.models)
-                        runs[i].expected.push_back(std::accumulate(model.values.begin(), model.values.end(), 0.0));
-                }
-            } catch (...) {
-                const std::lock_guard lock(failureMutex);
-                failure = std::current_exception();
-            }
-        };
-        {
-            std::jthread second(work, std::size_t{1});
-            work(0);
-        }
-        if (failure)
-            std::rethrow_exception(failure);
+        onTwoThreads(codes.size(), [&](std::size_t i) {
+            const Cohort level = levelCohort(cohort, column, codes[i]);
+            runs[i].rows = level.rows();
+            runs[i].events = level.events();
+            runs[i].result = runValidation(level, settings, 1, std::move(levelOrders[codes[i]]));
+            for (const auto& model : level.models)
+                runs[i].expected.push_back(std::accumulate(model.values.begin(), model.values.end(), 0.0));
+        });
         for (std::size_t i = 0; i < codes.size(); ++i) {
             const std::uint32_t code = codes[i];
             const std::size_t rows = runs[i].rows, events = runs[i].events;
