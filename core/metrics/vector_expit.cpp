@@ -3,10 +3,6 @@
 #include <cstdint>
 #include <cstring>
 
-// The helpers below pass 256-bit vectors by value. They are always inlined into the two builds of
-// vectorExpit, so no call ever uses the vector ABI the warning is about.
-#pragma GCC diagnostic ignored "-Wpsabi"
-
 namespace plumbline {
 
 namespace {
@@ -19,57 +15,53 @@ constexpr std::size_t laneCount = 4;
 // low bits of the sum (exact, and the same in every rounding of this program: round to nearest).
 constexpr double roundingShift = 6755399441055744.0;
 
-[[gnu::always_inline]] inline Lanes roundToInteger(Lanes v)
-{
-    return (v + roundingShift) - roundingShift;
-}
+// Every helper takes and gives its vectors by reference and is always inlined into the two builds
+// of vectorExpit: a 256-bit vector passed by value to a function built without AVX would change
+// the calling convention (clang refuses it).
 
 // floor, exact for |v| < 2^51 (here |v| ≤ 1025): round to nearest, then step down where that
 // went up. Eigen's baseline floor does the same; any exact floor gives the same double.
-[[gnu::always_inline]] inline Lanes floorOf(Lanes v)
+[[gnu::always_inline]] inline void floorOf(const Lanes& v, Lanes& out)
 {
-    const Lanes r = roundToInteger(v);
-    const LaneBits above = r > v;
-    return r - Lanes(above & LaneBits(Lanes{1.0, 1.0, 1.0, 1.0}));
+    const Lanes rounded = (v + roundingShift) - roundingShift;
+    const LaneBits above = rounded > v;
+    out = rounded - Lanes(above & LaneBits(Lanes{1.0, 1.0, 1.0, 1.0}));
 }
 
 // The integer value of an integer-valued double v (|v| < 2^51), as a 64-bit integer.
-[[gnu::always_inline]] inline LaneBits integerOf(Lanes v)
+[[gnu::always_inline]] inline void integerOf(const Lanes& v, LaneBits& out)
 {
     const Lanes shifted = v + roundingShift;
     LaneBits bits;
     std::memcpy(&bits, &shifted, sizeof bits);
     std::int64_t shiftBits;
     std::memcpy(&shiftBits, &roundingShift, sizeof shiftBits);
-    return bits - shiftBits;
+    out = bits - shiftBits;
 }
 
-// 2^e for integer e in the normal range.
-[[gnu::always_inline]] inline Lanes powerOfTwo(LaneBits e)
+// x times 2^e for integer e in the normal range.
+[[gnu::always_inline]] inline void timesPowerOfTwo(Lanes& x, const LaneBits& e)
 {
     const LaneBits bits = (e + 1023) << 52;
-    Lanes out;
-    std::memcpy(&out, &bits, sizeof out);
-    return out;
+    Lanes power;
+    std::memcpy(&power, &bits, sizeof power);
+    x = x * power;
 }
 
-[[gnu::always_inline]] inline Lanes lanesMin(Lanes a, Lanes b)
+[[gnu::always_inline]] inline void clamp(Lanes& x, double low, double high)
 {
-    return a < b ? a : b;
-}
-[[gnu::always_inline]] inline Lanes lanesMax(Lanes a, Lanes b)
-{
-    return a > b ? a : b;
+    x = x < high ? x : Lanes{} + high;
+    x = x > low ? x : Lanes{} + low;
 }
 
-// exp as Eigen's pexp_double: clamp, x = g + n·log 2 with n = floor(x·log2 e + ½), g by two
-// subtractions (log 2 split in C1 + C2), exp(g) = 1 + 2·P(g²)g / (Q(g²) − P(g²)g), then
+// exp as Eigen's pexp_double, in place: clamp, x = g + n·log 2 with n = floor(x·log2 e + ½), g by
+// two subtractions (log 2 split in C1 + C2), exp(g) = 1 + 2·P(g²)g / (Q(g²) − P(g²)g), then
 // times 2^n in four exact factors (Eigen's pldexp), which never overflows part-way.
-[[gnu::always_inline]] inline Lanes expOf(Lanes x)
+[[gnu::always_inline]] inline void expInPlace(Lanes& x)
 {
-    x = lanesMax(lanesMin(x, Lanes{} + 709.784), Lanes{} - 709.784);
-    Lanes fx = x * 1.4426950408889634073599 + 0.5;
-    fx = floorOf(fx);
+    clamp(x, -709.784, 709.784);
+    Lanes fx;
+    floorOf(x * 1.4426950408889634073599 + 0.5, fx);
     x = x - fx * 0.693145751953125;
     x = x - fx * 1.42860682030941723212e-6;
     const Lanes x2 = x * x;
@@ -83,15 +75,22 @@ constexpr double roundingShift = 6755399441055744.0;
     qx = qx * x2 + 2.00000000000000000009e0;
     x = px / (qx - px);
     x = 2.0 * x + 1.0;
-    const LaneBits e = integerOf(lanesMax(lanesMin(fx, Lanes{} + 2099.0), Lanes{} - 2099.0));
+    clamp(fx, -2099.0, 2099.0);
+    LaneBits e;
+    integerOf(fx, e);
     const LaneBits quarter = e >> 2;
-    Lanes out = x * powerOfTwo(quarter) * powerOfTwo(quarter) * powerOfTwo(quarter);
-    return out * powerOfTwo(e - quarter - quarter - quarter);
+    timesPowerOfTwo(x, quarter);
+    timesPowerOfTwo(x, quarter);
+    timesPowerOfTwo(x, quarter);
+    timesPowerOfTwo(x, e - quarter - quarter - quarter);
 }
 
-[[gnu::always_inline]] inline Lanes expitOf(Lanes lp, double a, double b)
+// expit(a + b·lp), in place.
+[[gnu::always_inline]] inline void expitInPlace(Lanes& x, double a, double b)
 {
-    return 1.0 / (1.0 + expOf(-(a + b * lp)));
+    x = -(a + b * x);
+    expInPlace(x);
+    x = 1.0 / (1.0 + x);
 }
 
 } // namespace
@@ -103,14 +102,14 @@ void vectorExpit(const double* lp, std::size_t n, double a, double b, double* ou
     for (; k + laneCount <= n; k += laneCount) {
         Lanes x;
         std::memcpy(&x, lp + k, sizeof x);
-        const Lanes p = expitOf(x, a, b);
-        std::memcpy(out + k, &p, sizeof p);
+        expitInPlace(x, a, b);
+        std::memcpy(out + k, &x, sizeof x);
     }
     if (k < n) {
         Lanes x{};
         std::memcpy(&x, lp + k, (n - k) * sizeof(double));
-        const Lanes p = expitOf(x, a, b);
-        std::memcpy(out + k, &p, (n - k) * sizeof(double));
+        expitInPlace(x, a, b);
+        std::memcpy(out + k, &x, (n - k) * sizeof(double));
     }
 }
 
