@@ -2,8 +2,11 @@
 add_library(plumbline_options INTERFACE)
 target_compile_features(plumbline_options INTERFACE cxx_std_23)
 set(CMAKE_CXX_EXTENSIONS OFF)
+# No fused multiply-add unless written: the vector-lane code (vectorExpit, the four-lane loess
+# fits) promises the scalar code's bits on every machine, and a compiler free to fuse a*b + c
+# would break that. GCC already does not fuse in ISO mode; clang does by default.
 target_compile_options(plumbline_options INTERFACE
-  -Wall -Wextra -Wpedantic -Wshadow -Wconversion -Wno-sign-conversion)
+  -Wall -Wextra -Wpedantic -Wshadow -Wconversion -Wno-sign-conversion -ffp-contract=off)
 target_compile_definitions(plumbline_options INTERFACE
   QT_NO_CONTEXTLESS_CONNECT
   QT_NO_CAST_FROM_ASCII

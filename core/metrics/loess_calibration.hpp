@@ -13,7 +13,9 @@
 namespace plumbline {
 
 // Distinct risks in ascending order with how many patients (and events) sit at each, possibly
-// frequency-weighted (a bootstrap replicate). A point may have a count of zero.
+// frequency-weighted (a bootstrap replicate). A point may have a count of zero. Counts are whole
+// numbers (patients, or a replicate's multinomial counts): their total is then exact in any order
+// of addition, which the fits rely on.
 // The same points, viewed: a bootstrap replicate passes its counts beside the fixed risks without
 // copying either.
 struct RiskPoints {

@@ -1,5 +1,7 @@
 #include "metrics/vector_expit.hpp"
 
+#include "metrics/logistic_recalibration.hpp"
+
 #include "resampling/random_stream.hpp"
 
 #include <Eigen/Core>
@@ -63,5 +65,27 @@ TEST_CASE("Vector expit fills a count that is not a multiple of the lanes", "[lo
             CHECK(out[k] == Approx(1.0 / (1.0 + std::exp(-(0.5 + lp[k])))).epsilon(1e-15));
         for (std::size_t k = n; k < out.size(); ++k)
             CHECK(out[k] == -1.0); // nothing written past the count
+    }
+}
+
+TEST_CASE("Predicted risks of an odd count equal Eigen's expression to the bit, the last one included", "[logistic]")
+{
+    // Eigen computes an odd count's last element with the scalar exp; the fits' passes keep that,
+    // so their results did not move when the lanes replaced Eigen. Counts across the 256-risk
+    // blocks the passes use.
+    RandomStream random(12);
+    for (const std::size_t count : {1u, 3u, 255u, 257u, 511u, 1001u}) {
+        std::vector<double> lp(count);
+        for (double& x : lp)
+            x = (random.uniform() - 0.5) * 20.0;
+        const auto expected = eigenExpit(lp, -0.3, 1.1);
+        std::vector<double> got;
+        predictedRisksInto(lp, -0.3, 1.1, got);
+        REQUIRE(got.size() == count);
+        std::size_t differing = 0;
+        for (std::size_t k = 0; k < count; ++k)
+            differing += std::bit_cast<std::uint64_t>(got[k]) != std::bit_cast<std::uint64_t>(expected[k]);
+        INFO("count " << count);
+        CHECK(differing == 0);
     }
 }
