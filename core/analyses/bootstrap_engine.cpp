@@ -322,12 +322,15 @@ std::optional<BootstrapResult> runBootstrap(const Cohort& cohort, const Validati
         }
 
     // Workers take replicates in turn and check the stop token between them. Progress is
-    // reported by whichever worker finishes a replicate that crosses a whole percent, under a
-    // mutex and never backwards, so the callback sees every percent in order.
+    // reported by whichever worker finishes a replicate that crosses a whole percent: under a
+    // mutex it reports every percent crossed since the last report, in order, each with the
+    // first count that reaches it (that many replicates have finished). Reporting only its own
+    // count let a worker that crossed the next percent first hide the one before, when the other
+    // worker had crossed it but not yet taken the mutex.
     std::atomic<std::size_t> nextReplicate{0}, done{0};
     std::atomic<bool> failed{false};
     std::mutex mutex;
-    std::size_t reported = 0;
+    std::size_t reportedPercent = 0, reportedCount = 0;
     std::exception_ptr failure;
     if (progress)
         progress(0, B);
@@ -335,9 +338,14 @@ std::optional<BootstrapResult> runBootstrap(const Cohort& cohort, const Validati
         if (!progress || (finished * 100 / B == (finished - 1) * 100 / B && finished != B))
             return;
         const std::lock_guard lock(mutex);
-        if (finished > reported) {
-            reported = finished;
-            progress(finished, B);
+        const std::size_t finishedNow = done.load();
+        for (std::size_t percent = reportedPercent + 1; percent <= finishedNow * 100 / B; ++percent) {
+            const std::size_t count = (percent * B + 99) / 100; // the first count at this percent
+            if (count > reportedCount) {
+                reportedCount = count;
+                progress(count, B);
+            }
+            reportedPercent = percent;
         }
     };
     auto worker = [&] {
