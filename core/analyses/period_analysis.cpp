@@ -193,7 +193,7 @@ std::expected<PeriodAnalysis, InputError> analysePeriods(const Cohort& cohort, c
             std::vector<std::uint8_t> weights(p.size());
             for (std::size_t i = 0; i < p.size(); ++i)
                 weights[i] = contradictsOutcome(p[i], y[i] != 0) ? 0 : 1;
-            const auto fit = fitCalibrationIntercept(y, clampedLogits(p), weights);
+            const auto fit = fitCalibrationIntercept(y, clampedLogits(p), weights, false);
             return fit ? Estimate{fit->alpha, fit->se, fit->alpha - z * fit->se, fit->alpha + z * fit->se, CiMethod::Wald}
                        : Estimate::undefined();
         };

@@ -11,37 +11,49 @@ namespace plumbline {
 namespace {
 
 constexpr int maxIterations = 100;
-// A replicate's Newton step below this ends its fit after one more order of correction: the
-// error left is then of order 1e-15 (cubed), far inside the 1e-10 the fits are held to.
+// A Newton step below this ends a fit after one more order of correction: the error left is
+// then of order 1e-15 (cubed), far inside the 1e-10 the fits are held to.
 constexpr double converged = 1e-5;
 // Steps smaller than this (in the linear predictor) get the second-order correction; a larger
 // one, far from the root, is a plain Newton step.
 constexpr double correctable = 0.1;
 
-double expit(double x)
-{
-    return 1.0 / (1.0 + std::exp(-x));
-}
-
-// log(expit(x)) without cancellation for large |x|.
-double logExpit(double x)
-{
-    return x >= 0 ? -std::log1p(std::exp(-x)) : x - std::log1p(std::exp(x));
-}
+// The information (and, when asked, the log-likelihood) at a fit's solution, in one pass with
+// one exp and one log1p a point: p and the log-risks all come from e = exp(−|a + b·lp|), so the
+// standard errors and the likelihood-ratio tests cost one pass instead of an information pass
+// plus a log-likelihood pass with an exp of its own.
+struct AtSolution {
+    double h00 = 0.0, h01 = 0.0, h11 = 0.0, logLikelihood = 0.0;
+};
 
 template <typename Points>
-double binomialLogLikelihood(const Points& d, double a, double b)
+AtSolution atSolution(const Points& d, double a, double b, bool withLogLikelihood)
 {
-    double ll = 0.0;
+    AtSolution s;
     for (std::size_t k = 0; k < d.lp.size(); ++k) {
-        if (d.trials[k] <= 0.0)
+        const double trials = d.trials[k];
+        if (trials <= 0.0)
             continue;
-        const double linear = a + b * d.lp[k];
-        const double nonEvents = d.trials[k] - d.events[k];
-        ll += (d.events[k] > 0.0 ? d.events[k] * logExpit(linear) : 0.0)
-            + (nonEvents > 0.0 ? nonEvents * logExpit(-linear) : 0.0);
+        const double x = d.lp[k];
+        const double linear = a + b * x;
+        const double e = std::exp(-std::abs(linear));
+        const double p = linear >= 0.0 ? 1.0 / (1.0 + e) : e / (1.0 + e);
+        const double v = trials * p * (1.0 - p);
+        s.h00 += v;
+        s.h01 += v * x;
+        s.h11 += v * x * x;
+        if (withLogLikelihood) {
+            // log p and log(1 − p) without cancellation: −log1p(e) on the side of the sign,
+            // −|linear| − log1p(e) on the other.
+            const double tail = std::log1p(e);
+            const double logP = linear >= 0.0 ? -tail : linear - tail;
+            const double logQ = linear >= 0.0 ? -linear - tail : -tail;
+            const double events = d.events[k];
+            const double nonEvents = trials - events;
+            s.logLikelihood += (events > 0.0 ? events * logP : 0.0) + (nonEvents > 0.0 ? nonEvents * logQ : 0.0);
+        }
     }
-    return ll;
+    return s;
 }
 
 // Calls add(k, p) for every point in order, p = expit(a + b·lp[k]) computed in vector lanes a
@@ -124,70 +136,30 @@ std::vector<double> clampedLogits(std::span<const double> risk, std::size_t* cla
 
 double logLikelihoodOfLogits(const BinomialPoints& points)
 {
-    return binomialLogLikelihood(points, 0.0, 1.0);
+    return atSolution(points, 0.0, 1.0, true).logLikelihood;
 }
 
 double logLikelihoodOfLogits(std::span<const std::uint8_t> outcome, std::span<const double> lp,
                              std::span<const double> weights)
 {
-    return binomialLogLikelihood(RowPoints<double>(outcome, lp, weights), 0.0, 1.0);
+    return atSolution(RowPoints<double>(outcome, lp, weights), 0.0, 1.0, true).logLikelihood;
 }
 
 double logLikelihoodOfLogits(std::span<const std::uint8_t> outcome, std::span<const double> lp,
                              std::span<const std::uint8_t> included)
 {
-    return binomialLogLikelihood(RowPoints<std::uint8_t>(outcome, lp, included), 0.0, 1.0);
+    return atSolution(RowPoints<std::uint8_t>(outcome, lp, included), 0.0, 1.0, true).logLikelihood;
 }
 
 namespace {
 
-// Points: BinomialPoints, or RowPoints read in place.
+// Chebyshev's method for the intercept: the Newton step s = S/I corrected by its second-order
+// term, δ = s − ½(J/I)s² with J = Σ n·p(1−p)(1−2p), so each pass leaves an error of order s³
+// instead of s². A pass whose Newton step is below `converged` ends the fit within about 1e-15
+// of the root. Points: BinomialPoints, or RowPoints read in place.
 template <typename Points>
-std::optional<InterceptFit> interceptFit(const Points& d, double start)
+std::optional<double> chebyshevIntercept(const Points& d, double start, const InterceptSums* atStart)
 {
-    double alpha = start;
-    for (int iteration = 0; iteration < maxIterations; ++iteration) {
-        double score = 0.0;
-        double information = 0.0;
-        for (std::size_t k = 0; k < d.lp.size(); ++k) {
-            if (d.trials[k] <= 0.0)
-                continue;
-            const double pi = expit(alpha + d.lp[k]);
-            score += d.events[k] - d.trials[k] * pi;
-            information += d.trials[k] * pi * (1.0 - pi);
-        }
-        if (!(information > 0.0))
-            return std::nullopt;
-        const double step = score / information;
-        alpha += step;
-        if (!std::isfinite(alpha) || std::abs(alpha) > 50.0)
-            return std::nullopt;
-        if (std::abs(step) < 1e-10) {
-            double finalInformation = 0.0;
-            for (std::size_t k = 0; k < d.lp.size(); ++k) {
-                const double pi = expit(alpha + d.lp[k]);
-                finalInformation += d.trials[k] * pi * (1.0 - pi);
-            }
-            return InterceptFit{alpha, 1.0 / std::sqrt(finalInformation), binomialLogLikelihood(d, alpha, 1.0)};
-        }
-    }
-    return std::nullopt;
-}
-
-} // namespace
-
-std::optional<InterceptFit> fitCalibrationIntercept(const BinomialPoints& d, double start)
-{
-    return interceptFit(d, start);
-}
-
-std::optional<double> calibrationInterceptEstimate(const BinomialPoints& d, double start, const InterceptSums* atStart)
-{
-    // Chebyshev's method: the Newton step s = S/I corrected by its second-order term,
-    // δ = s − ½(J/I)s² with J = Σ n·p(1−p)(1−2p), so each pass leaves an error of order s³
-    // instead of s². From the full-sample fit the first step is a few thousandths; the second
-    // pass's step is then of order 1e-7 and its corrected result within about 1e-20 of the root
-    // (the earlier rule, stop when a Newton step is below 1e-10, needed a third pass).
     double alpha = start;
     for (int iteration = 0; iteration < maxIterations; ++iteration) {
         InterceptSums sums;
@@ -212,82 +184,24 @@ std::optional<double> calibrationInterceptEstimate(const BinomialPoints& d, doub
     return std::nullopt;
 }
 
-std::optional<InterceptFit> fitCalibrationIntercept(std::span<const std::uint8_t> outcome, std::span<const double> lp,
-                                                    std::span<const double> weights)
-{
-    return interceptFit(RowPoints<double>(outcome, lp, weights), 0.0);
-}
-
-std::optional<InterceptFit> fitCalibrationIntercept(std::span<const std::uint8_t> outcome, std::span<const double> lp,
-                                                    std::span<const std::uint8_t> included)
-{
-    return interceptFit(RowPoints<std::uint8_t>(outcome, lp, included), 0.0);
-}
-
-namespace {
-
-// Points: BinomialPoints, or RowPoints read in place.
 template <typename Points>
-std::optional<SlopeFit> slopeFit(const Points& d, double startIntercept, double startSlope)
+std::optional<InterceptFit> interceptFit(const Points& d, double start, bool withLogLikelihood)
 {
-    double a = startIntercept;
-    double b = startSlope;
-    auto information = [&](double& h00, double& h01, double& h11, double* g0, double* g1) {
-        h00 = h01 = h11 = 0.0;
-        if (g0) *g0 = 0.0;
-        if (g1) *g1 = 0.0;
-        for (std::size_t k = 0; k < d.lp.size(); ++k) {
-            if (d.trials[k] <= 0.0)
-                continue;
-            const double x = d.lp[k];
-            const double pi = expit(a + b * x);
-            const double v = d.trials[k] * pi * (1.0 - pi);
-            h00 += v;
-            h01 += v * x;
-            h11 += v * x * x;
-            if (g0) {
-                const double r = d.events[k] - d.trials[k] * pi;
-                *g0 += r;
-                *g1 += r * x;
-            }
-        }
-    };
-    for (int iteration = 0; iteration < maxIterations; ++iteration) {
-        double g0 = 0.0, g1 = 0.0, h00 = 0.0, h01 = 0.0, h11 = 0.0;
-        information(h00, h01, h11, &g0, &g1);
-        const double det = h00 * h11 - h01 * h01;
-        if (!(det > 1e-12 * std::max(1.0, h00 * h11)))
-            return std::nullopt; // constant lp or a degenerate fit
-        const double da = (h11 * g0 - h01 * g1) / det;
-        const double db = (h00 * g1 - h01 * g0) / det;
-        a += da;
-        b += db;
-        if (!std::isfinite(a) || !std::isfinite(b) || std::abs(b) > 1e3)
-            return std::nullopt; // diverging: (quasi-)separation
-        if (std::abs(da) < 1e-10 && std::abs(db) < 1e-10) {
-            double k00 = 0.0, k01 = 0.0, k11 = 0.0;
-            information(k00, k01, k11, nullptr, nullptr);
-            const double det2 = k00 * k11 - k01 * k01;
-            return SlopeFit{a, b, std::sqrt(k11 / det2), std::sqrt(k00 / det2), binomialLogLikelihood(d, a, b),
-                            {k00, k01, k11}};
-        }
-    }
-    return std::nullopt;
+    const auto alpha = chebyshevIntercept(d, start, nullptr);
+    if (!alpha)
+        return std::nullopt;
+    const AtSolution s = atSolution(d, *alpha, 1.0, withLogLikelihood);
+    if (!(s.h00 > 0.0))
+        return std::nullopt;
+    return InterceptFit{*alpha, 1.0 / std::sqrt(s.h00), s.logLikelihood};
 }
 
-} // namespace
-
-std::optional<SlopeFit> fitCalibrationSlope(const BinomialPoints& d, double startIntercept, double startSlope)
+// Chebyshev's method in two parameters: the Newton step s = H⁻¹g corrected by −½H⁻¹T[s,s], T the
+// third derivative of the log-likelihood, whose contraction needs the moments
+// Σ n·p(1−p)(1−2p)·lp^j, j = 0…3, gathered in the same pass.
+template <typename Points>
+std::optional<SlopeEstimate> chebyshevSlope(const Points& d, double startIntercept, double startSlope, const SlopeSums* atStart)
 {
-    return slopeFit(d, startIntercept, startSlope);
-}
-
-std::optional<SlopeEstimate> calibrationSlopeEstimate(const BinomialPoints& d, double startIntercept, double startSlope,
-                                                      const SlopeSums* atStart)
-{
-    // Chebyshev's method in two parameters (as calibrationInterceptEstimate): the Newton step
-    // s = H⁻¹g corrected by −½H⁻¹T[s,s], T the third derivative of the log-likelihood, whose
-    // contraction needs the moments Σ n·p(1−p)(1−2p)·lp^j, j = 0…3, gathered in the same pass.
     double a = startIntercept, b = startSlope;
     double largestLp = 0.0;
     for (const double x : d.lp)
@@ -303,7 +217,7 @@ std::optional<SlopeEstimate> calibrationSlopeEstimate(const BinomialPoints& d, d
         const auto [g0, g1, h00, h01, h11, t0, t1, t2, t3] = sums;
         const double det = h00 * h11 - h01 * h01;
         if (!(det > 1e-12 * std::max(1.0, h00 * h11)))
-            return std::nullopt;
+            return std::nullopt; // constant lp or a degenerate fit
         const double da = (h11 * g0 - h01 * g1) / det;
         const double db = (h00 * g1 - h01 * g0) / det;
         // Converged when the step moves no patient's linear predictor by more than `converged`.
@@ -319,11 +233,60 @@ std::optional<SlopeEstimate> calibrationSlopeEstimate(const BinomialPoints& d, d
             b += db;
         }
         if (!std::isfinite(a) || !std::isfinite(b) || std::abs(b) > 1e3)
-            return std::nullopt;
+            return std::nullopt; // diverging: (quasi-)separation
         if (close)
             return SlopeEstimate{a, b};
     }
     return std::nullopt;
+}
+
+template <typename Points>
+std::optional<SlopeFit> slopeFit(const Points& d, double startIntercept, double startSlope)
+{
+    const auto estimate = chebyshevSlope(d, startIntercept, startSlope, nullptr);
+    if (!estimate)
+        return std::nullopt;
+    const AtSolution s = atSolution(d, estimate->intercept, estimate->slope, true);
+    const double det = s.h00 * s.h11 - s.h01 * s.h01;
+    if (!(det > 0.0))
+        return std::nullopt;
+    return SlopeFit{estimate->intercept, estimate->slope, std::sqrt(s.h11 / det), std::sqrt(s.h00 / det), s.logLikelihood,
+                    {s.h00, s.h01, s.h11}};
+}
+
+} // namespace
+
+std::optional<InterceptFit> fitCalibrationIntercept(const BinomialPoints& d, double start)
+{
+    return interceptFit(d, start, true);
+}
+
+std::optional<double> calibrationInterceptEstimate(const BinomialPoints& d, double start, const InterceptSums* atStart)
+{
+    return chebyshevIntercept(d, start, atStart);
+}
+
+std::optional<InterceptFit> fitCalibrationIntercept(std::span<const std::uint8_t> outcome, std::span<const double> lp,
+                                                    std::span<const double> weights)
+{
+    return interceptFit(RowPoints<double>(outcome, lp, weights), 0.0, true);
+}
+
+std::optional<InterceptFit> fitCalibrationIntercept(std::span<const std::uint8_t> outcome, std::span<const double> lp,
+                                                    std::span<const std::uint8_t> included, bool withLogLikelihood)
+{
+    return interceptFit(RowPoints<std::uint8_t>(outcome, lp, included), 0.0, withLogLikelihood);
+}
+
+std::optional<SlopeFit> fitCalibrationSlope(const BinomialPoints& d, double startIntercept, double startSlope)
+{
+    return slopeFit(d, startIntercept, startSlope);
+}
+
+std::optional<SlopeEstimate> calibrationSlopeEstimate(const BinomialPoints& d, double startIntercept, double startSlope,
+                                                      const SlopeSums* atStart)
+{
+    return chebyshevSlope(d, startIntercept, startSlope, atStart);
 }
 
 std::optional<SlopeFit> fitCalibrationSlope(std::span<const std::uint8_t> outcome, std::span<const double> lp,

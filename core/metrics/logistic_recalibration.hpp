@@ -34,6 +34,7 @@ struct BinomialPoints {
 };
 
 // Calibration-in-the-large: logit P(y=1) = α + lp with lp as offset, α by Newton's method
+// with Chebyshev's second-order correction near the root (within about 1e-15 of it)
 // (Van Calster et al. 2016, J Clin Epidemiol 74:167). nullopt when the fit does not converge.
 struct InterceptFit {
     double alpha;
@@ -62,11 +63,13 @@ std::optional<double> calibrationInterceptEstimate(const BinomialPoints& points,
 std::optional<InterceptFit> fitCalibrationIntercept(std::span<const std::uint8_t> outcome, std::span<const double> lp,
                                                     std::span<const double> weights = {});
 // The same with each row in the fit (1) or left out (0): a byte a row instead of a double.
+// Without `withLogLikelihood` the fit's logLikelihood is 0 (a caller that reads only α and its
+// standard error saves a log1p a patient).
 std::optional<InterceptFit> fitCalibrationIntercept(std::span<const std::uint8_t> outcome, std::span<const double> lp,
-                                                    std::span<const std::uint8_t> included);
+                                                    std::span<const std::uint8_t> included, bool withLogLikelihood = true);
 
-// Logistic recalibration: logit P(y=1) = a + b·lp by Newton–Raphson (Cox 1958); a, b with Wald
-// SEs. nullopt on separation or when lp is constant (the slope is then not identifiable).
+// Logistic recalibration: logit P(y=1) = a + b·lp by Newton–Raphson with Chebyshev's correction
+// near the root (Cox 1958); a, b with Wald SEs. nullopt on separation or when lp is constant (the slope is then not identifiable).
 // A warm start (the full-sample fit) saves iterations in bootstrap replicates.
 struct SlopeFit {
     double intercept;
