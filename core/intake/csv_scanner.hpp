@@ -41,6 +41,8 @@ public:
     std::size_t blankLinesSkipped() const { return m_blankLines; }
     // Offset into the text of the first byte not yet read: everything before it is done with.
     std::size_t offset() const { return m_pos; }
+    // 1-based physical line of the first byte not yet read.
+    std::size_t nextLine() const { return m_line; }
 
 private:
     void readUnquoted();

@@ -5,6 +5,7 @@
 #include "intake/record_reader.hpp"
 #include "intake/text_file.hpp"
 
+#include <atomic>
 #include <cstddef>
 #include <expected>
 #include <optional>
@@ -31,23 +32,57 @@ public:
 
     // Calls visit(scanner) for every data record (blank lines skipped). An unclosed quote is an
     // InputError because everything after it would be swallowed into one field; so is a file
-    // that cannot be read to its end. The file is read a block at a time.
+    // that cannot be read to its end. The file is read a block at a time. Returns the number of
+    // blank lines skipped.
     template <typename Visit>
     std::expected<std::size_t, InputError> forEachRecord(Visit&& visit) const
     {
-        RecordReader records(m_file, m_delimiter);
-        records.next(); // header
+        const auto run = forEachRecordFrom(0, std::string::npos, nullptr, std::forward<Visit>(visit));
+        if (!run)
+            return std::unexpected(run.error());
+        return run->blankLinesSkipped;
+    }
+
+    // How a visit of part of the records ended.
+    struct RecordRun {
+        std::size_t blankLinesSkipped = 0;
+        bool stoppedAt = false;  // a record ended exactly at `stopAt`, and the visit stopped there
+        std::size_t lineAfter = 0; // with stoppedAt: the 1-based line that starts at `stopAt`
+        bool abandoned = false;
+    };
+    // As forEachRecord, for the records from text offset `from` on: from 0 the header is read
+    // first; any other `from` must start a record (a guess, when the text is read on two
+    // threads), and lines count from 1 there. Stops after the record that ends exactly at text
+    // offset `stopAt`, if one does, and between records once `*abandon` is set.
+    template <typename Visit>
+    std::expected<RecordRun, InputError> forEachRecordFrom(std::size_t from, std::size_t stopAt, const std::atomic<bool>* abandon,
+                                                           Visit&& visit) const
+    {
+        RecordRun run;
+        RecordReader records(m_file, m_delimiter, from);
+        if (from == 0)
+            records.next(); // header
         while (records.next()) {
+            if (abandon && abandon->load(std::memory_order_relaxed)) {
+                run.abandoned = true;
+                return run;
+            }
             const CsvScanner& scanner = records.scanner();
             if (scanner.unclosedQuote())
                 return std::unexpected(unclosedQuoteError(scanner));
-            if (isWhitespaceOnly(scanner))
-                continue;
-            visit(scanner);
+            if (!isWhitespaceOnly(scanner))
+                visit(scanner);
+            if (from + records.offset() == stopAt) {
+                run.stoppedAt = true;
+                run.lineAfter = scanner.nextLine();
+                run.blankLinesSkipped = scanner.blankLinesSkipped();
+                return run;
+            }
         }
         if (records.readError())
             return std::unexpected(m_file.readFailure(*records.readError()));
-        return records.scanner().blankLinesSkipped();
+        run.blankLinesSkipped = records.scanner().blankLinesSkipped();
+        return run;
     }
 
 private:

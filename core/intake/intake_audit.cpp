@@ -64,6 +64,20 @@ void ExclusionCounter::exclude(ExclusionReason reason, const std::string& file, 
     }
 }
 
+void ExclusionCounter::absorb(const ExclusionCounter& later, std::size_t lineShift)
+{
+    for (const auto& [key, tally] : later.m_tallies) {
+        // Every line of this counter comes before every line of `later`: its first lines are
+        // followed by the later ones.
+        ExclusionTally& mine = m_tallies.try_emplace(key, ExclusionTally{tally.reason, tally.file, tally.column, 0, {}}).first->second;
+        mine.rows += tally.rows;
+        for (const std::size_t line : tally.firstLines)
+            if (mine.firstLines.size() < linesKept)
+                mine.firstLines.push_back(line + lineShift);
+    }
+    m_total += later.m_total;
+}
+
 std::vector<ExclusionTally> ExclusionCounter::tallies() const
 {
     std::vector<ExclusionTally> out;

@@ -83,6 +83,8 @@ public:
     static constexpr std::size_t linesKept = 5;
 
     void exclude(ExclusionReason reason, const std::string& file, const std::string& column, std::size_t line);
+    // Adds the tallies of a later part of the same file, whose lines count from `lineShift` + 1.
+    void absorb(const ExclusionCounter& later, std::size_t lineShift);
     std::size_t total() const { return m_total; }
     std::vector<ExclusionTally> tallies() const; // ordered by reason, then first line
 

@@ -4,8 +4,8 @@
 
 namespace plumbline {
 
-RecordReader::RecordReader(const TextFile& file, char delimiter)
-    : m_blocks(file.textBlocks())
+RecordReader::RecordReader(const TextFile& file, char delimiter, std::size_t from)
+    : m_blocks(file.textBlocks(from))
     , m_scanner(m_blocks.view(), delimiter, m_blocks.atEnd())
 {
 }

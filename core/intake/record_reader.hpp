@@ -18,13 +18,14 @@ class TextFile;
 // the whole text.
 class RecordReader {
 public:
-    RecordReader(const TextFile& file, char delimiter);
+    // From text offset `from` on, which must start a record; lines count from 1 there.
+    RecordReader(const TextFile& file, char delimiter, std::size_t from = 0);
 
     // Advances to the next non-blank record; false at the end of the text or on a read error.
     bool next();
     const CsvScanner& scanner() const { return m_scanner; }
     const std::vector<std::string_view>& fields() const { return m_scanner.fields(); }
-    // Offset into the text of the first byte not yet read.
+    // Offset of the first byte not yet read, from `from`.
     std::size_t offset() const { return m_blocks.offset() + m_scanner.offset(); }
     // Why the file could not be read to its end, if it could not.
     const std::optional<std::string>& readError() const { return m_readError; }

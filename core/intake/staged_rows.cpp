@@ -32,6 +32,31 @@ std::uint8_t OutcomeLevelCollector::add(std::string_view field, std::size_t line
     return static_cast<std::uint8_t>(m_levels.size() - 1);
 }
 
+std::vector<std::uint8_t> OutcomeLevelCollector::absorb(const OutcomeLevelCollector& later, std::size_t lineShift)
+{
+    std::vector<std::uint8_t> index;
+    for (const OutcomeLevel& level : later.m_levels) {
+        std::size_t i = 0;
+        while (i < m_levels.size() && m_levels[i].text != level.text)
+            ++i;
+        if (i == m_levels.size()) {
+            i = 0;
+            while (i < m_levels.size() && m_levels[i].folded != level.folded)
+                ++i;
+        }
+        if (i < m_levels.size()) {
+            m_levels[i].count += level.count;
+        } else if (m_levels.size() >= cap) {
+            i = m_levels.size() - 1;
+            m_levels[i].count += level.count;
+        } else {
+            m_levels.push_back({level.text, level.folded, level.count, level.firstLine + lineShift});
+        }
+        index.push_back(static_cast<std::uint8_t>(i));
+    }
+    return index;
+}
+
 std::uint32_t LevelDictionary::code(std::string_view field)
 {
     std::string value(trimmed(field));

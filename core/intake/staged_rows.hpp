@@ -43,6 +43,9 @@ public:
     static constexpr std::size_t cap = 64;
     // Returns the level index, or StagedRows::missingOutcome for a missing token.
     std::uint8_t add(std::string_view field, std::size_t line);
+    // Adds the levels of a later part of the file, whose lines count from `lineShift` + 1; returns
+    // each of its level indices' index here.
+    std::vector<std::uint8_t> absorb(const OutcomeLevelCollector& later, std::size_t lineShift);
     const std::vector<OutcomeLevel>& levels() const { return m_levels; }
 
 private:

@@ -2,6 +2,7 @@
 #include "intake/sha256.hpp"
 
 #include "support/intake_test_support.hpp"
+#include "support/temp_files.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -32,13 +33,6 @@ std::string messyCohort()
             text += "r" + id + "," + outcome + ",0." + score + (row % 2 ? ",Z\xC3\xBCrich\n" : ",\xE2\x82\xAC" "ward\r\n");
     }
     return text;
-}
-
-std::filesystem::path writtenFile(const std::string& name, const std::string& bytes)
-{
-    const auto path = std::filesystem::temp_directory_path() / name;
-    std::ofstream(path, std::ios::binary) << bytes;
-    return path;
 }
 
 IntakeSettings groupedSettings(const std::filesystem::path& path)

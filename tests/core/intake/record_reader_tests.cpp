@@ -1,6 +1,7 @@
 #include "intake/record_reader.hpp"
 
 #include "intake/text_file.hpp"
+#include "support/temp_files.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -10,15 +11,9 @@
 #include <vector>
 
 using namespace plumbline;
+using namespace plumbline::test;
 
 namespace {
-
-std::filesystem::path writtenFile(const std::string& name, const std::string& bytes)
-{
-    const auto path = std::filesystem::temp_directory_path() / name;
-    std::ofstream(path, std::ios::binary) << bytes;
-    return path;
-}
 
 // What a reader reports of each record, for comparing one read whole with one read in blocks.
 struct SeenRecord {

@@ -1,6 +1,7 @@
 #include "intake/text_file.hpp"
 
 #include "intake/sha256.hpp"
+#include "support/temp_files.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -11,6 +12,7 @@
 #include <sys/stat.h>
 
 using plumbline::TextFile;
+using plumbline::test::writtenFile;
 
 TEST_CASE("A UTF-8 byte-order mark is skipped in the text but kept in the bytes", "[textfile]")
 {
@@ -114,14 +116,6 @@ TEST_CASE("UTF-16 without a byte-order mark is recognised and named", "[textfile
 }
 
 namespace {
-
-// Writes bytes to a fresh file in the temporary folder and returns its path.
-std::filesystem::path writtenFile(const std::string& name, const std::string& bytes)
-{
-    const auto path = std::filesystem::temp_directory_path() / name;
-    std::ofstream(path, std::ios::binary) << bytes;
-    return path;
-}
 
 // A cohort of several 4 KiB pages whose lines end in CRLF and hold two- and three-byte UTF-8
 // characters, so that block and page boundaries fall inside characters and between CR and LF.
