@@ -101,22 +101,21 @@ RowVerdict scoreVerdict(ScoreFieldStatus status, double raw, ScoreScale scale)
     return {};
 }
 
-// Keeps only the group levels that occur among the rows used, in order of first appearance.
-CategoricalColumn compactGroup(std::string name, const std::vector<std::string>& levels,
-                               const std::vector<std::uint32_t>& codes, const std::vector<std::uint32_t>& usedRows)
+// Keeps only the group levels that occur among the rows used (`codes`, already cut to them), in
+// order of first appearance; the codes are renumbered in place.
+CategoricalColumn compactGroup(std::string name, const std::vector<std::string>& levels, std::vector<std::uint32_t>&& codes)
 {
     CategoricalColumn column;
     column.name = std::move(name);
     std::vector<std::int64_t> remap(levels.size(), -1);
-    column.codes.reserve(usedRows.size());
-    for (const std::uint32_t r : usedRows) {
-        const std::uint32_t old = codes[r];
-        if (remap[old] < 0) {
-            remap[old] = static_cast<std::int64_t>(column.levels.size());
-            column.levels.push_back(levels[old]);
+    for (std::uint32_t& code : codes) {
+        if (remap[code] < 0) {
+            remap[code] = static_cast<std::int64_t>(column.levels.size());
+            column.levels.push_back(levels[code]);
         }
-        column.codes.push_back(static_cast<std::uint32_t>(remap[old]));
+        code = static_cast<std::uint32_t>(remap[code]);
     }
+    column.codes = std::move(codes);
     return column;
 }
 
@@ -172,38 +171,40 @@ std::expected<Cohort, InputError> assembleCohort(StagedRows&& staged, const std:
                            staged.lines[r]);
     }
 
+    // The cohort's columns are the staged ones with the unused rows squeezed out in place, so no
+    // column is ever held twice (a large file's staged and assembled columns would not fit the
+    // memory a ten-million-row cohort is allowed), and nothing is copied when every row is used.
+    auto keepUsedRows = [&](auto& column) {
+        if (usedRows.size() == column.size())
+            return;
+        for (std::size_t k = 0; k < usedRows.size(); ++k)
+            column[k] = std::move(column[usedRows[k]]); // usedRows ascends, so usedRows[k] >= k
+        column.resize(usedRows.size());
+    };
     Cohort cohort;
     cohort.scale = settings.scale;
-    cohort.outcome.reserve(usedRows.size());
-    cohort.sourceLines.reserve(usedRows.size());
-    for (const std::uint32_t r : usedRows) {
-        cohort.outcome.push_back(staged.outcomeLevel[r] == coding->eventLevel ? 1 : 0);
-        cohort.sourceLines.push_back(staged.lines[r]);
-    }
-    // Each staged column is freed once the cohort has what it needs of it, so that a large file
-    // never holds its staged and its assembled columns whole at once.
-    staged.lines = {};
+    keepUsedRows(staged.outcomeLevel);
+    for (auto& level : staged.outcomeLevel)
+        level = level == coding->eventLevel ? 1 : 0;
+    cohort.outcome = std::move(staged.outcomeLevel);
+    keepUsedRows(staged.lines);
+    cohort.sourceLines = std::move(staged.lines);
     staged.outcomeLines = {};
-    staged.outcomeLevel = {};
     staged.scoreStatus = {};
     for (std::size_t c = 0; c < columns; ++c) {
-        ModelScores model;
-        model.name = settings.scoreColumns[c];
-        model.values.reserve(usedRows.size());
-        for (const std::uint32_t r : usedRows)
-            model.values.push_back(*convertScore(staged.rawScores[c][r], settings.scale));
-        cohort.models.push_back(std::move(model));
-        staged.rawScores[c] = {};
+        std::vector<double>& values = staged.rawScores[c];
+        keepUsedRows(values);
+        for (double& value : values)
+            value = *convertScore(value, settings.scale);
+        cohort.models.push_back({settings.scoreColumns[c], std::move(values)});
     }
     if (!staged.ids.empty()) {
-        cohort.ids.reserve(usedRows.size());
-        for (const std::uint32_t r : usedRows)
-            cohort.ids.push_back(std::move(staged.ids[r]));
-        staged.ids = {};
+        keepUsedRows(staged.ids);
+        cohort.ids = std::move(staged.ids);
     }
     for (std::size_t g = 0; g < staged.groupCodes.size(); ++g) {
-        cohort.groups.push_back(compactGroup(settings.groupColumns[g], staged.groupLevels[g], staged.groupCodes[g], usedRows));
-        staged.groupCodes[g] = {};
+        keepUsedRows(staged.groupCodes[g]);
+        cohort.groups.push_back(compactGroup(settings.groupColumns[g], staged.groupLevels[g], std::move(staged.groupCodes[g])));
     }
 
     audit.rowsUsed = cohort.rows();

@@ -10,6 +10,10 @@
 #include <future>
 #include <unordered_set>
 
+#if defined(__GLIBC__)
+#include <malloc.h>
+#endif
+
 namespace plumbline {
 
 namespace {
@@ -199,6 +203,12 @@ std::expected<IntakeResult, InputError> runIntake(const IntakeSettings& asked, T
     if (!cohortFingerprint)
         return std::unexpected(cohortFingerprint.error());
     result.inputs.push_back({"cohort", settings.cohortFile, std::move(*cohortFingerprint), audit.rowsRead});
+#if defined(__GLIBC__)
+    // The staging freed columns that the allocator keeps for reuse (those below its mapping
+    // threshold, and the second thread's arena): given back now, a ten-million-row cohort's
+    // analysis starts from the cohort's own memory instead of about 90 MB above it.
+    malloc_trim(0);
+#endif
     if (outcomesTable)
         result.inputs.push_back({"outcomes", *settings.outcomesFile, outcomesHash, audit.join->outcomeRows});
     return result;
