@@ -3,6 +3,7 @@
 #include "metrics/discrimination.hpp"
 #include "metrics/distributions.hpp"
 #include "metrics/panel_keys.hpp"
+#include "analyses/two_threads.hpp"
 #include "analyses/validation.hpp"
 
 #include <algorithm>
@@ -81,7 +82,8 @@ void addNri(std::vector<DifferenceEstimate>& out, const std::string& prefix, con
 }
 
 ModelComparison comparePair(const Cohort& cohort, std::size_t a, std::size_t b, const ValidationResult& result,
-                            const PanelSettings& settings, const std::vector<double>& cuts, const std::vector<ScoreOrder>* orders)
+                            const PanelSettings& settings, const std::vector<double>& cuts, const std::vector<ScoreOrder>* orders,
+                            unsigned threads)
 {
     const auto& y = cohort.outcome;
     const auto& pa = cohort.models[a].values;
@@ -91,8 +93,19 @@ ModelComparison comparePair(const Cohort& cohort, std::size_t a, std::size_t b, 
     out.modelA = cohort.models[a].name;
     out.modelB = cohort.models[b].name;
 
-    const Placements placementsA = orders ? delongPlacements(y, pa, (*orders)[a]) : delongPlacements(y, pa);
-    const Placements placementsB = orders ? delongPlacements(y, pb, (*orders)[b]) : delongPlacements(y, pb);
+    // The two models' placements are independent: on two threads when the caller has them.
+    Placements placementsA, placementsB;
+    auto place = [&](std::size_t which) {
+        const std::size_t model = which == 0 ? a : b;
+        const auto& p = cohort.models[model].values;
+        (which == 0 ? placementsA : placementsB) = orders ? delongPlacements(y, p, (*orders)[model]) : delongPlacements(y, p);
+    };
+    if (threads >= 2) {
+        onTwoThreads(2, place);
+    } else {
+        place(0);
+        place(1);
+    }
     const double varDiff = delongVariance(placementsA) + delongVariance(placementsB) - 2.0 * delongCovariance(placementsA, placementsB);
     out.differences.push_back(normalDifference("c_statistic_difference", placementsB.c - placementsA.c,
                                                std::sqrt(std::max(0.0, varDiff)), confidence, CiMethod::DeLongPlain));
@@ -163,14 +176,14 @@ ModelComparison comparePair(const Cohort& cohort, std::size_t a, std::size_t b, 
 
 std::vector<ModelComparison> compareModels(const Cohort& cohort, const ValidationResult& result,
                                            const PanelSettings& settings, const std::vector<double>& cutPoints,
-                                           const std::vector<ScoreOrder>* orders)
+                                           const std::vector<ScoreOrder>* orders, unsigned threads)
 {
     std::vector<double> cuts = cutPoints;
     std::sort(cuts.begin(), cuts.end());
     std::vector<ModelComparison> out;
     for (std::size_t a = 0; a < cohort.models.size(); ++a)
         for (std::size_t b = a + 1; b < cohort.models.size(); ++b)
-            out.push_back(comparePair(cohort, a, b, result, settings, cuts, orders));
+            out.push_back(comparePair(cohort, a, b, result, settings, cuts, orders, threads));
     return out;
 }
 

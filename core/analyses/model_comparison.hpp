@@ -49,10 +49,11 @@ struct ModelComparison {
 // non-event components (Pencina et al. 2008; p from SE0, interval from SE1, both from memory —
 // docs/methods.md §18); IDI with its SE (Pencina et al. 2008, from memory); Δ calibration slope,
 // ΔICI and ΔNB as point estimates (their intervals come from the paired bootstrap).
-// `orders`, when given, holds each model's ascendingOrder (sorted once by the caller).
+// `orders`, when given, holds each model's ascendingOrder (sorted once by the caller). With two
+// `threads` a pair's two models are ranked at once.
 std::vector<ModelComparison> compareModels(const Cohort& cohort, const struct ValidationResult& result,
                                            const PanelSettings& settings, const std::vector<double>& cutPoints,
-                                           const std::vector<ScoreOrder>* orders = nullptr);
+                                           const std::vector<ScoreOrder>* orders = nullptr, unsigned threads = 1);
 
 // What a reader must keep in mind about these comparisons (docs/methods.md §18).
 std::vector<std::string> comparisonCautions();

@@ -43,9 +43,14 @@ ValidationResult runValidation(const Cohort& cohort, const PanelSettings& settin
 ValidationResult runValidation(const Cohort& cohort, const PanelSettings& settings, unsigned threads,
                                std::vector<ScoreOrder> orders)
 {
-    // Each model's order is sorted once (in its worker, when not given) and shared by its panel,
-    // the comparisons and the subgroup levels.
+    // Each model's order is sorted once (when not given) and shared by its panel, the
+    // comparisons and the subgroup levels. The sorts run one after another, each on the threads
+    // given: a sort of ten million rows holds 240 MB while it runs, two at once would not fit
+    // the memory such a cohort is allowed.
     orders.resize(cohort.models.size());
+    for (std::size_t m = 0; m < cohort.models.size(); ++m)
+        if (orders[m].size() != cohort.models[m].values.size())
+            orders[m] = ascendingOrder(cohort.models[m].values, threads);
     ValidationResult result;
     result.settings = settings;
     result.models.resize(cohort.models.size());
@@ -56,11 +61,7 @@ ValidationResult runValidation(const Cohort& cohort, const PanelSettings& settin
     auto work = [&](std::size_t w) {
         try {
             for (std::size_t m = w; m < cohort.models.size(); m += workers)
-            {
-                if (orders[m].size() != cohort.models[m].values.size())
-                    orders[m] = ascendingOrder(cohort.models[m].values);
                 result.models[m] = validateModel(cohort.outcome, cohort.models[m], cohort.scale, settings, cohort.sourceLines, orders[m]);
-            }
         } catch (...) {
             failures[w] = std::current_exception();
         }
@@ -74,7 +75,7 @@ ValidationResult runValidation(const Cohort& cohort, const PanelSettings& settin
     for (const auto& failure : failures)
         if (failure)
             std::rethrow_exception(failure);
-    result.comparisons = compareModels(cohort, result, settings, settings.cutPoints(), &orders);
+    result.comparisons = compareModels(cohort, result, settings, settings.cutPoints(), &orders, threads);
     if (!cohort.groups.empty())
         result.subgroups = analyseSubgroups(cohort, settings, settings.minimumCell, orders);
     std::string periodProblem;

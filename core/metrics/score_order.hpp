@@ -13,6 +13,8 @@ namespace plumbline {
 using ScoreOrder = std::vector<std::uint32_t>;
 
 ScoreOrder ascendingOrder(std::span<const double> score);
+// The same order, sorted on `threads` threads (two at most) for a large cohort.
+ScoreOrder ascendingOrder(std::span<const double> score, unsigned threads);
 
 // A walk in score order reads each row's values at random places in arrays far larger than the
 // cache (ten million rows). Asking for the values of the row a few places on, before they are
