@@ -44,8 +44,8 @@ public:
 
     void discrimination(bool risks)
     {
-        // The placements (a double per patient) are freed before the ROC curve is built.
-        const Estimate c = cStatistic(delongPlacements(m_y, m_p, m_order), m_settings.cStatisticScale, m_settings.confidence);
+        // C and its DeLong SE from the order, a tie block at a time: nothing is held per patient.
+        const Estimate c = cStatistic(m_y, m_p, m_order, m_settings.cStatisticScale, m_settings.confidence);
         set("c_statistic", c);
         if (c.value && !c.lower)
             warn("the C statistic has no interval: it needs at least two patients with and without the event, and C strictly between 0 and 1.");

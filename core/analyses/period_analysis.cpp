@@ -202,7 +202,7 @@ std::expected<PeriodAnalysis, InputError> analysePeriods(const Cohort& cohort, c
         const ScoreOrder ownOrder = orders ? ScoreOrder{} : ascendingOrder(cohort.models[m].values);
         const ScoreOrder& order = orders ? (*orders)[m] : ownOrder;
         auto c = [&](const std::vector<std::uint8_t>& y, const std::vector<double>& p, ScoreOrder& subsetOrder) {
-            const Estimate estimate = cStatistic(delongPlacements(y, p, subsetOrder), CStatisticScale::Logit, confidence);
+            const Estimate estimate = cStatistic(y, p, subsetOrder, CStatisticScale::Logit, confidence);
             ScoreOrder().swap(subsetOrder);
             return estimate;
         };

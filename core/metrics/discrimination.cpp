@@ -9,6 +9,22 @@
 
 namespace plumbline {
 
+namespace {
+
+// Mid-ranks of a tie block of `size` rows, `events` of them events, among all rows, among the
+// events and among the non-events, given the rows, events and non-events below the block.
+struct TieBlockRanks {
+    double all, events, nonEvents;
+};
+TieBlockRanks tieBlockRanks(std::size_t below, std::size_t eventsBelow, std::size_t nonEventsBelow, std::size_t size,
+                            std::size_t events)
+{
+    return {double(below) + (double(size) + 1.0) / 2.0, double(eventsBelow) + (double(events) + 1.0) / 2.0,
+            double(nonEventsBelow) + (double(size - events) + 1.0) / 2.0};
+}
+
+} // namespace
+
 Placements delongPlacements(std::span<const std::uint8_t> outcome, std::span<const double> score,
                             const ScoreOrder& order)
 {
@@ -65,9 +81,7 @@ Placements delongPlacements(std::span<const std::uint8_t> outcome, std::span<con
         }
         const std::size_t size = end - k;
         const std::size_t blockNonEvents = size - blockEvents;
-        const double rankAll = double(below) + (double(size) + 1.0) / 2.0;
-        const double rankEvents = double(eventsBelow) + (double(blockEvents) + 1.0) / 2.0;
-        const double rankNonEvents = double(nonEventsBelow) + (double(blockNonEvents) + 1.0) / 2.0;
+        const auto [rankAll, rankEvents, rankNonEvents] = tieBlockRanks(below, eventsBelow, nonEventsBelow, size, blockEvents);
         for (const RowKey& row : block) {
             if (row.event) {
                 out.eventPlacements[row.classIndex] = (rankAll - rankEvents) / double(n);
@@ -118,17 +132,20 @@ Estimate cStatistic(std::span<const std::uint8_t> outcome, std::span<const doubl
     return cStatistic(delongPlacements(outcome, score), scale, confidence);
 }
 
-Estimate cStatistic(const Placements& placements, CStatisticScale scale, double confidence)
+namespace {
+
+// The estimate and interval of a C with m events and n non-events; `variance` is read only when
+// both classes have two patients or more.
+Estimate cStatisticEstimate(double c, std::size_t m, std::size_t n, double variance, CStatisticScale scale, double confidence)
 {
-    if (placements.eventPlacements.empty() || placements.nonEventPlacements.empty())
+    if (m == 0 || n == 0)
         return Estimate::undefined();
-    Estimate estimate = Estimate::point(placements.c);
-    if (placements.eventPlacements.size() < 2 || placements.nonEventPlacements.size() < 2)
+    Estimate estimate = Estimate::point(c);
+    if (m < 2 || n < 2)
         return estimate;
-    const double se = std::sqrt(std::max(0.0, delongVariance(placements)));
+    const double se = std::sqrt(std::max(0.0, variance));
     estimate.se = se;
     const double z = zForConfidence(confidence);
-    const double c = placements.c;
     if (scale == CStatisticScale::Plain) {
         estimate.lower = std::max(0.0, c - z * se);
         estimate.upper = std::min(1.0, c + z * se);
@@ -143,6 +160,68 @@ Estimate cStatistic(const Placements& placements, CStatisticScale scale, double 
     estimate.upper = 1.0 / (1.0 + std::exp(-(centre + half)));
     estimate.ciMethod = CiMethod::DeLongLogit;
     return estimate;
+}
+
+} // namespace
+
+Estimate cStatistic(const Placements& placements, CStatisticScale scale, double confidence)
+{
+    const std::size_t m = placements.eventPlacements.size(), n = placements.nonEventPlacements.size();
+    return cStatisticEstimate(placements.c, m, n, m >= 2 && n >= 2 ? delongVariance(placements) : 0.0, scale, confidence);
+}
+
+Estimate cStatistic(std::span<const std::uint8_t> outcome, std::span<const double> score, const ScoreOrder& order,
+                    CStatisticScale scale, double confidence)
+{
+    const std::size_t total = outcome.size();
+    const auto m = static_cast<std::size_t>(std::count(outcome.begin(), outcome.end(), std::uint8_t{1}));
+    const std::size_t n = total - m;
+    if (m == 0 || n == 0)
+        return Estimate::undefined();
+    // The walk of delongPlacements, with each block's placements summed by its counts. The
+    // squares are taken about ½, near every C of interest, so that Σ(V − ½)² − (Σ(V − ½))²/m
+    // loses no precision to cancellation.
+    constexpr double shift = 0.5;
+    double eventRankSum = 0.0;
+    double eventSum = 0.0, eventSquares = 0.0, nonEventSum = 0.0, nonEventSquares = 0.0;
+    std::size_t below = 0, eventsBelow = 0, nonEventsBelow = 0;
+    for (std::size_t k = 0; k < total;) {
+        const double value = score[order[k]];
+        std::size_t end = k;
+        std::size_t blockEvents = 0;
+        while (end < total && score[order[end]] == value) {
+            prefetchInOrder(order, end, score.data(), outcome.data());
+            blockEvents += outcome[order[end]] ? 1 : 0;
+            ++end;
+        }
+        const std::size_t blockNonEvents = end - k - blockEvents;
+        const auto [rankAll, rankEvents, rankNonEvents] = tieBlockRanks(below, eventsBelow, nonEventsBelow, end - k, blockEvents);
+        if (blockEvents > 0) {
+            const double v = (rankAll - rankEvents) / double(n) - shift;
+            eventSum += double(blockEvents) * v;
+            eventSquares += double(blockEvents) * v * v;
+            // Added once per event, as delongPlacements adds it, so that C is the same to the bit.
+            for (std::size_t e = 0; e < blockEvents; ++e)
+                eventRankSum += rankAll;
+        }
+        if (blockNonEvents > 0) {
+            const double v = 1.0 - (rankAll - rankNonEvents) / double(m) - shift;
+            nonEventSum += double(blockNonEvents) * v;
+            nonEventSquares += double(blockNonEvents) * v * v;
+        }
+        below = end;
+        eventsBelow += blockEvents;
+        nonEventsBelow += blockNonEvents;
+        k = end;
+    }
+    const double c = (eventRankSum - double(m) * double(m + 1) / 2.0) / (double(m) * double(n));
+    double variance = 0.0;
+    if (m >= 2 && n >= 2) {
+        const double s10 = (eventSquares - eventSum * eventSum / double(m)) / double(m - 1);
+        const double s01 = (nonEventSquares - nonEventSum * nonEventSum / double(n)) / double(n - 1);
+        variance = s10 / double(m) + s01 / double(n);
+    }
+    return cStatisticEstimate(c, m, n, variance, scale, confidence);
 }
 
 std::vector<RocPoint> rocCurve(std::span<const std::uint8_t> outcome, std::span<const double> score)

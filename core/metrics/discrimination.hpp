@@ -41,6 +41,13 @@ double delongCovariance(const Placements& a, const Placements& b);
 Estimate cStatistic(const Placements& placements, CStatisticScale scale, double confidence);
 Estimate cStatistic(std::span<const std::uint8_t> outcome, std::span<const double> score, CStatisticScale scale,
                     double confidence);
+// The same C and interval read off the score order a tie block at a time: the patients of a block
+// share their placement, so the variance is formed from each block's counts and nothing is held
+// per patient (the placements, 12 bytes a patient, are needed only to pair two models). C is the
+// same to the bit; the SE to within rounding, its sums running in score order instead of patient
+// order.
+Estimate cStatistic(std::span<const std::uint8_t> outcome, std::span<const double> score, const ScoreOrder& order,
+                    CStatisticScale scale, double confidence);
 
 // Empirical ROC curve at every distinct score (positive if score ≥ threshold), from the highest
 // threshold down; the first point is (0,0) at threshold +inf, written as the top score + 1.

@@ -197,3 +197,53 @@ TEST_CASE("The ROC summary walked twice equals the thinned stored curve and its 
     CHECK(none.thinned.empty());
     CHECK_FALSE(none.averagePrecision);
 }
+
+TEST_CASE("C and its DeLong SE read off the order a tie block at a time match the check values", "[discrimination]")
+{
+    // Same check values as above (docs/methods.md §3-§4: scikit-learn 1.2.1, scipy 1.10, R 4.2.2).
+    const auto a = toy20A(), hm = hm109(), gen = gen1000();
+    const Estimate toy = cStatistic(a.y, a.p, ascendingOrder(a.p), CStatisticScale::Logit, 0.95);
+    CHECK_THAT(*toy.value, WithinAbs(45.0 / 64.0, 1e-15));
+    CHECK_THAT(*toy.se, WithinAbs(0.1247546, 1e-7));
+    checkInterval(toy, 0.4233203, 0.8842805);
+    checkInterval(cStatistic(a.y, a.p, ascendingOrder(a.p), CStatisticScale::Plain, 0.95), 0.4586106, 0.9476394);
+    const Estimate hmLogit = cStatistic(hm.y, hm.p, ascendingOrder(hm.p), CStatisticScale::Logit, 0.95);
+    CHECK_THAT(*hmLogit.se, WithinAbs(0.0307244, 1e-7));
+    checkInterval(hmLogit, 0.8164435, 0.9401762);
+    const Estimate genLogit = cStatistic(gen.y, gen.p, ascendingOrder(gen.p), CStatisticScale::Logit, 0.95);
+    CHECK_THAT(*genLogit.se, WithinAbs(0.0173344, 1e-7));
+    checkInterval(genLogit, 0.6890912, 0.7569759);
+    CHECK(genLogit.ciMethod == CiMethod::DeLongLogit);
+}
+
+TEST_CASE("Read off the order, C equals the placements' C to the bit and its SE to rounding, ties and small classes included", "[discrimination]")
+{
+    RandomStream random(77);
+    for (int trial = 0; trial < 40; ++trial) {
+        const std::size_t n = 2 + random.below(300);
+        std::vector<std::uint8_t> y(n);
+        std::vector<double> p(n);
+        const double eventShare = trial % 5 == 0 ? 0.01 : 0.3; // some trials with one event or none
+        for (std::size_t i = 0; i < n; ++i) {
+            y[i] = random.uniform() < eventShare ? 1 : 0;
+            p[i] = double(random.below(trial % 2 ? 6 : 1000)) / 997.0 + (y[i] ? 0.01 : 0.0);
+        }
+        for (const auto scale : {CStatisticScale::Logit, CStatisticScale::Plain}) {
+            const Estimate placed = cStatistic(delongPlacements(y, p), scale, 0.9);
+            const Estimate walked = cStatistic(y, p, ascendingOrder(p), scale, 0.9);
+            REQUIRE(placed.value.has_value() == walked.value.has_value());
+            if (!placed.value)
+                continue;
+            CHECK(*walked.value == *placed.value);
+            REQUIRE(placed.se.has_value() == walked.se.has_value());
+            REQUIRE(placed.lower.has_value() == walked.lower.has_value());
+            if (placed.se)
+                CHECK_THAT(*walked.se, WithinAbs(*placed.se, 1e-14 * std::max(1.0, *placed.se)));
+            if (placed.lower) {
+                CHECK_THAT(*walked.lower, WithinAbs(*placed.lower, 1e-13));
+                CHECK_THAT(*walked.upper, WithinAbs(*placed.upper, 1e-13));
+                CHECK(walked.ciMethod == placed.ciMethod);
+            }
+        }
+    }
+}
