@@ -177,8 +177,11 @@ std::expected<Cohort, InputError> assembleCohort(StagedRows&& staged, const std:
     auto keepUsedRows = [&](auto& column) {
         if (usedRows.size() == column.size())
             return;
+        // usedRows ascends, so usedRows[k] >= k; a row that stays put is not moved onto itself
+        // (a string moved onto itself is left unspecified).
         for (std::size_t k = 0; k < usedRows.size(); ++k)
-            column[k] = std::move(column[usedRows[k]]); // usedRows ascends, so usedRows[k] >= k
+            if (usedRows[k] != k)
+                column[k] = std::move(column[usedRows[k]]);
         column.resize(usedRows.size());
     };
     Cohort cohort;

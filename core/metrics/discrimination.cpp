@@ -186,9 +186,11 @@ Estimate cStatistic(std::span<const std::uint8_t> outcome, std::span<const doubl
     double eventSum = 0.0, eventSquares = 0.0, nonEventSum = 0.0, nonEventSquares = 0.0;
     std::size_t below = 0, eventsBelow = 0, nonEventsBelow = 0;
     for (std::size_t k = 0; k < total;) {
+        // The block's first row is taken before any comparison, so a score equal to nothing
+        // (NaN) still ends its block of one, as in delongPlacements.
         const double value = score[order[k]];
-        std::size_t end = k;
-        std::size_t blockEvents = 0;
+        std::size_t end = k + 1;
+        std::size_t blockEvents = outcome[order[k]] ? 1 : 0;
         while (end < total && score[order[end]] == value) {
             prefetchInOrder(order, end, score.data(), outcome.data());
             blockEvents += outcome[order[end]] ? 1 : 0;

@@ -315,3 +315,18 @@ TEST_CASE("Scores nearer to 0 than a double holds are read as 0 whatever their s
         counted = counted || (w.find("2 scores are nearer to 0") != std::string::npos && w.find("first on line 2") != std::string::npos);
     CHECK(counted);
 }
+
+TEST_CASE("Ids stay with their rows when rows between them are excluded", "[intake]")
+{
+    // Long ids live on the heap: the first row stays where it is while later ones move down.
+    IntakeSettings settings = settingsFor({"p"});
+    settings.idColumn = "id";
+    const std::string first = "first-patient-with-a-long-identifier-0001";
+    const std::string third = "third-patient-with-a-long-identifier-0003";
+    const auto result = intakeOf(settings, "id,y,p\n" + first + ",1,0.2\nb,0,\n" + third + ",0,0.3\nd,1,0.4\n");
+    REQUIRE(result);
+    CHECK(result->cohort.ids == std::vector<std::string>{first, third, "d"});
+    CHECK(result->cohort.sourceLines == std::vector<std::uint32_t>{2, 4, 5});
+    CHECK(result->cohort.models[0].values == std::vector<double>{0.2, 0.3, 0.4});
+    CHECK(result->cohort.outcome == std::vector<std::uint8_t>{1, 0, 1});
+}

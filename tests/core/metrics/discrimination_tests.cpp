@@ -247,3 +247,15 @@ TEST_CASE("Read off the order, C equals the placements' C to the bit and its SE 
         }
     }
 }
+
+TEST_CASE("A score that equals nothing (NaN) ends its own tie block in both DeLong walks", "[discrimination]")
+{
+    // Not reachable from a file (the intake refuses such a score), but a computed risk may be NaN:
+    // the walk must end, and agree with the placements' walk.
+    const std::vector<std::uint8_t> y{1, 0, 1, 0, 0, 1};
+    const std::vector<double> p{0.8, std::nan(""), 0.3, 0.2, 0.3, 0.6};
+    const Estimate walked = cStatistic(y, p, ascendingOrder(p), CStatisticScale::Plain, 0.95);
+    const Estimate placed = cStatistic(delongPlacements(y, p), CStatisticScale::Plain, 0.95);
+    REQUIRE(walked.value);
+    CHECK(*walked.value == *placed.value);
+}
