@@ -365,7 +365,9 @@ void MainWindow::showSnapshot(SnapshotPointer snapshot, bool complete)
     }
     for (auto& stage : stages)
         stage();
-    m_status->setFullText(warnings > 0 ? tr("Done. %1 warnings: see the Cohort tab.").arg(warnings) : tr("Done."));
+    m_status->setFullText(warnings == 0   ? tr("Done.")
+                          : warnings == 1 ? tr("Done. 1 warning: see the Cohort tab.")
+                                          : tr("Done. %1 warnings: see the Cohort tab.").arg(warnings));
 }
 
 void MainWindow::runStagesInTurns(SnapshotPointer shown, std::vector<std::function<void()>> stages, std::size_t next)

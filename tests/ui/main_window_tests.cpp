@@ -12,6 +12,7 @@
 #include <QProgressBar>
 #include "panels/updating_panel.hpp"
 #include "widgets/copyable_table_view.hpp"
+#include "widgets/elided_label.hpp"
 #include "dialogs/import_dialog.hpp"
 #include "main_window.hpp"
 #include "models/metric_table_model.hpp"
@@ -34,6 +35,7 @@
 #include <QSignalSpy>
 #include <QSortFilterProxyModel>
 #include <QSlider>
+#include <QStatusBar>
 #include <QTemporaryDir>
 #include <QTabWidget>
 #include <QTableWidget>
@@ -107,6 +109,58 @@ private slots:
         bootstrapped.show();
         QVERIFY(runAndWait(bootstrapped, sampleRequest(50)));
         QVERIFY(legend(bootstrapped).contains(QStringLiteral("with band")));
+    }
+
+    void theStatusBarCountsTheWarningsInWords()
+    {
+        // The sample cohort drifts in its second year: one warning per model over time.
+        auto statusAfter = [](AnalysisRequest request) {
+            MainWindow window;
+            window.show();
+            request.intake.periodColumn = "discharge_date";
+            if (!runAndWait(window, request))
+                return QStringLiteral("(the run did not end)");
+            const std::size_t warnings = window.snapshot()->validation.warnings.size() + window.snapshot()->audit.warnings.size();
+            return QString::number(warnings) + QLatin1Char(' ') + window.statusBar()->findChild<ElidedLabel*>()->fullText();
+        };
+        AnalysisRequest one = sampleRequest(0);
+        one.intake.scoreColumns = {"supplier_score"};
+        QCOMPARE(statusAfter(one), QStringLiteral("1 Done. 1 warning: see the Cohort tab."));
+        QCOMPARE(statusAfter(sampleRequest(0)), QStringLiteral("2 Done. 2 warnings: see the Cohort tab."));
+    }
+
+    void theTimeTabCountsUndatedRowsInWords()
+    {
+        // The sample cohort with the dates of its first one or two patients blanked.
+        QTemporaryDir folder;
+        QFile sample(sampleFile);
+        QVERIFY(sample.open(QIODevice::ReadOnly));
+        const QList<QByteArray> rows = sample.readAll().split('\n');
+        const int dateField = int(rows.front().split(',').indexOf("discharge_date"));
+        QVERIFY(dateField >= 0);
+        auto noteWith = [&](int blanked) {
+            QList<QByteArray> edited = rows;
+            for (int r = 1; r <= blanked; ++r) {
+                QList<QByteArray> fields = edited[r].split(',');
+                fields[dateField] = "";
+                edited[r] = fields.join(',');
+            }
+            const QString path = folder.filePath(QStringLiteral("undated-%1.csv").arg(blanked));
+            QFile out(path);
+            if (!out.open(QIODevice::WriteOnly) || out.write(edited.join('\n')) < 0)
+                return QStringLiteral("(not written)");
+            out.close();
+            MainWindow window;
+            window.show();
+            AnalysisRequest request = sampleRequest(0);
+            request.intake.cohortFile = path.toStdString();
+            request.intake.periodColumn = "discharge_date";
+            if (!runAndWait(window, request) || !window.snapshot()->validation.periods)
+                return QStringLiteral("(no view over time)");
+            return window.periodPanel()->noteText();
+        };
+        QVERIFY(noteWith(1).contains(QStringLiteral("1 row without a usable date is left out of this view.")));
+        QVERIFY(noteWith(2).contains(QStringLiteral("2 rows without a usable date are left out of this view.")));
     }
 
     void theDialogGuessesTheSampleAndTheTableShowsTheCoresNumbers()

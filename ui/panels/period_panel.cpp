@@ -109,7 +109,8 @@ void PeriodPanel::showModel(int index)
         if (w.find("'" + model.name + "'") != std::string::npos)
             lines << QString::fromStdString(w);
     if (periods.undated > 0)
-        lines << tr("%1 rows without a usable date are left out of this view.").arg(periods.undated);
+        lines << (periods.undated == 1 ? tr("1 row without a usable date is left out of this view.")
+                                       : tr("%1 rows without a usable date are left out of this view.").arg(periods.undated));
     lines << tr("Hollow points: periods whose O/E or calibration-in-the-large interval misses the first year's (shaded).");
     lines << QString::fromStdString(periods.note);
     m_note->setText(lines.join(QLatin1Char('\n')));
