@@ -22,6 +22,8 @@ public:
     void attachTo(readstat_parser_s* parser);
     // Why the last open failed (errno's text, or "not a regular file"); empty if it did not.
     const std::string& openFailure() const { return m_openFailure; }
+    // The size the file had when it was last opened.
+    long long fileSize() const { return m_size; }
 
 private:
     friend struct ReadStatCallbacks; // ReadStat's handler signatures, defined beside readstat.h

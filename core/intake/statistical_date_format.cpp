@@ -16,15 +16,14 @@ namespace {
 constexpr std::int64_t days1960To1970 = 3653;
 constexpr std::int64_t days1582To1970 = 141428;
 
-// The format's name without its width and decimals ("DATE9." -> "DATE", "ADATE10" -> "ADATE").
+// The format's name without its width and decimals ("DATE9." -> "DATE", "ADATE10" -> "ADATE",
+// "E8601DA10." -> "E8601DA"): digits inside a name stay.
 std::string formatName(std::string_view format)
 {
-    std::string name;
-    for (const char c : format) {
-        if (std::isdigit(static_cast<unsigned char>(c)) || c == '.')
-            break;
-        name += static_cast<char>(std::toupper(static_cast<unsigned char>(c)));
-    }
+    while (!format.empty() && (std::isdigit(static_cast<unsigned char>(format.back())) || format.back() == '.'))
+        format.remove_suffix(1);
+    std::string name(format);
+    std::ranges::transform(name, name.begin(), [](unsigned char c) { return char(std::toupper(c)); });
     return name;
 }
 

@@ -145,9 +145,6 @@ InputError parseError(const std::string& path, Layout layout, const std::string&
     case READSTAT_ERROR_UNSUPPORTED_COMPRESSION:
         return errorIn(path, 0, "the file is compressed in a way that cannot be read" + detail + ".",
                        "save it again from " + packageName(layout) + " without compression, or export the cohort as CSV.");
-    case READSTAT_ERROR_UNSUPPORTED_FILE_FORMAT_VERSION:
-        return errorIn(path, 0, "the file is in a version of the " + layoutNoun(layout) + " format that cannot be read" + detail + ".",
-                       "save it again from " + packageName(layout) + " in another format version, or export the cohort as CSV.");
     case READSTAT_ERROR_UNSUPPORTED_CHARSET:
     case READSTAT_ERROR_CONVERT:
     case READSTAT_ERROR_CONVERT_BAD_STRING:
@@ -159,7 +156,7 @@ InputError parseError(const std::string& path, Layout layout, const std::string&
     }
     return errorIn(path, 0, "the file is not a readable " + layoutNoun(layout) + ", or it is damaged" + detail + ".",
                    "check that the file opens in " + packageName(layout) +
-                       "; export it again if it is damaged, or save the cohort as CSV.");
+                       "; save it again (in another format version if it is an unusual one), or save the cohort as CSV.");
 }
 
 // What opening collects: the variables, in order, and the value-label sets they name.
@@ -350,6 +347,37 @@ StatisticalFileTable::StatisticalFileTable(std::string path, Layout layout)
 {
 }
 
+namespace {
+
+// A Stata file of format 117 or later is framed by <stata_dta> and </stata_dta>, and its value
+// labels come last: ReadStat stops reading labels quietly where such a file is cut short, so
+// the closing tag is what tells a complete file from one that lost its labels.
+std::optional<InputError> stataFileCutShort(const std::string& path)
+{
+    auto file = ReadOnlyFile::open(path);
+    if (!file)
+        return std::nullopt; // the parse reports why it cannot be opened
+    struct stat status {};
+    if (::fstat(file->descriptor(), &status) != 0 || !S_ISREG(status.st_mode))
+        return std::nullopt;
+    constexpr std::string_view opening = "<stata_dta>";
+    constexpr std::string_view closing = "</stata_dta>";
+    std::array<char, 12> head {};
+    std::array<char, 12> tail {};
+    const auto size = static_cast<std::size_t>(status.st_size);
+    const auto gotHead = file->readAt(0, head.data(), opening.size());
+    if (!gotHead || *gotHead != opening.size() || std::string_view(head.data(), opening.size()) != opening)
+        return std::nullopt; // format 113-115 (no framing), or not a Stata file: the parse judges
+    const auto gotTail = size >= closing.size() ? file->readAt(size - closing.size(), tail.data(), closing.size())
+                                                : std::expected<std::size_t, std::string>(0);
+    if (gotTail && *gotTail == closing.size() && std::string_view(tail.data(), closing.size()) == closing)
+        return std::nullopt;
+    return errorIn(path, 0, "the file is cut short: its closing </stata_dta> tag is missing, so its last parts (rows or value labels) are lost.",
+                   "copy or export the file again from Stata (a copy cut short by a full disk or an interrupted transfer looks like this).");
+}
+
+} // namespace
+
 std::expected<std::unique_ptr<TypedTable>, InputError> StatisticalFileTable::open(const std::string& path, Layout layout)
 {
     struct stat status {};
@@ -369,6 +397,9 @@ std::expected<std::unique_ptr<TypedTable>, InputError> StatisticalFileTable::ope
         return std::unexpected(*pass.failure);
     if (code != READSTAT_OK)
         return std::unexpected(parseError(path, layout, pass.encoding, code, io));
+    if (layout == Layout::Stata)
+        if (auto cut = stataFileCutShort(path))
+            return std::unexpected(*cut);
     if (pass.variables.empty())
         return std::unexpected(errorIn(path, 0, "the file holds no variables.", "choose the " + layoutNoun(layout) + " that holds the cohort."));
 
@@ -403,6 +434,8 @@ std::expected<void, InputError> StatisticalFileTable::forEachRecord(const Visit&
     pass.visit = &visit;
     pass.cells.resize(m_columns.size());
     pass.texts.resize(m_columns.size());
+    // ReadStat builds the variables its value callback receives only when a variable handler is set.
+    readstat_set_variable_handler(parser.get(), [](int, readstat_variable_t*, const char*, void*) { return int(READSTAT_HANDLER_OK); });
     readstat_set_value_handler(parser.get(), &onValue);
     const readstat_error_t code = parse(parser.get(), m_layout, m_path, &pass);
     if (pass.stopped)
@@ -413,6 +446,11 @@ std::expected<void, InputError> StatisticalFileTable::forEachRecord(const Visit&
         return std::unexpected(parseError(m_path, m_layout, m_encoding, code, io));
     if (code != READSTAT_OK)
         return std::unexpected(cutShortError(m_path, m_layout, pass.rowsDone, std::string(" (ReadStat: ") + readstat_error_message(code) + ")"));
+    // A SAS transport file records no row count and ReadStat stops quietly at a partial row; but
+    // every record of the format is 80 bytes (SAS technical report TS-140, padded with blanks),
+    // so a file cut anywhere else is told by its size. A cut exactly at a record's end cannot be.
+    if (m_layout == Layout::Xport && io.fileSize() % 80 != 0)
+        return std::unexpected(cutShortError(m_path, m_layout, pass.rowsDone, ", its last 80-byte record is incomplete"));
     // ReadStat may end without an error where the data stop early: count the rows ourselves.
     if (pass.nextColumn != 0 || (m_rowCount >= 0 && pass.rowsDone < std::size_t(m_rowCount)))
         return std::unexpected(cutShortError(m_path, m_layout, pass.rowsDone,
