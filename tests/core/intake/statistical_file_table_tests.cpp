@@ -284,3 +284,22 @@ TEST_CASE("Date formats are read in the package that wrote the file", "[statisti
     CHECK(dateScaleOfFormat(P::Spss, "DTIME") == DateScale::None); // a duration
     CHECK(dateScaleOfFormat(P::Spss, "F8.2") == DateScale::None);
 }
+
+// Check value: SAS technical report TS-140 (the transport format) stores a missing value as '.',
+// '_' or a letter A to Z followed by zero bytes; each of SAS's missing codes is Missing.
+TEST_CASE("SAS special missing codes in a transport file are Missing cells", "[statistical]")
+{
+    std::string bytes = bytesOf(fixturePath("cohort.xpt"));
+    // Row 3's risk (rows of 37 bytes from byte 1600, risk after the 4-byte id) holds '.'.
+    constexpr std::size_t risk3 = 1600 + 2 * 37 + 4;
+    REQUIRE(bytes.substr(risk3, 8) == std::string(".\0\0\0\0\0\0\0", 8));
+    for (const char code : {'A', 'Z', '_'}) {
+        INFO("code ." << code);
+        bytes[risk3] = code;
+        const auto read = readWhole(test::writtenFile("special-missing.xpt", bytes).string());
+        REQUIRE(read);
+        CHECK(read->rows[2][1] == nlohmann::json{"missing"});
+        CHECK(read->rows[1][1] == nlohmann::json{"number", 0.12}); // its neighbours stay numbers
+        CHECK(read->rows[3][1] == nlohmann::json{"number", 0.123456789012345});
+    }
+}
