@@ -16,10 +16,11 @@ cd "$(dirname "$(readlink -f "$0")")"
 BUILD_PACKAGES=(g++ cmake ninja-build pkg-config libssl-dev
   qt6-base-dev qt6-charts-dev qt6-svg-dev libqt6opengl6-dev libgl-dev
   libeigen3-dev libboost-dev nlohmann-json3-dev libcli11-dev libxlsxwriter-dev catch2
-  libpq-dev libsqlite3-dev unixodbc-dev)
-# Reference libraries for the cross-check tests and the benchmark peers (Debian's, not pip's).
+  libreadstat-dev libminizip-dev libexpat1-dev libpq-dev libsqlite3-dev unixodbc-dev)
+# Reference libraries for the cross-check tests and the benchmark peers (Debian's, not pip's);
+# a PostgreSQL server and ODBC drivers for the database tests, ReadStat's tool for the fixtures.
 TEST_PACKAGES=(python3 python3-pandas python3-sklearn python3-statsmodels python3-scipy python3-jsonschema python3-openpyxl dpkg-dev poppler-utils time
-  postgresql odbc-postgresql libsqliteodbc unixodbc)
+  readstat postgresql odbc-postgresql libsqliteodbc unixodbc)
 # The fuzzing build needs clang with libFuzzer; clang 19 is the first of Debian 12's that
 # compiles libstdc++ 12's <expected>.
 CHECK_PACKAGES=(clang-19 libclang-rt-19-dev)
