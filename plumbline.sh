@@ -15,7 +15,8 @@ cd "$(dirname "$(readlink -f "$0")")"
 
 BUILD_PACKAGES=(g++ cmake ninja-build pkg-config libssl-dev
   qt6-base-dev qt6-charts-dev qt6-svg-dev libqt6opengl6-dev libgl-dev
-  libeigen3-dev libboost-dev nlohmann-json3-dev libcli11-dev libxlsxwriter-dev catch2)
+  libeigen3-dev libboost-dev nlohmann-json3-dev libcli11-dev libxlsxwriter-dev catch2
+  libminizip-dev libexpat1-dev)
 # Reference libraries for the cross-check tests and the benchmark peers (Debian's, not pip's).
 TEST_PACKAGES=(python3 python3-pandas python3-sklearn python3-statsmodels python3-scipy python3-jsonschema python3-openpyxl dpkg-dev poppler-utils time)
 # The fuzzing build needs clang with libFuzzer; clang 19 is the first of Debian 12's that
