@@ -3,6 +3,7 @@
 #include <charconv>
 #include <cstring>
 #include <optional>
+#include <utility>
 
 namespace plumbline {
 
@@ -117,9 +118,11 @@ void XlsxSheetParser::startRow(const char** attributes)
         const auto [end, error] = std::from_chars(text.data(), text.data() + text.size(), parsed);
         if (error != std::errc() || end != text.data() + text.size() || parsed == 0)
             return badCell("a row's number is not a positive whole number.", std::string(text));
-        if (parsed <= m_row)
-            return badCell("row " + std::to_string(parsed) + " comes after row " + std::to_string(m_row)
+        if (parsed <= m_row) {
+            const std::size_t previous = std::exchange(m_row, parsed); // the error names the row out of place
+            return badCell("row " + std::to_string(parsed) + " comes after row " + std::to_string(previous)
                                + ": the rows are out of order.", std::string(text));
+        }
         row = parsed;
     }
     m_row = row;

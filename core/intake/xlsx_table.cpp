@@ -88,6 +88,7 @@ private:
     XlsxLimits m_limits;
     std::vector<TypedColumn> m_columns;
     std::size_t m_headerRow = 0;
+    std::uint32_t m_firstColumn = 1; // the sheet column of the first table column
     std::vector<TypedCell> m_cells;
     Tally m_errors, m_formulas, m_outOfRangeDates, m_rowsBeyond;
     std::string m_firstErrorValue;
@@ -98,7 +99,8 @@ InputError XlsxTable::cellError(std::size_t row, std::uint32_t column, const std
     InputError error;
     error.file = m_source;
     error.line = row;
-    error.column = column <= m_columns.size() ? m_columns[column - 1].name : xlsxCellReference(row, column);
+    const bool inTable = column >= m_firstColumn && column - m_firstColumn < m_columns.size();
+    error.column = inTable ? m_columns[column - m_firstColumn].name : xlsxCellReference(row, column);
     error.value = value;
     error.problem = "cell " + xlsxCellReference(row, column) + ": " + std::move(problem);
     error.remedy = "the workbook is damaged or was not written by a spreadsheet program: open it in one, check the cell and save it again.";
@@ -109,21 +111,23 @@ std::expected<void, InputError> XlsxTable::readHeader()
 {
     std::optional<InputError> failure;
     XlsxSheetParser parser(m_source, m_limits, [&](std::size_t row, std::span<const XlsxRawCell> raw) -> std::expected<bool, InputError> {
-        std::vector<std::string> names;
+        std::vector<std::pair<std::uint32_t, std::string>> names;
         for (const XlsxRawCell& cell : raw) {
             auto name = m_values.name(cell);
             if (!name)
                 return std::unexpected(cellError(row, cell.column, cell.value, name.error()));
-            if (name->empty())
-                continue;
-            names.resize(cell.column);
-            names[cell.column - 1] = std::move(*name);
+            if (!name->empty())
+                names.emplace_back(cell.column, std::move(*name));
         }
         if (names.empty())
             return true; // the header is the first row that names something
+        // The columns run from the first named cell to the last: a sheet that starts in column
+        // B has no nameless column A, while a gap inside the header is a column without a name.
         m_headerRow = row;
-        for (auto& name : names)
-            m_columns.push_back({std::move(name), {}});
+        m_firstColumn = names.front().first;
+        m_columns.resize(names.back().first - m_firstColumn + 1);
+        for (auto& [column, name] : names)
+            m_columns[column - m_firstColumn].name = std::move(name);
         return false;
     });
     if (auto parsed = parseXlsxPart(m_archive, m_sheet.part, m_limits.partBytes, parser); !parsed)
@@ -146,7 +150,9 @@ std::expected<bool, InputError> XlsxTable::visitRow(std::size_t row, std::span<c
     bool any = false;
     bool beyond = false;
     for (const XlsxRawCell& cell : raw) {
-        if (cell.column > m_columns.size()) {
+        if (cell.column < m_firstColumn || cell.column - m_firstColumn >= m_columns.size()) {
+            if (hasContent(cell) && !beyond)
+                m_rowsBeyond.add(sheetCell(m_sheet.name, row, cell.column));
             beyond = beyond || hasContent(cell);
             continue;
         }
@@ -162,12 +168,8 @@ std::expected<bool, InputError> XlsxTable::visitRow(std::size_t row, std::span<c
         case XlsxCellValues::Note::FormulaWithoutValue: m_formulas.add(where); break;
         case XlsxCellValues::Note::DateOutOfRange: m_outOfRangeDates.add(where); break;
         }
-        m_cells[cell.column - 1] = reading->cell;
+        m_cells[cell.column - m_firstColumn] = reading->cell;
         any = any || reading->cell.kind != CellKind::Missing || reading->note != XlsxCellValues::Note::None;
-    }
-    if (beyond) {
-        const auto last = std::find_if(raw.rbegin(), raw.rend(), hasContent);
-        m_rowsBeyond.add(sheetCell(m_sheet.name, row, last->column));
     }
     if (!any)
         return true; // an empty row, as a blank line in a text file
@@ -199,7 +201,7 @@ std::vector<std::string> XlsxTable::warnings() const
                       + (m_outOfRangeDates.count == 1 ? "holds" : "hold") + " a number outside the dates a spreadsheet shows and "
                       + (m_outOfRangeDates.count == 1 ? "is" : "are") + " read as empty (first: " + m_outOfRangeDates.first + ").");
     if (m_rowsBeyond.count > 0)
-        out.push_back(counted(m_rowsBeyond.count, "row has", "rows have") + " cells to the right of the header's last column (first: "
+        out.push_back(counted(m_rowsBeyond.count, "row has", "rows have") + " cells outside the columns the header names (first: "
                       + m_rowsBeyond.first + "); those cells are left out. Name their columns in the header row to read them.");
     return out;
 }
