@@ -6,25 +6,17 @@
 #include <cstddef>
 #include <cstdint>
 #include <cstdio>
-#include <cstdlib>
 #include <string>
 
 #include <unistd.h>
 
 namespace {
 
-// One file per process, rewritten for every input: the reader takes a path, as the intake does.
+// One file per process, written for each input and removed after it (libFuzzer may end the
+// process without running exit handlers): the reader takes a path, as the intake does.
 const std::string& scratchPath()
 {
-    static const std::string path = [] {
-        std::string name = "/tmp/plumbline-xlsx-fuzz-XXXXXX";
-        const int descriptor = ::mkstemp(name.data());
-        if (descriptor < 0)
-            __builtin_trap();
-        ::close(descriptor);
-        std::atexit([] { ::unlink(scratchPath().c_str()); });
-        return name;
-    }();
+    static const std::string path = "/tmp/plumbline-xlsx-fuzz-" + std::to_string(::getpid()) + ".xlsx";
     return path;
 }
 
@@ -63,10 +55,12 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
     if (!names) {
         (void)names.error().message();
         visitSheet(path, std::nullopt);
+        ::unlink(path.c_str());
         return 0;
     }
     for (const auto& name : *names)
         visitSheet(path, name);
     visitSheet(path, "2");
+    ::unlink(path.c_str());
     return 0;
 }
