@@ -10,7 +10,7 @@ seconds=${2:-60}
 here=$(cd "$(dirname "$0")" && pwd)
 artifacts="$build/fuzz-artifacts"
 mkdir -p "$artifacts"
-for harness in intake_fuzzer analysis_file_fuzzer statistical_file_fuzzer; do
+for harness in intake_fuzzer analysis_file_fuzzer statistical_file_fuzzer xlsx_fuzzer; do
   corpus=${harness%_fuzzer}
   regressions="$here/regressions/$corpus"
   if compgen -G "$regressions/*" >/dev/null; then
