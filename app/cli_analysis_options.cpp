@@ -52,6 +52,9 @@ std::expected<AnalysisFile, InputError> AnalysisOptions::resolved(const CLI::App
         IntakeSettings& i = out.intake;
         const IntakeSettings& g = *intakeGiven;
         if (given("FILE")) i.cohortFile = g.cohortFile;
+        if (given("--sheet")) i.sheet = g.sheet;
+        if (given("--database")) { i.database = g.database; i.cohortFile.clear(); }
+        if (given("--query") || given("--query-file")) i.query = g.query;
         if (given("--outcome")) i.outcomeColumn = g.outcomeColumn;
         if (given("--score")) i.scoreColumns = g.scoreColumns;
         if (given("--id")) i.idColumn = g.idColumn;

@@ -20,11 +20,18 @@ struct IntakeOptions {
     std::string periodColumn;
     std::string scale = "probability";
     std::string delimiter;
+    std::string sheet;
+    std::string database;
+    std::string query;
+    std::string queryFile;
 
     // `required`: the CLI needs the file and columns; the window can ask for them in a dialog.
     void addTo(CLI::App& command, bool required = true);
     // Copies the parsed strings into settings; an InputError for a delimiter that is not one character.
     std::expected<IntakeSettings, InputError> resolved(const CLI::App& command) const;
+
+private:
+    bool m_fileRequired = true;
 };
 
 } // namespace plumbline::cli

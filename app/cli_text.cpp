@@ -10,9 +10,9 @@ namespace plumbline::cli {
 
 namespace {
 
-std::string lineList(const std::vector<std::size_t>& lines, std::size_t rows)
+std::string lineList(const std::vector<std::size_t>& lines, std::size_t rows, const std::string& noun)
 {
-    std::string out = rows == 1 ? "line " : "lines ";
+    std::string out = (rows == 1 ? noun : positionNounPlural(noun)) + " ";
     for (std::size_t i = 0; i < lines.size(); ++i)
         out += (i ? ", " : "") + std::to_string(lines[i]);
     if (rows > lines.size())
@@ -20,13 +20,13 @@ std::string lineList(const std::vector<std::size_t>& lines, std::size_t rows)
     return out;
 }
 
-void printTally(std::ostream& out, const ExclusionTally& tally)
+void printTally(std::ostream& out, const ExclusionTally& tally, const std::string& noun)
 {
     std::string label = exclusionReasonText(tally.reason);
     if (!tally.column.empty())
         label += " (" + tally.column + ")";
     out << "    " << std::left << std::setw(50) << label << std::right << std::setw(9) << withThousands(tally.rows)
-        << "   " << lineList(tally.firstLines, tally.rows) << '\n';
+        << "   " << lineList(tally.firstLines, tally.rows, noun) << '\n';
 }
 
 } // namespace
@@ -48,9 +48,13 @@ void printIntakeSummary(std::ostream& out, const IntakeSettings& settings, const
 {
     const IntakeAudit& audit = result.audit;
     out << "Plumbline " << versionString << " - cohort intake\n";
-    for (const auto& input : result.inputs)
-        out << "  " << std::left << std::setw(11) << input.role << std::right << input.path << "  (SHA-256 "
-            << input.sha256.substr(0, 12) << "...)\n";
+    for (const auto& input : result.inputs) {
+        out << "  " << std::left << std::setw(11) << input.role << std::right << input.path
+            << (input.sheet ? ", sheet '" + *input.sheet + "'" : std::string()) << "  (" << (input.kind == "delimited text" ? std::string() : input.kind + ", ") << "SHA-256 "
+            << (input.query ? "of the result " : "") << input.sha256.substr(0, 12) << "...)\n";
+        if (input.query)
+            out << "  query      " << *input.query << '\n';
+    }
     out << "  outcome    " << settings.outcomeColumn << " (event = '" << audit.eventValue << "')\n";
     for (const auto& model : result.cohort.models)
         out << "  model      " << model.name << " (" << scaleName(result.cohort.scale) << " scale)\n";
@@ -61,7 +65,7 @@ void printIntakeSummary(std::ostream& out, const IntakeSettings& settings, const
         << " events, " << withThousands(audit.nonEvents) << " non-events, event rate " << rate << ")\n";
     out << "  rows excluded  " << std::setw(9) << withThousands(audit.rowsExcluded()) << '\n';
     for (const auto& tally : audit.exclusions)
-        printTally(out, tally);
+        printTally(out, tally, audit.lineNoun);
     if (audit.join) {
         const JoinSummary& join = *audit.join;
         out << "\n  join on id: " << withThousands(join.matched) << " matched; " << withThousands(join.scoresWithoutOutcome)
@@ -69,7 +73,7 @@ void printIntakeSummary(std::ostream& out, const IntakeSettings& settings, const
             << " outcome rows without a score row\n";
         out << "  outcomes file: " << withThousands(join.outcomeRows) << " rows\n";
         for (const auto& tally : join.outcomeFileExclusions)
-            printTally(out, tally);
+            printTally(out, tally, "line");
     }
     for (const auto& warning : audit.warnings)
         out << "\n  warning: " << warning << '\n';

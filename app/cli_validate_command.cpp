@@ -161,6 +161,18 @@ int runValidate(const ValidateOptions& options, const CLI::App& command)
     auto result = runIntake(analysis->intake);
     if (!result)
         return reportError(result.error());
+    if (const auto changed = queryResultChange(*analysis, result->inputs.front().sha256)) {
+        if (options.analysis.strictInputs) {
+            InputError error;
+            error.file = options.analysis.settingsFile;
+            error.key = "inputs[0].sha256";
+            error.problem = changed->substr(0, changed->size() - 1) + ", and --strict-inputs asks for the saved inputs.";
+            error.remedy = "re-run on the data the analysis was saved with, or save the analysis again.";
+            return reportError(error);
+        }
+        std::cerr << "plumbline-cli: warning: " << *changed << '\n';
+        settingsWarnings.push_back(*changed);
+    }
     if (result->cohort.period)
         // Only the dates are checked here: the analysis over time runs once, in runValidation.
         if (auto dates = checkPeriodDates(result->cohort, *result->cohort.period, analysis->panel.dateFormat); !dates) {
@@ -201,7 +213,10 @@ int runValidate(const ValidateOptions& options, const CLI::App& command)
         std::cout << "Result file: " << options.jsonFile << '\n';
     }
     if (!options.analysis.saveSettingsFile.empty()) {
-        if (auto written = saveAnalysisFile(options.analysis.saveSettingsFile, *analysis); !written)
+        AnalysisFile saved = *analysis;
+        if (saved.intake.database)
+            saved.queryResultSha256 = snapshot->inputs.front().sha256;
+        if (auto written = saveAnalysisFile(options.analysis.saveSettingsFile, saved); !written)
             return reportError(written.error());
         std::cout << "Analysis file: " << options.analysis.saveSettingsFile << '\n';
     }

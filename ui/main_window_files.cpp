@@ -92,7 +92,13 @@ bool MainWindow::saveAnalysis(const QString& path, QString* error)
     }
     if (!refuseInputs(path, error))
         return false;
-    const auto saved = saveAnalysisFile(path.toStdString(), request->toAnalysisFile());
+    AnalysisFile analysis = request->toAnalysisFile();
+    // A query has no file to fingerprint: the result read by the last run stands in, when that run
+    // read the same query.
+    if (analysis.intake.database && m_snapshot && m_snapshot->request.intake.database == analysis.intake.database
+        && m_snapshot->request.intake.query == analysis.intake.query && !m_snapshot->inputs.empty())
+        analysis.queryResultSha256 = m_snapshot->inputs.front().sha256;
+    const auto saved = saveAnalysisFile(path.toStdString(), analysis);
     if (!saved && error)
         *error = QString::fromStdString(saved.error().message());
     return saved.has_value();

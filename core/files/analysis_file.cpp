@@ -2,6 +2,7 @@
 
 #include "files/atomic_file.hpp"
 #include "files/settings_check.hpp"
+#include "intake/file_fingerprint.hpp"
 #include "intake/text_file.hpp"
 
 #include <nlohmann/json.hpp>
@@ -30,10 +31,7 @@ std::string relativeTo(const std::string& file, const fs::path& folder)
 
 std::string fileHash(const std::string& path)
 {
-    const auto file = TextFile::load(path);
-    if (!file)
-        return {};
-    return file->fingerprint().value_or(std::string());
+    return fileFingerprint(path).value_or(std::string());
 }
 
 template <typename T>
@@ -48,7 +46,16 @@ std::expected<void, InputError> saveAnalysisFile(const std::string& path, const 
 {
     const fs::path folder = fs::absolute(fs::path(path)).parent_path();
     Json inputs = Json::array();
-    inputs.push_back({{"role", "cohort"}, {"path", relativeTo(a.intake.cohortFile, folder)}, {"sha256", fileHash(a.intake.cohortFile)}});
+    if (a.intake.database) {
+        // The URI was refused at intake if it held a password, so it is safe to store.
+        inputs.push_back({{"role", "cohort"}, {"database", *a.intake.database}, {"query", a.intake.query.value_or("")},
+                          {"sha256", a.queryResultSha256}});
+    } else {
+        Json cohort = {{"role", "cohort"}, {"path", relativeTo(a.intake.cohortFile, folder)}, {"sha256", fileHash(a.intake.cohortFile)}};
+        if (a.intake.sheet)
+            cohort["sheet"] = *a.intake.sheet;
+        inputs.push_back(cohort);
+    }
     if (a.intake.outcomesFile)
         inputs.push_back({{"role", "outcomes"}, {"path", relativeTo(*a.intake.outcomesFile, folder)}, {"sha256", fileHash(*a.intake.outcomesFile)}});
     Json json;
@@ -265,6 +272,19 @@ AnalysisFile readAnalysis(const Json& json, const std::string& path, std::vector
         const std::string role = input.choice("role", "", {"cohort", "outcomes"});
         if ((role == "cohort" && cohortSeen) || (role == "outcomes" && a.intake.outcomesFile))
             input.refuse("role", role, "appears twice.");
+        if (role == "cohort" && inputs[k].contains("database")) {
+            a.intake.database = input.text("database", "");
+            a.intake.query = input.text("query", "");
+            if (a.intake.database->empty() || a.intake.query->empty())
+                input.refuse("query", {}, "a database input needs both the database and the query.");
+            a.queryResultSha256 = input.text("sha256", "");
+            if (a.queryResultSha256.empty())
+                warnings.push_back("The analysis file records no SHA-256 for the query's result, so a change to the data cannot be detected.");
+            cohortSeen = true;
+            continue;
+        }
+        if (role == "cohort" && inputs[k].contains("sheet"))
+            a.intake.sheet = input.text("sheet", "");
         const std::string stored = input.text("path", "");
         if (stored.empty())
             input.refuse("path", {}, "is missing.");
@@ -402,6 +422,14 @@ std::expected<AnalysisFile, InputError> readAnalysisFile(const TextFile& file, s
         error.remedy = "save the analysis again from Plumbline rather than editing it by hand.";
         return std::unexpected(error);
     }
+}
+
+std::optional<std::string> queryResultChange(const AnalysisFile& analysis, const std::string& resultSha256)
+{
+    if (!analysis.intake.database || analysis.queryResultSha256.empty() || analysis.queryResultSha256 == resultSha256)
+        return std::nullopt;
+    return "The query's result has changed since the analysis was saved (SHA-256 " + analysis.queryResultSha256.substr(0, 12)
+        + "... then, " + resultSha256.substr(0, 12) + "... now): results will differ from the saved analysis.";
 }
 
 } // namespace plumbline

@@ -32,6 +32,9 @@ struct AnalysisFile {
     std::string addUpdated;         // "", "intercept", "logistic" or "closed-test"
     std::size_t minimumCell = 11;   // small-cell rule of the reports
     ReportFields report;
+    // A query's cohort has no file to fingerprint: the SHA-256 of its result set when the
+    // analysis was saved (empty when unknown), compared with the result on the next run.
+    std::string queryResultSha256;
 };
 
 // Writes the analysis (atomically), fingerprinting the inputs as they are now.
@@ -46,11 +49,16 @@ struct AnalysisFileReading {
 // Reads an analysis file; paths come back resolved against its folder. Every value is checked
 // (type, range, known names) and a value that cannot be used is refused naming the key. An input
 // outside the file's folder is refused (ErrorKind::OutsideFolder) unless allowed. `warnings`
-// tells when an input is missing, has no recorded SHA-256, or no longer matches it.
+// tells when an input is missing, has no recorded SHA-256, or no longer matches it. A query's
+// result can only be compared once the query has run: see queryResultChange.
 std::expected<AnalysisFile, InputError> loadAnalysisFile(const std::string& path, std::vector<std::string>& warnings,
                                                          const AnalysisFileReading& reading = {});
 // The same on a file already in memory (its name places its inputs).
 std::expected<AnalysisFile, InputError> readAnalysisFile(const TextFile& file, std::vector<std::string>& warnings,
                                                          const AnalysisFileReading& reading = {});
+
+// The warning for a query whose result is not the one the analysis was saved with (nullopt when it
+// is, or when no hash was saved).
+std::optional<std::string> queryResultChange(const AnalysisFile& analysis, const std::string& resultSha256);
 
 } // namespace plumbline

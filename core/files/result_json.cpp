@@ -47,7 +47,8 @@ nlohmann::ordered_json inputsJson(const std::vector<InputFingerprint>& inputs)
 {
     nlohmann::ordered_json out = nlohmann::ordered_json::array();
     for (const auto& input : inputs)
-        out.push_back({{"role", input.role}, {"path", input.path}, {"sha256", input.sha256}, {"rows", input.rows}});
+        out.push_back({{"role", input.role}, {"path", input.path}, {"sha256", input.sha256}, {"rows", input.rows},
+                       {"kind", input.kind}, {"sheet", optionalJson(input.sheet)}, {"query", optionalJson(input.query)}});
     return out;
 }
 
@@ -55,6 +56,9 @@ nlohmann::ordered_json intakeSettingsJson(const IntakeSettings& settings)
 {
     nlohmann::ordered_json out;
     out["cohort_file"] = settings.cohortFile;
+    out["sheet"] = optionalJson(settings.sheet);
+    out["database"] = optionalJson(settings.database);
+    out["query"] = optionalJson(settings.query);
     out["outcomes_file"] = optionalJson(settings.outcomesFile);
     out["outcome"] = settings.outcomeColumn;
     out["scores"] = settings.scoreColumns;
@@ -82,9 +86,11 @@ nlohmann::ordered_json cohortJson(const IntakeAudit& audit)
                                            : nlohmann::ordered_json(nullptr);
     out["event_value"] = audit.eventValue;
     out["non_event_value"] = audit.nonEventValue;
-    out["delimiter"] = std::string(1, audit.delimiter);
-    out["delimiter_sniffed"] = audit.delimiterSniffed;
+    const bool text = audit.lineNoun == "line";
+    out["delimiter"] = text ? nlohmann::ordered_json(std::string(1, audit.delimiter)) : nlohmann::ordered_json(nullptr);
+    out["delimiter_sniffed"] = text && audit.delimiterSniffed;
     out["blank_lines_skipped"] = audit.blankLinesSkipped;
+    out["first_lines_count"] = audit.lineNoun;
     nlohmann::ordered_json exclusions = nlohmann::ordered_json::array();
     for (const auto& tally : audit.exclusions)
         exclusions.push_back(tallyJson(tally));

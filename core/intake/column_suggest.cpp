@@ -57,4 +57,15 @@ std::vector<std::string> closestColumnNames(std::string_view wanted, const std::
     return out;
 }
 
+std::string quotedList(const std::vector<std::string>& names)
+{
+    std::string out;
+    for (std::size_t i = 0; i < names.size(); ++i) {
+        if (i > 0)
+            out += i + 1 == names.size() ? " or " : ", ";
+        out += "'" + names[i] + "'";
+    }
+    return out;
+}
+
 } // namespace plumbline

@@ -10,4 +10,7 @@ namespace plumbline {
 // a name containing the other counts as close), best first.
 std::vector<std::string> closestColumnNames(std::string_view wanted, const std::vector<std::string>& header);
 
+// "'a', 'b' or 'c'": names as a message lists them.
+std::string quotedList(const std::vector<std::string>& names);
+
 } // namespace plumbline

@@ -11,17 +11,6 @@ namespace plumbline {
 
 namespace {
 
-std::string quotedList(const std::vector<std::string>& names)
-{
-    std::string out;
-    for (std::size_t i = 0; i < names.size(); ++i) {
-        if (i > 0)
-            out += i + 1 == names.size() ? " or " : ", ";
-        out += "'" + names[i] + "'";
-    }
-    return out;
-}
-
 std::string firstLineOf(std::string_view text)
 {
     const std::size_t end = text.find_first_of("\r\n");

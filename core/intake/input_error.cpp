@@ -15,7 +15,7 @@ std::string InputError::message() const
     if (!file.empty())
         append(printableExcerpt(file, 240));
     if (line > 0)
-        append("line " + std::to_string(line));
+        append(lineNoun + " " + std::to_string(line));
     if (!column.empty())
         append("column '" + printableExcerpt(column, 60) + "'");
     if (!key.empty())

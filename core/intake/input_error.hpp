@@ -18,6 +18,7 @@ struct InputError {
     ErrorKind kind = ErrorKind::UnusableInput;
     std::string file;        // path as the user gave it; empty for settings errors
     std::size_t line = 0;    // 1-based physical line; 0 when not tied to a line
+    std::string lineNoun = "line"; // what `line` counts: "row" in a sheet, a statistical file or a query result
     std::string column;      // column name; empty when not tied to a column
     std::string key;         // the setting, in an analysis file ("options.confidence"); empty otherwise
     std::string value;       // the offending value; empty when none

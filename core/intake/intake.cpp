@@ -3,7 +3,12 @@
 #include "intake/cohort_assembler.hpp"
 #include "intake/delimited_table.hpp"
 #include "intake/joined_files_intake.hpp"
+#include "intake/field_values.hpp"
+#include "intake/query_table.hpp"
 #include "intake/single_file_intake.hpp"
+#include "intake/source_kind.hpp"
+#include "intake/typed_source.hpp"
+#include "intake/typed_table_intake.hpp"
 #include "intake/written_date.hpp"
 
 #include <algorithm>
@@ -22,7 +27,40 @@ std::expected<void, InputError> checkSettings(const IntakeSettings& settings)
 {
     InputError error;
     error.file = settings.cohortFile;
-    if (settings.cohortFile.empty()) {
+    if (settings.database) {
+        error.file = *settings.database;
+        if (!settings.cohortFile.empty()) {
+            error.problem = "both a cohort file and a database were given.";
+            error.remedy = "give either a file or --database with --query, not both.";
+            return std::unexpected(error);
+        }
+        if (!settings.query || trimmed(*settings.query).empty()) {
+            error.problem = "a database was given without a query.";
+            error.remedy = "give the SQL query whose result is the cohort (--query \"SELECT …\" or --query-file FILE).";
+            return std::unexpected(error);
+        }
+        if (settings.outcomesFile) {
+            error.problem = "outcomes in a second file cannot be joined to a query's result.";
+            error.remedy = "join the outcomes in the query itself (SELECT … JOIN …).";
+            return std::unexpected(error);
+        }
+    } else if (settings.query) {
+        error.problem = "a query was given without a database.";
+        error.remedy = "name the database with --database URI (for example postgresql://analyst@warehouse/quality or sqlite:cohort.db).";
+        return std::unexpected(error);
+    }
+    if (settings.sheet && !isSpreadsheetPath(settings.cohortFile)) {
+        error.value = *settings.sheet;
+        error.problem = "a sheet was chosen but the cohort is not a spreadsheet (.xlsx).";
+        error.remedy = "leave out --sheet, or open the workbook.";
+        return std::unexpected(error);
+    }
+    if (settings.outcomesFile && isTypedSourcePath(settings.cohortFile)) {
+        error.problem = "outcomes in a second file can be joined to a delimited text cohort only.";
+        error.remedy = "put the outcomes in the same sheet or file as the scores, or export both to delimited text.";
+        return std::unexpected(error);
+    }
+    if (settings.cohortFile.empty() && !settings.database) {
         error.problem = "no cohort file was given.";
         error.remedy = "name the file with the scores (and outcomes), or open a saved analysis (File → Open analysis, or --settings).";
         return std::unexpected(error);
@@ -105,12 +143,93 @@ std::expected<void, InputError> checkRowsToUse(const IntakeAudit& audit, std::si
     return std::unexpected(error);
 }
 
+bool periodIsAlsoGroup(const IntakeSettings& settings)
+{
+    return settings.periodColumn
+        && std::find(settings.groupColumns.begin(), settings.groupColumns.end(), *settings.periodColumn) != settings.groupColumns.end();
+}
+
+// The period column is read like a group column (its date texts dictionary-coded) and moved
+// to the cohort's period afterwards.
+IntakeSettings withPeriodAsGroup(const IntakeSettings& asked)
+{
+    IntakeSettings settings = asked;
+    if (asked.periodColumn && !periodIsAlsoGroup(asked))
+        settings.groupColumns.push_back(*asked.periodColumn);
+    return settings;
+}
+
+// Everything after the staging, whatever the source: the outcome coded, the scale applied, rows
+// excluded and counted, the period's dates read once.
+std::expected<void, InputError> finishIntake(const IntakeSettings& asked, const IntakeSettings& settings, StagedFile& staged,
+                                             const StagedSources& sources, bool joined, ExclusionCounter& exclusions,
+                                             IntakeResult& result)
+{
+    IntakeAudit& audit = result.audit;
+    if (!joined && !staged.rows.ids.empty()) {
+        std::unordered_set<std::string_view> seen;
+        std::size_t repeated = 0;
+        for (const auto& id : staged.rows.ids)
+            repeated += seen.insert(id).second ? 0 : 1;
+        if (repeated > 0)
+            audit.warnings.push_back(std::to_string(repeated) + " rows repeat an id already seen in column '"
+                                     + *settings.idColumn + "'; with one file they are kept, check that rows are not duplicated.");
+    }
+    if (auto usable = checkRowsToUse(audit, staged.rows.size(), exclusions, sources.cohortFile, joined); !usable)
+        return std::unexpected(usable.error());
+    auto cohort = assembleCohort(std::move(staged.rows), staged.outcomeLevels.levels(), settings, sources, exclusions, audit);
+    if (!cohort)
+        return std::unexpected(cohort.error());
+    audit.exclusions = exclusions.tallies();
+    if (auto enough = checkEnoughRows(audit, settings); !enough)
+        return std::unexpected(enough.error());
+    result.cohort = std::move(*cohort);
+    if (asked.periodColumn) {
+        auto& groups = result.cohort.groups;
+        const auto it = std::find_if(groups.begin(), groups.end(), [&](const CategoricalColumn& c) { return c.name == *asked.periodColumn; });
+        result.cohort.period = DateColumn{*it, {}};
+        // Each distinct date text is read once, here; the period analysis only applies the
+        // day/month order the user chose to what was read.
+        for (const auto& level : result.cohort.period->levels)
+            result.cohort.period->written.push_back(readWrittenDate(level));
+        if (!periodIsAlsoGroup(asked))
+            groups.erase(it);
+    }
+    return {};
+}
+
+InputFingerprint delimitedInput(std::string role, std::string path, std::string sha256, std::size_t rows)
+{
+    InputFingerprint input;
+    input.role = std::move(role);
+    input.path = std::move(path);
+    input.sha256 = std::move(sha256);
+    input.rows = rows;
+    return input;
+}
+
+void giveBackStagingMemory()
+{
+#if defined(__GLIBC__)
+    // The staging freed columns that the allocator keeps for reuse (those below its mapping
+    // threshold, and the second thread's arena): given back now, a ten-million-row cohort's
+    // analysis starts from the cohort's own memory instead of about 90 MB above it.
+    malloc_trim(0);
+#endif
+}
+
 } // namespace
 
 std::expected<IntakeResult, InputError> runIntake(const IntakeSettings& settings)
 {
     if (auto ok = checkSettings(settings); !ok)
         return std::unexpected(ok.error());
+    if (sourceKindOf(settings) != SourceKind::DelimitedText) {
+        auto table = openTypedSource(settings);
+        if (!table)
+            return std::unexpected(table.error());
+        return runIntake(settings, **table);
+    }
     auto cohortFile = TextFile::load(settings.cohortFile, settings.maxLineBytes);
     if (!cohortFile)
         return std::unexpected(cohortFile.error());
@@ -124,18 +243,42 @@ std::expected<IntakeResult, InputError> runIntake(const IntakeSettings& settings
     return runIntake(settings, std::move(*cohortFile), std::move(outcomesFile));
 }
 
+std::expected<IntakeResult, InputError> runIntake(const IntakeSettings& asked, TypedTable& table)
+{
+    if (auto ok = checkSettings(asked); !ok)
+        return std::unexpected(ok.error());
+    IntakeSettings settings = withPeriodAsGroup(asked);
+    settings.eventValue = eventValueAsCode(table, settings);
+    IntakeResult result;
+    ExclusionCounter exclusions;
+    auto staged = stageTypedTable(table, settings, exclusions, result.audit);
+    if (!staged)
+        return std::unexpected(staged.error());
+    const StagedSources sources{table.sourceName(), table.sourceName()};
+    if (auto finished = finishIntake(asked, settings, *staged, sources, false, exclusions, result); !finished)
+        return std::unexpected(finished.error());
+    auto fingerprint = table.fingerprint();
+    if (!fingerprint)
+        return std::unexpected(fingerprint.error());
+    InputFingerprint input;
+    input.role = "cohort";
+    input.path = settings.database ? databaseDisplayName(*settings.database) : settings.cohortFile;
+    input.sha256 = std::move(*fingerprint);
+    input.rows = result.audit.rowsRead;
+    input.kind = sourceKindName(sourceKindOf(settings));
+    input.sheet = settings.sheet;
+    input.query = settings.query;
+    result.inputs.push_back(std::move(input));
+    giveBackStagingMemory();
+    return result;
+}
+
 std::expected<IntakeResult, InputError> runIntake(const IntakeSettings& asked, TextFile cohortFile,
                                                   std::optional<TextFile> outcomesFile)
 {
     if (auto ok = checkSettings(asked); !ok)
         return std::unexpected(ok.error());
-    // The period column is read like a group column (its date texts dictionary-coded) and moved
-    // to the cohort's period afterwards.
-    IntakeSettings settings = asked;
-    const bool periodAlsoGroup = asked.periodColumn
-        && std::find(asked.groupColumns.begin(), asked.groupColumns.end(), *asked.periodColumn) != asked.groupColumns.end();
-    if (asked.periodColumn && !periodAlsoGroup)
-        settings.groupColumns.push_back(*asked.periodColumn);
+    const IntakeSettings settings = withPeriodAsGroup(asked);
     auto cohortTable = DelimitedTable::open(std::move(cohortFile), settings.delimiter);
     if (!cohortTable)
         return std::unexpected(cohortTable.error());
@@ -169,48 +312,15 @@ std::expected<IntakeResult, InputError> runIntake(const IntakeSettings& asked, T
     }
     if (!staged)
         return std::unexpected(staged.error());
-
-    if (outcomesTable == std::nullopt && !staged->rows.ids.empty()) {
-        std::unordered_set<std::string_view> seen;
-        std::size_t repeated = 0;
-        for (const auto& id : staged->rows.ids)
-            repeated += seen.insert(id).second ? 0 : 1;
-        if (repeated > 0)
-            audit.warnings.push_back(std::to_string(repeated) + " rows repeat an id already seen in column '"
-                                     + *settings.idColumn + "'; with one file they are kept, check that rows are not duplicated.");
-    }
-    if (auto usable = checkRowsToUse(audit, staged->rows.size(), exclusions, sources.cohortFile, outcomesTable.has_value()); !usable)
-        return std::unexpected(usable.error());
-    auto cohort = assembleCohort(std::move(staged->rows), staged->outcomeLevels.levels(), settings, sources, exclusions, audit);
-    if (!cohort)
-        return std::unexpected(cohort.error());
-    audit.exclusions = exclusions.tallies();
-    if (auto enough = checkEnoughRows(audit, settings); !enough)
-        return std::unexpected(enough.error());
-    result.cohort = std::move(*cohort);
-    if (asked.periodColumn) {
-        auto& groups = result.cohort.groups;
-        const auto it = std::find_if(groups.begin(), groups.end(), [&](const CategoricalColumn& c) { return c.name == *asked.periodColumn; });
-        result.cohort.period = DateColumn{*it, {}};
-        // Each distinct date text is read once, here; the period analysis only applies the
-        // day/month order the user chose to what was read.
-        for (const auto& level : result.cohort.period->levels)
-            result.cohort.period->written.push_back(readWrittenDate(level));
-        if (!periodAlsoGroup)
-            groups.erase(it);
-    }
+    if (auto finished = finishIntake(asked, settings, *staged, sources, outcomesTable.has_value(), exclusions, result); !finished)
+        return std::unexpected(finished.error());
     auto cohortFingerprint = cohortHash.get();
     if (!cohortFingerprint)
         return std::unexpected(cohortFingerprint.error());
-    result.inputs.push_back({"cohort", settings.cohortFile, std::move(*cohortFingerprint), audit.rowsRead});
-#if defined(__GLIBC__)
-    // The staging freed columns that the allocator keeps for reuse (those below its mapping
-    // threshold, and the second thread's arena): given back now, a ten-million-row cohort's
-    // analysis starts from the cohort's own memory instead of about 90 MB above it.
-    malloc_trim(0);
-#endif
+    result.inputs.push_back(delimitedInput("cohort", settings.cohortFile, std::move(*cohortFingerprint), audit.rowsRead));
+    giveBackStagingMemory();
     if (outcomesTable)
-        result.inputs.push_back({"outcomes", *settings.outcomesFile, outcomesHash, audit.join->outcomeRows});
+        result.inputs.push_back(delimitedInput("outcomes", *settings.outcomesFile, outcomesHash, audit.join->outcomeRows));
     return result;
 }
 

@@ -92,4 +92,10 @@ std::vector<ExclusionTally> ExclusionCounter::tallies() const
     return out;
 }
 
+std::string positionNounPlural(const std::string& noun)
+{
+    const std::size_t space = noun.find(' ');
+    return space == std::string::npos ? noun + "s" : noun.substr(0, space) + "s" + noun.substr(space);
+}
+
 } // namespace plumbline

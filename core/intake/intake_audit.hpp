@@ -28,6 +28,9 @@ enum class ExclusionReason {
 
 std::string exclusionReasonText(ExclusionReason reason);
 
+// The plural of a position noun ("line" → "lines", "row of the result" → "rows of the result").
+std::string positionNounPlural(const std::string& noun);
+
 // All rows excluded for one reason (and one column, where the reason concerns a column).
 struct ExclusionTally {
     ExclusionReason reason;
@@ -66,6 +69,9 @@ struct IntakeAudit {
     std::size_t blankLinesSkipped = 0;
     char delimiter = ',';
     bool delimiterSniffed = true;
+    // What first_lines count: "line" of a text file, or "row" of a sheet, a statistical file or a
+    // query result (a typed source has no delimiter, and delimiter is then left at its default).
+    std::string lineNoun = "line";
     std::string eventValue;
     std::string nonEventValue;
     std::vector<ExclusionTally> exclusions;

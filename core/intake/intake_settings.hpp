@@ -10,7 +10,10 @@ namespace plumbline {
 
 // Where the data are and how to read them: the column mapping of an analysis.
 struct IntakeSettings {
-    std::string cohortFile;                   // scores (and outcomes, unless outcomesFile is set)
+    std::string cohortFile;                   // scores (and outcomes, unless outcomesFile is set); empty with a database
+    std::optional<std::string> sheet;         // a spreadsheet's sheet: its name or 1-based number; nullopt: the first
+    std::optional<std::string> database;      // a database URI (no password in it); the cohort is then the query's result
+    std::optional<std::string> query;         // the SQL query whose result is the cohort (with database)
     std::optional<std::string> outcomesFile;  // outcomes in a second file, joined on the id
     std::string outcomeColumn;
     std::vector<std::string> scoreColumns;

@@ -10,42 +10,9 @@ namespace plumbline {
 
 namespace {
 
-struct ColumnIndices {
-    std::size_t outcome = 0;
-    std::vector<std::size_t> scores;
-    std::vector<std::size_t> groups;
-    std::optional<std::size_t> id;
-};
-
 std::expected<ColumnIndices, InputError> resolveColumns(const DelimitedTable& table, const IntakeSettings& settings)
 {
-    ColumnIndices indices;
-    const auto outcome = table.column(settings.outcomeColumn, "outcome");
-    if (!outcome)
-        return std::unexpected(outcome.error());
-    indices.outcome = *outcome;
-    for (const auto& name : settings.scoreColumns) {
-        const auto score = table.column(name, "score");
-        if (!score)
-            return std::unexpected(score.error());
-        indices.scores.push_back(*score);
-    }
-    for (const auto& name : settings.groupColumns) {
-        const auto group = table.column(name, "group");
-        if (!group)
-            return std::unexpected(group.error());
-        indices.groups.push_back(*group);
-    }
-    if (settings.periodColumn)
-        if (const auto period = table.column(*settings.periodColumn, "period"); !period)
-            return std::unexpected(period.error());
-    if (settings.idColumn) {
-        const auto id = table.column(*settings.idColumn, "id");
-        if (!id)
-            return std::unexpected(id.error());
-        indices.id = *id;
-    }
-    return indices;
+    return resolveColumnIndices(settings, [&](const std::string& name, const std::string& role) { return table.column(name, role); });
 }
 
 // The rows of one part of the file, with everything counted while reading them.

@@ -2,10 +2,12 @@
 
 #include "intake/csv_scanner.hpp"
 #include "intake/intake_audit.hpp"
+#include "intake/intake_settings.hpp"
 #include "intake/outcome_coding.hpp"
 
 #include <cstddef>
 #include <cstdint>
+#include <expected>
 #include <optional>
 #include <string>
 #include <string_view>
@@ -66,6 +68,48 @@ private:
 // The reason a record cannot be read as a row at all (wrong field count, text after a closing
 // quote), or nullopt when its shape is sound.
 std::optional<ExclusionReason> recordShapeProblem(const CsvScanner& scanner, std::size_t width);
+
+// Where the mapped columns are in a source's header.
+struct ColumnIndices {
+    std::size_t outcome = 0;
+    std::vector<std::size_t> scores;
+    std::vector<std::size_t> groups;
+    std::optional<std::size_t> id;
+};
+
+// Looks up every column the settings map, with `find(name, role)` returning the index or an
+// InputError; the period column is looked up too (under its own role) when it is not a group.
+template <typename Find>
+std::expected<ColumnIndices, InputError> resolveColumnIndices(const IntakeSettings& settings, Find&& find)
+{
+    ColumnIndices indices;
+    const auto outcome = find(settings.outcomeColumn, "outcome");
+    if (!outcome)
+        return std::unexpected(outcome.error());
+    indices.outcome = *outcome;
+    for (const auto& name : settings.scoreColumns) {
+        const auto score = find(name, "score");
+        if (!score)
+            return std::unexpected(score.error());
+        indices.scores.push_back(*score);
+    }
+    for (const auto& name : settings.groupColumns) {
+        const auto group = find(name, name == settings.periodColumn ? "period" : "group");
+        if (!group)
+            return std::unexpected(group.error());
+        indices.groups.push_back(*group);
+    }
+    if (settings.periodColumn)
+        if (const auto period = find(*settings.periodColumn, "period"); !period)
+            return std::unexpected(period.error());
+    if (settings.idColumn) {
+        const auto id = find(*settings.idColumn, "id");
+        if (!id)
+            return std::unexpected(id.error());
+        indices.id = *id;
+    }
+    return indices;
+}
 
 // Reads one score field: a number, a missing token, or text that is not a number.
 ScoreFieldStatus readScoreField(std::string_view field, bool decimalComma, double& value);

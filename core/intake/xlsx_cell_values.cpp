@@ -98,7 +98,8 @@ std::expected<XlsxCellValues::Reading, std::string> XlsxCellValues::read(const X
             return Reading{TypedCell::ofNumber(0.0)};
         return std::unexpected(notA("0 or 1", raw.type));
     case XlsxCellType::Error:
-        return Reading{TypedCell::missing(), Note::ErrorValue};
+        // Its code as text, as a delimited export writes it: a score there is "not a number".
+        return Reading{TypedCell::ofText(value), Note::ErrorValue};
     case XlsxCellType::IsoDate:
         if (const auto days = isoDays(value))
             return Reading{TypedCell::ofDate(*days)};

@@ -190,8 +190,7 @@ std::vector<std::string> XlsxTable::warnings() const
 {
     std::vector<std::string> out;
     if (m_errors.count > 0)
-        out.push_back(counted(m_errors.count, "cell holds", "cells hold") + " an error value such as #N/A or #DIV/0! and "
-                      + (m_errors.count == 1 ? "is" : "are") + " read as empty (first: " + m_errors.first + ", "
+        out.push_back(counted(m_errors.count, "cell holds", "cells hold") + " an error value such as #N/A or #DIV/0!, read as that text (a score there is not a number) (first: " + m_errors.first + ", "
                       + m_firstErrorValue + ").");
     if (m_formulas.count > 0)
         out.push_back(counted(m_formulas.count, "cell holds", "cells hold") + " a formula without a saved value (first: "

@@ -50,7 +50,10 @@ QVariant IntakeAuditModel::data(const QModelIndex& index, int role) const
     case RowsColumn:
         return QLocale().toString(static_cast<qulonglong>(tally.rows));
     case FileColumn:
-        return QFileInfo(QString::fromStdString(tally.file)).fileName();
+        // A query's result is named with its database's address, which is not a path.
+        return m_audit.lineNoun == "row of the result" && &tally - m_rows.data() < static_cast<std::ptrdiff_t>(m_audit.exclusions.size())
+            ? QString::fromStdString(tally.file)
+            : QFileInfo(QString::fromStdString(tally.file)).fileName();
     case LinesColumn: {
         QStringList lines;
         for (std::size_t line : tally.firstLines)
@@ -71,7 +74,12 @@ QVariant IntakeAuditModel::headerData(int section, Qt::Orientation orientation, 
     case ScoreColumn: return tr("Column");
     case RowsColumn: return tr("Rows");
     case FileColumn: return tr("File");
-    case LinesColumn: return tr("First lines in that file");
+    case LinesColumn:
+        if (m_audit.lineNoun == "row")
+            return tr("First rows in that file");
+        if (m_audit.lineNoun == "row of the result")
+            return tr("First rows of the result");
+        return tr("First lines in that file");
     default: return {};
     }
 }

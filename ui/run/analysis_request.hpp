@@ -19,7 +19,8 @@ struct AnalysisRequest {
     // carried into the result's warnings and the report's provenance. Not saved.
     std::vector<std::string> inputWarnings;
 
-    AnalysisFile toAnalysisFile() const { return {intake, panel, bootstrap, addUpdated, minimumCell, report}; }
+    // The query result's SHA-256 is known only after a run: the caller adds it (queryResultSha256).
+    AnalysisFile toAnalysisFile() const { return {intake, panel, bootstrap, addUpdated, minimumCell, report, {}}; }
     static AnalysisRequest fromAnalysisFile(const AnalysisFile& a)
     {
         return {a.intake, a.panel, a.bootstrap, a.addUpdated, a.report, a.minimumCell, {}};
