@@ -12,6 +12,7 @@
 #include "files/update_json.hpp"
 #include "reporting/value_text.hpp"
 
+#include <system_error>
 #include <charconv>
 #include <iomanip>
 #include <iostream>
@@ -142,6 +143,11 @@ void addUpdateCommand(CLI::App& app, int& exitStatus)
         try {
             exitStatus = runUpdate(*options, *command);
         } catch (const std::bad_alloc&) {
+            exitStatus = reportOutOfMemory(options->intake.settings.cohortFile);
+        } catch (const std::system_error& error) {
+            // A thread whose stack cannot be mapped is memory running out too (EAGAIN).
+            if (error.code() != std::errc::resource_unavailable_try_again)
+                throw;
             exitStatus = reportOutOfMemory(options->intake.settings.cohortFile);
         }
     });

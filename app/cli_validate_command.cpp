@@ -13,6 +13,7 @@
 #include "files/update_json.hpp"
 #include "files/validation_json.hpp"
 
+#include <system_error>
 #include <QApplication>
 
 #include <cstdlib>
@@ -239,6 +240,11 @@ void addValidateCommand(CLI::App& app, int& exitStatus)
         try {
             exitStatus = runValidate(*options, *command);
         } catch (const std::bad_alloc&) {
+            exitStatus = reportOutOfMemory(options->analysis.intake.settings.cohortFile);
+        } catch (const std::system_error& error) {
+            // A thread whose stack cannot be mapped is memory running out too (EAGAIN).
+            if (error.code() != std::errc::resource_unavailable_try_again)
+                throw;
             exitStatus = reportOutOfMemory(options->analysis.intake.settings.cohortFile);
         }
     });

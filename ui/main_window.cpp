@@ -1,5 +1,7 @@
 #include "main_window.hpp"
 
+#include "intake/query_table.hpp"
+
 #include "charts/calibration_chart_view.hpp"
 #include "reporting/cautions.hpp"
 #include "panels/cohort_panel.hpp"
@@ -331,7 +333,9 @@ void MainWindow::showSnapshot(SnapshotPointer snapshot, bool complete)
               .arg(m_snapshot->validation.bootstrap->seed)
         : complete ? tr("analytic") : tr("analytic (bootstrap running)");
     m_title->setFullText(tr("%1 · %2 patients, %3 events (%4 %) · %5 % intervals: %6")
-                             .arg(QFileInfo(QString::fromStdString(request.intake.cohortFile)).fileName())
+                             .arg(request.intake.database ? QString::fromStdString(databaseDisplayName(*request.intake.database))
+                                                          : QFileInfo(QString::fromStdString(request.intake.cohortFile)).fileName()
+                                      + (request.intake.sheet ? tr(", sheet %1").arg(QString::fromStdString(*request.intake.sheet)) : QString()))
                              .arg(QLocale().toString(qulonglong(audit.rowsUsed)))
                              .arg(QLocale().toString(qulonglong(audit.events)))
                              .arg(100.0 * double(audit.events) / double(std::max<std::size_t>(audit.rowsUsed, 1)), 0, 'f', 1)

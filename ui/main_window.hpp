@@ -51,6 +51,8 @@ public:
 
     // Opens the import dialog on a file (or empty); runs the analysis when the user confirms.
     void openWithDialog(const QString& path = {});
+    // File → Open from database: the address and query, then the import dialog on its result.
+    void openFromDatabase();
     // Runs an analysis directly (command line, snapshot mode, re-run, tests).
     void runRequest(const AnalysisRequest& request);
     // The analysis the Settings tab and the threshold describe now (Re-run, Save analysis).
@@ -110,6 +112,8 @@ private:
     void setThreshold(double threshold);
     void rebuildModelToggles();
     void addRecentFile(const QString& path);
+    // Runs what an accepted import dialog maps, with the Settings tab's options.
+    void runImported(const class ImportDialog& dialog);
     void refreshRecentMenu();
     void showAbout();
     void showPlanner();

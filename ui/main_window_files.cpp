@@ -4,6 +4,7 @@
 
 #include "widgets/elided_label.hpp"
 #include "files/atomic_file.hpp"
+#include "dialogs/database_dialog.hpp"
 #include "dialogs/import_dialog.hpp"
 #include "report/report_writers.hpp"
 #include "files/result_json.hpp"
@@ -32,6 +33,7 @@ void MainWindow::buildFileMenu()
     QMenu* file = menuBar()->addMenu(tr("&File"));
     QAction* open = file->addAction(tr("&Open cohort…"), this, [this] { openWithDialog(); });
     open->setShortcut(QKeySequence::Open);
+    file->addAction(tr("Open from &database…"), this, &MainWindow::openFromDatabase);
     m_recent = file->addMenu(tr("Open &recent"));
     refreshRecentMenu();
     file->addSeparator();
@@ -54,6 +56,31 @@ void MainWindow::openWithDialog(const QString& path)
         dialog.loadFile(path);
     if (dialog.exec() != QDialog::Accepted)
         return;
+    runImported(dialog);
+}
+
+void MainWindow::openFromDatabase()
+{
+    DatabaseDialog ask(this);
+    // The address and query of the last database opened (never a password: one is refused).
+    QSettings settings;
+    ask.setDatabase(settings.value(QStringLiteral("database/address")).toString());
+    ask.setQuery(settings.value(QStringLiteral("database/query")).toString());
+    if (ask.exec() != QDialog::Accepted)
+        return;
+    ImportDialog dialog(this);
+    // A refused address or a failing query is shown in the dialog, with the database's message.
+    if (dialog.loadDatabase(ask.database(), ask.query())) {
+        settings.setValue(QStringLiteral("database/address"), ask.database());
+        settings.setValue(QStringLiteral("database/query"), ask.query());
+    }
+    if (dialog.exec() != QDialog::Accepted)
+        return;
+    runImported(dialog);
+}
+
+void MainWindow::runImported(const ImportDialog& dialog)
+{
     // The analysis options stay as the Settings tab shows them (the defaults at first); a value
     // there that cannot be used stops the run where the user can see why.
     std::optional<AnalysisRequest> current = currentRequest();
@@ -64,7 +91,8 @@ void MainWindow::openWithDialog(const QString& path)
     }
     AnalysisRequest request = *current;
     request.intake = dialog.intakeSettings();
-    addRecentFile(QString::fromStdString(request.intake.cohortFile));
+    if (!request.intake.cohortFile.empty())
+        addRecentFile(QString::fromStdString(request.intake.cohortFile));
     runRequest(request);
 }
 
@@ -166,6 +194,8 @@ bool MainWindow::exportTables(const QString& folder, QString* error)
 
 QString MainWindow::cohortStem() const
 {
+    if (m_snapshot && m_snapshot->request.intake.database)
+        return QStringLiteral("query");
     return m_snapshot ? QFileInfo(QString::fromStdString(m_snapshot->request.intake.cohortFile)).completeBaseName() : QStringLiteral("analysis");
 }
 

@@ -1,6 +1,7 @@
 #include "intake/column_profile.hpp"
 
 #include "intake/field_values.hpp"
+#include "intake/typed_table_intake.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -151,6 +152,34 @@ std::expected<TableProfile, InputError> profileColumns(const DelimitedTable& tab
         return std::unexpected(visited.error());
     for (std::size_t c = 0; c < width; ++c)
         profile.columns.push_back(describe(table.header()[c], tallies[c], profile.rows));
+    return profile;
+}
+
+std::expected<TableProfile, InputError> profileColumns(TypedTable& table, std::size_t maxRows)
+{
+    TableProfile profile;
+    const auto& columns = table.columns();
+    std::vector<ColumnTally> tallies(columns.size());
+    const auto visited = table.forEachRecord([&](std::span<const TypedCell> cells, std::size_t position) {
+        if (maxRows > 0 && profile.rows >= maxRows)
+            return false;
+        ++profile.rows;
+        for (std::size_t c = 0; c < columns.size() && c < cells.size(); ++c)
+            tallies[c].add(typedCellText(cells[c]), position);
+        return true;
+    });
+    if (!visited)
+        return std::unexpected(visited.error());
+    for (std::size_t c = 0; c < columns.size(); ++c) {
+        ColumnProfile column = describe(columns[c].name, tallies[c], profile.rows);
+        if (!columns[c].labels.empty()) {
+            std::string labels;
+            for (const auto& label : columns[c].labels)
+                labels += (labels.empty() ? "labels: " : ", ") + typedCellText(TypedCell::ofNumber(label.value)) + " = " + label.label;
+            column.notes.push_back(labels);
+        }
+        profile.columns.push_back(std::move(column));
+    }
     return profile;
 }
 

@@ -1,6 +1,7 @@
 #pragma once
 
 #include "intake/delimited_table.hpp"
+#include "intake/typed_table.hpp"
 
 #include <cstddef>
 #include <expected>
@@ -36,5 +37,8 @@ inline constexpr std::size_t distinctCap = 100000;
 // Profiles every column of the table in one pass: sniffed type, counts, range and problems.
 // With maxRows, only the first rows are read (enough for guessing roles in a dialog).
 std::expected<TableProfile, InputError> profileColumns(const DelimitedTable& table, std::size_t maxRows = 0);
+// The same for a typed source, each cell read as the text a delimited export would hold; a
+// column's value labels are listed in its notes ("labels: 0 = No, 1 = Readmitted").
+std::expected<TableProfile, InputError> profileColumns(TypedTable& table, std::size_t maxRows = 0);
 
 } // namespace plumbline

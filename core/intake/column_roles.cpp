@@ -1,6 +1,7 @@
 #include "intake/column_roles.hpp"
 
 #include "intake/field_values.hpp"
+#include "intake/typed_table_intake.hpp"
 
 #include <algorithm>
 #include <array>
@@ -97,6 +98,27 @@ TablePreview previewTable(const DelimitedTable& table, std::size_t maxRows)
         preview.rows.emplace_back(scanner.fields().begin(), scanner.fields().end());
         preview.lines.push_back(scanner.line());
     });
+    return preview;
+}
+
+std::expected<TablePreview, InputError> previewTable(TypedTable& table, std::size_t maxRows)
+{
+    TablePreview preview;
+    for (const auto& column : table.columns())
+        preview.header.push_back(column.name);
+    const auto& columns = table.columns();
+    const auto visited = table.forEachRecord([&](std::span<const TypedCell> cells, std::size_t position) {
+        if (preview.rows.size() >= maxRows)
+            return false;
+        std::vector<std::string> row;
+        for (std::size_t c = 0; c < cells.size(); ++c)
+            row.push_back(typedCellText(cells[c], c < columns.size() && !columns[c].labels.empty() ? &columns[c].labels : nullptr));
+        preview.rows.push_back(std::move(row));
+        preview.lines.push_back(position);
+        return true;
+    });
+    if (!visited)
+        return std::unexpected(visited.error());
     return preview;
 }
 

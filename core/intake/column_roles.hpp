@@ -35,5 +35,8 @@ struct TablePreview {
     std::vector<std::size_t> lines;
 };
 TablePreview previewTable(const DelimitedTable& table, std::size_t maxRows);
+// The first rows of a typed source as a delimited export would show them, labelled values as
+// their labels, with their positions (sheet rows, observation numbers, result rows).
+std::expected<TablePreview, InputError> previewTable(TypedTable& table, std::size_t maxRows);
 
 } // namespace plumbline

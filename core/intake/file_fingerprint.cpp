@@ -5,6 +5,8 @@
 
 #include <vector>
 
+#include <sys/stat.h>
+
 namespace plumbline {
 
 std::expected<std::string, InputError> fileFingerprint(const std::string& path)
@@ -15,6 +17,13 @@ std::expected<std::string, InputError> fileFingerprint(const std::string& path)
     if (!file) {
         error.problem = "the file cannot be opened (" + file.error() + ").";
         error.remedy = "check the path and that you may read the file.";
+        return std::unexpected(error);
+    }
+    // A device or pipe could be read for ever (/dev/zero): only a regular file has a fingerprint.
+    struct stat status {};
+    if (::fstat(file->descriptor(), &status) != 0 || !S_ISREG(status.st_mode)) {
+        error.problem = "this is not a regular file (a folder, device, pipe or socket), so it has no fingerprint.";
+        error.remedy = "name the data file itself.";
         return std::unexpected(error);
     }
     Sha256Stream hash;

@@ -62,25 +62,9 @@ using namespace plumbline::testing;
 
 namespace {
 
-// Runs `drive` on the import dialog once it is open and modal; stops looking after a minute, so
-// that a dialog that never opens fails the test instead of hanging it.
 void whenTheDialogOpens(const std::function<void(ImportDialog*)>& drive)
 {
-    auto* poll = new QTimer;
-    auto started = std::make_shared<QElapsedTimer>();
-    started->start();
-    QObject::connect(poll, &QTimer::timeout, poll, [poll, drive, started] {
-        auto* dialog = qobject_cast<ImportDialog*>(QApplication::activeModalWidget());
-        if (dialog) {
-            poll->stop();
-            poll->deleteLater();
-            drive(dialog);
-        } else if (started->elapsed() > 60000) {
-            poll->stop();
-            poll->deleteLater();
-        }
-    });
-    poll->start(50);
+    whenOpen<ImportDialog>(drive);
 }
 
 QJsonObject cliResult(const IntakeSettings& mapping, const QString& json)

@@ -3,6 +3,10 @@
 #include "intake/column_roles.hpp"
 #include "widgets/copyable_table_view.hpp"
 #include "intake/delimited_table.hpp"
+#include "intake/query_table.hpp"
+#include "intake/source_kind.hpp"
+#include "intake/typed_source.hpp"
+#include "intake/xlsx_table.hpp"
 #include "models/intake_audit_model.hpp"
 #include "widgets/save_location.hpp"
 
@@ -33,6 +37,9 @@ namespace {
 
 const QString none = QObject::tr("(none)");
 const QString delimitedFiles = QObject::tr("Delimited text (*.csv *.tsv *.txt);;All files (*)");
+const QString cohortFiles = QObject::tr("Cohort files (*.csv *.tsv *.txt *.xlsx *.sas7bdat *.xpt *.dta *.sav *.zsav);;"
+                                        "Delimited text (*.csv *.tsv *.txt);;Workbooks (*.xlsx);;"
+                                        "SAS, Stata and SPSS files (*.sas7bdat *.xpt *.dta *.sav *.zsav);;All files (*)");
 
 QStringList checkedItems(const QListWidget* list)
 {
@@ -76,6 +83,9 @@ ImportDialog::ImportDialog(QWidget* parent)
     , m_outcomesId(columnBox())
     , m_delimiter(new QComboBox)
     , m_decimalComma(new QCheckBox(tr("Decimal &comma (0,25)")))
+    , m_sheetLabel(new QLabel(tr("S&heet:")))
+    , m_sheet(new QComboBox)
+    , m_valueLabels(new QLabel)
     , m_preview(new QTableWidget)
     , m_outcome(columnBox())
     , m_event(new QLineEdit)
@@ -164,6 +174,16 @@ ImportDialog::ImportDialog(QWidget* parent)
     });
     m_outcomesFile->setEnabled(false);
     m_outcomesId->setEnabled(false);
+    m_sheet->setObjectName(QStringLiteral("sheet"));
+    m_sheet->setAccessibleName(tr("Sheet"));
+    m_sheetLabel->setBuddy(m_sheet);
+    connect(m_sheet, &QComboBox::currentIndexChanged, this, [this] {
+        if (!m_loadedPath.isEmpty() && isSpreadsheetPath(m_loadedPath.toStdString()))
+            loadTypedSource();
+    });
+    m_valueLabels->setWordWrap(true);
+    m_valueLabels->setTextInteractionFlags(Qt::TextSelectableByMouse);
+    showSourceKind(true);
 }
 
 void ImportDialog::buildLayout()
@@ -171,7 +191,7 @@ void ImportDialog::buildLayout()
     auto* browse = plainButton(tr("&Browse…"));
     auto* browseOutcomes = plainButton(tr("Bro&wse…"));
     connect(browse, &QPushButton::clicked, this, [this] {
-        const QString path = askOpenLocation(this, tr("Cohort file"), delimitedFiles);
+        const QString path = askOpenLocation(this, tr("Cohort file"), cohortFiles);
         if (!path.isEmpty())
             loadFile(path);
     });
@@ -186,6 +206,8 @@ void ImportDialog::buildLayout()
     fileRow->addWidget(fileLabel);
     fileRow->addWidget(m_file, 1);
     fileRow->addWidget(browse);
+    fileRow->addWidget(m_sheetLabel);
+    fileRow->addWidget(m_sheet);
     fileRow->addWidget(new QLabel(tr("Delimiter:")));
     fileRow->addWidget(m_delimiter);
     fileRow->addWidget(m_decimalComma);
@@ -242,6 +264,7 @@ void ImportDialog::buildLayout()
     auto* previewBox = new QGroupBox(tr("First rows, as Plumbline reads them"));
     auto* previewLayout = new QVBoxLayout(previewBox);
     previewLayout->addWidget(m_preview);
+    previewLayout->addWidget(m_valueLabels);
     // The preview keeps its share of the height whatever the audit shows; the user can drag.
     auto* split = new QSplitter(Qt::Vertical);
     split->addWidget(previewBox);
@@ -335,11 +358,39 @@ std::optional<DelimitedTable> ImportDialog::openTable(const QString& path)
 
 bool ImportDialog::loadFile(const QString& path)
 {
+    m_file->setReadOnly(false);
     m_file->setText(path);
+    m_database.reset();
+    m_query.reset();
     m_loadedPath.clear();
     m_problem->clear();
     m_auditSummary->clear();
     m_audit->setAudit({});
+    m_valueLabels->clear();
+    if (isTypedSourcePath(path.toStdString())) {
+        showSourceKind(false);
+        const QSignalBlocker quiet(m_sheet);
+        m_sheet->clear();
+        if (isSpreadsheetPath(path.toStdString())) {
+            const auto sheets = xlsxSheetNames(path.toStdString());
+            if (!sheets) {
+                showProblem(QString::fromStdString(sheets.error().message()));
+                return false;
+            }
+            for (const auto& sheet : *sheets)
+                m_sheet->addItem(QString::fromStdString(sheet));
+        }
+        m_sheet->setVisible(m_sheet->count() > 0);
+        m_sheetLabel->setVisible(m_sheet->count() > 0);
+        m_loadedPath = path;
+        if (!loadTypedSource()) {
+            m_loadedPath.clear();
+            return false;
+        }
+        rememberFolderOf(path, FolderUse::Reading);
+        return true;
+    }
+    showSourceKind(true);
     const auto table = openTable(path);
     if (!table)
         return false;
@@ -348,19 +399,9 @@ bool ImportDialog::loadFile(const QString& path)
         showProblem(QString::fromStdString(profile.error().message()));
         return false;
     }
-    m_numericColumns.clear();
-    m_categoryColumns.clear();
-    for (const auto& column : profile->columns) {
-        if (couldHoldScores(column))
-            m_numericColumns.push_back(column.name);
-        if (couldBeSubgroup(column))
-            m_categoryColumns.push_back(column.name);
-    }
     m_loadedPath = path;
     rememberFolderOf(path, FolderUse::Reading);
-    showPreview(previewTable(*table, 20));
-    fillColumnChoices(table->header(), guessColumnRoles(*profile));
-    stale();
+    showColumns(previewTable(*table, 20), *profile);
     return true;
 }
 
@@ -391,6 +432,114 @@ bool ImportDialog::loadOutcomesFile(const QString& path)
     }
     stale();
     return true;
+}
+
+bool ImportDialog::loadDatabase(const QString& database, const QString& query)
+{
+    m_database = database.trimmed().toStdString();
+    m_query = query.trimmed().toStdString();
+    m_file->setText(QString::fromStdString(databaseDisplayName(*m_database)));
+    m_file->setReadOnly(true);
+    m_loadedPath = m_file->text();
+    m_problem->clear();
+    m_auditSummary->clear();
+    m_audit->setAudit({});
+    m_valueLabels->clear();
+    showSourceKind(false);
+    m_sheet->setVisible(false);
+    m_sheetLabel->setVisible(false);
+    if (!loadTypedSource()) {
+        m_loadedPath.clear();
+        return false;
+    }
+    return true;
+}
+
+// Delimiter, decimal comma and a second file belong to delimited text only.
+void ImportDialog::showSourceKind(bool delimited)
+{
+    m_delimiter->setEnabled(delimited);
+    m_decimalComma->setEnabled(delimited);
+    m_twoFiles->setEnabled(delimited);
+    if (!delimited)
+        m_twoFiles->setChecked(false);
+    if (delimited) {
+        m_sheet->setVisible(false);
+        m_sheetLabel->setVisible(false);
+    }
+}
+
+bool ImportDialog::loadTypedSource()
+{
+    const IntakeSettings settings = intakeSettings();
+    m_problem->clear();
+    m_checked.reset();
+    auto table = openTypedSource(settings);
+    if (!table) {
+        showProblem(QString::fromStdString(table.error().message()));
+        return false;
+    }
+    const auto profile = profileColumns(**table, 5000);
+    if (!profile) {
+        showProblem(QString::fromStdString(profile.error().message()));
+        return false;
+    }
+    const auto preview = previewTable(**table, 20);
+    if (!preview) {
+        showProblem(QString::fromStdString(preview.error().message()));
+        return false;
+    }
+    QStringList labels;
+    for (const auto& column : (*table)->columns()) {
+        if (column.labels.empty())
+            continue;
+        QStringList pairs;
+        for (const auto& label : column.labels)
+            pairs << QString::number(label.value, 'g', 15) + QStringLiteral(" = ") + QString::fromStdString(label.label);
+        labels << QStringLiteral("%1: %2").arg(QString::fromStdString(column.name), pairs.join(QStringLiteral(", ")));
+    }
+    m_valueLabels->setText(labels.isEmpty() ? QString()
+                                            : tr("Value labels (the preview shows the labels; a label can be typed as the event value) — %1")
+                                                  .arg(labels.join(QStringLiteral("; "))));
+    showColumns(*preview, *profile);
+    return true;
+}
+
+QStringList ImportDialog::sheetNames() const
+{
+    QStringList out;
+    for (int i = 0; i < m_sheet->count(); ++i)
+        out << m_sheet->itemText(i);
+    return out;
+}
+
+bool ImportDialog::chooseSheet(const QString& sheet)
+{
+    const int index = m_sheet->findText(sheet);
+    if (index < 0)
+        return false;
+    m_sheet->setCurrentIndex(index);
+    return m_problem->text().isEmpty();
+}
+
+QString ImportDialog::valueLabelsText() const
+{
+    return m_valueLabels->text();
+}
+
+void ImportDialog::showColumns(const TablePreview& preview, const TableProfile& profile)
+{
+    m_numericColumns.clear();
+    m_categoryColumns.clear();
+    for (const auto& column : profile.columns) {
+        if (couldHoldScores(column))
+            m_numericColumns.push_back(column.name);
+        if (couldBeSubgroup(column))
+            m_categoryColumns.push_back(column.name);
+    }
+    showPreview(preview);
+    fillColumnChoices(preview.header, guessColumnRoles(profile));
+    stale();
 }
 
 void ImportDialog::showPreview(const TablePreview& preview)
@@ -491,7 +640,14 @@ QStringList ImportDialog::scoreChoices() const
 IntakeSettings ImportDialog::intakeSettings() const
 {
     IntakeSettings s;
-    s.cohortFile = m_file->text().toStdString();
+    if (m_database) {
+        s.database = m_database;
+        s.query = m_query;
+    } else {
+        s.cohortFile = m_file->text().toStdString();
+        if (isSpreadsheetPath(s.cohortFile) && m_sheet->currentIndex() >= 0)
+            s.sheet = m_sheet->currentText().toStdString();
+    }
     if (m_twoFiles->isChecked() && !m_outcomesFile->text().isEmpty()) {
         s.outcomesFile = m_outcomesFile->text().toStdString();
         if (m_outcomesId->currentIndex() >= 0)
@@ -508,8 +664,10 @@ IntakeSettings ImportDialog::intakeSettings() const
         s.eventValue = m_event->text().trimmed().toStdString();
     s.scale = *scaleFromName(m_scale->currentText().toStdString());
     s.scaleGiven = m_scale->currentIndex() != 0;
-    s.delimiter = delimiterChoice();
-    s.decimalComma = m_decimalComma->isChecked();
+    if (!s.database && !isTypedSourcePath(s.cohortFile)) {
+        s.delimiter = delimiterChoice();
+        s.decimalComma = m_decimalComma->isChecked();
+    }
     return s;
 }
 

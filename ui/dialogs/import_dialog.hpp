@@ -1,5 +1,6 @@
 #pragma once
 
+#include "intake/column_roles.hpp"
 #include "intake/delimited_table.hpp"
 #include "intake/input_error.hpp"
 #include "intake/intake.hpp"
@@ -35,6 +36,14 @@ public:
 
     // Reads a file for the preview and the guesses; false (with the message shown) when unusable.
     bool loadFile(const QString& path);
+    // A query's result as the cohort (File → Open from database): previewed, mapped and checked
+    // like a file. The database is named without a password (see core/intake/query_table.hpp).
+    bool loadDatabase(const QString& database, const QString& query);
+    // The workbook's sheets (empty unless a workbook is open) and the one chosen.
+    QStringList sheetNames() const;
+    bool chooseSheet(const QString& sheet);
+    // The value labels of the source's columns as shown under the preview (empty when none).
+    QString valueLabelsText() const;
     bool loadOutcomesFile(const QString& path);
 
     IntakeSettings intakeSettings() const;
@@ -58,10 +67,14 @@ private:
     void fillColumnChoices(const std::vector<std::string>& header, const struct ColumnRoles& roles);
     void refreshScoreChoices(const std::vector<std::string>& wanted);
     void refreshGroupChoices(const std::vector<std::string>& wanted);
-    void showPreview(const struct TablePreview& preview);
+    void showPreview(const TablePreview& preview);
     void showProblem(const QString& text);
     // The file read and split into fields; on failure the problem is shown and nullopt returned.
     std::optional<DelimitedTable> openTable(const QString& path);
+    // A workbook's sheet, a statistical file or a query's result, read for the preview and guesses.
+    bool loadTypedSource();
+    void showSourceKind(bool delimited);
+    void showColumns(const TablePreview& preview, const TableProfile& profile);
     void showIntake(const std::expected<IntakeResult, InputError>& result);
     void startCheck();
     void run();
@@ -75,6 +88,11 @@ private:
     QComboBox* m_outcomesId;
     QComboBox* m_delimiter;
     QCheckBox* m_decimalComma;
+    QLabel* m_sheetLabel;
+    QComboBox* m_sheet;
+    QLabel* m_valueLabels;
+    std::optional<std::string> m_database;
+    std::optional<std::string> m_query;
     QTableWidget* m_preview;
     QComboBox* m_outcome;
     QLineEdit* m_event;

@@ -5,10 +5,37 @@
 #include "main_window.hpp"
 #include "run/validation_task.hpp"
 
+#include <QApplication>
+#include <QElapsedTimer>
 #include <QSignalSpy>
 #include <QString>
+#include <QTimer>
+
+#include <functional>
+#include <memory>
 
 namespace plumbline::testing {
+
+// Runs `drive` on the dialog of type T once it is open and modal; stops looking after a minute,
+// so that a dialog that never opens fails the test instead of hanging it.
+template <typename T>
+void whenOpen(const std::function<void(T*)>& drive)
+{
+    auto* poll = new QTimer;
+    auto started = std::make_shared<QElapsedTimer>();
+    started->start();
+    QObject::connect(poll, &QTimer::timeout, poll, [poll, drive, started] {
+        if (auto* dialog = qobject_cast<T*>(QApplication::activeModalWidget())) {
+            poll->stop();
+            poll->deleteLater();
+            drive(dialog);
+        } else if (started->elapsed() > 60000) {
+            poll->stop();
+            poll->deleteLater();
+        }
+    });
+    poll->start(50);
+}
 
 inline const QString sampleFile = QStringLiteral(PLUMBLINE_SAMPLE_DATA "/readmissions.csv");
 
