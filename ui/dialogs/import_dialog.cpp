@@ -553,7 +553,8 @@ void ImportDialog::showPreview(const TablePreview& preview)
     m_preview->setHorizontalHeaderLabels(header);
     QStringList lines;
     for (std::size_t r = 0; r < preview.rows.size(); ++r) {
-        lines << tr("line %1").arg(preview.lines[r]);
+        lines << (m_database ? tr("result row %1") : isTypedSourcePath(m_loadedPath.toStdString()) ? tr("row %1") : tr("line %1"))
+                     .arg(preview.lines[r]);
         for (std::size_t c = 0; c < preview.rows[r].size() && c < preview.header.size(); ++c)
             m_preview->setItem(int(r), int(c), new QTableWidgetItem(QString::fromStdString(preview.rows[r][c])));
     }

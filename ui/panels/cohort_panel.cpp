@@ -28,7 +28,7 @@ CohortPanel::CohortPanel(QWidget* parent)
     m_warnings->setAccessibleName(tr("Warnings"));
     auto* layout = new QVBoxLayout(this);
     layout->addWidget(m_summary);
-    layout->addWidget(new QLabel(tr("Excluded rows, by reason (first lines of each)")));
+    layout->addWidget(new QLabel(tr("Excluded rows, by reason (where the first of each are)")));
     layout->addWidget(table, 1);
     layout->addWidget(new QLabel(tr("Warnings")));
     layout->addWidget(m_warnings, 1);

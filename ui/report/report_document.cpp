@@ -230,10 +230,19 @@ ReportSection provenanceSection(const AnalysisSnapshot& s)
 {
     ReportSection section{"2. Data provenance", {}, {}, {}, {}, false};
     ReportTable inputs{"inputs", "Input files", {"Role", "File", "SHA-256", "Data rows"}, {}, {}, {}};
-    for (const auto& input : s.inputs)
-        inputs.rows.push_back({textCell(input.role), textCell(std::filesystem::path(input.path).filename().string()),
-                               textCell(input.sha256), {std::to_string(input.rows), double(input.rows), false}});
+    for (const auto& input : s.inputs) {
+        // A query is named by its database's address (not a path); a workbook with its sheet.
+        const std::string source = input.query ? input.path + " (query result)"
+                                               : std::filesystem::path(input.path).filename().string()
+                + (input.sheet ? ", sheet '" + *input.sheet + "'" : std::string());
+        inputs.rows.push_back({textCell(input.role), textCell(source), textCell(input.sha256),
+                               {std::to_string(input.rows), double(input.rows), false}});
+    }
     section.tables.push_back(inputs);
+    for (const auto& input : s.inputs)
+        if (input.query)
+            section.paragraphs.push_back("The cohort is the result of this query (its SHA-256 above is of the result as read: column "
+                                         "names, then every cell's type and value): " + *input.query);
     for (const auto& warning : s.request.inputWarnings)
         section.paragraphs.push_back("Input check: " + warning);
     const IntakeAudit& a = s.audit;
