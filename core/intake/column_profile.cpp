@@ -77,7 +77,7 @@ struct ColumnTally {
     }
 };
 
-ColumnProfile describe(const std::string& name, const ColumnTally& t, std::size_t rows)
+ColumnProfile describe(const std::string& name, const ColumnTally& t, std::size_t rows, const std::string& lineNoun = "line")
 {
     ColumnProfile p;
     p.name = name;
@@ -104,7 +104,7 @@ ColumnProfile describe(const std::string& name, const ColumnTally& t, std::size_
         p.type = "text";
     }
     if (t.numbers > 0 && t.numbers < present && t.numbers >= present / 2) {
-        p.notes.push_back(std::to_string(present - t.numbers) + " values are not numbers (first on line "
+        p.notes.push_back(std::to_string(present - t.numbers) + " values are not numbers (first on " + lineNoun + " "
                           + std::to_string(t.firstTextLine) + ": '" + t.firstText + "')");
     }
     if (t.numbers > 0) {
@@ -171,7 +171,7 @@ std::expected<TableProfile, InputError> profileColumns(TypedTable& table, std::s
     if (!visited)
         return std::unexpected(visited.error());
     for (std::size_t c = 0; c < columns.size(); ++c) {
-        ColumnProfile column = describe(columns[c].name, tallies[c], profile.rows);
+        ColumnProfile column = describe(columns[c].name, tallies[c], profile.rows, table.positionNoun());
         if (!columns[c].labels.empty()) {
             std::string labels;
             for (const auto& label : columns[c].labels)

@@ -104,6 +104,16 @@ before=$(sha256sum "$sample")
 # inspect and the two-file join.
 expect 0 "" -- "$cli" inspect "$sample"
 "$cli" inspect "$sample" | grep -q "readmitted_30d.*binary" && echo "ok: inspect types the outcome" || { echo "FAIL: inspect"; failures=$((failures+1)); }
+# inspect on a Stata file shows the value labels pandas 1.5.3 wrote into the fixture
+# (tests/data/statistical/cohort.dta.json), and on a workbook names the sheet.
+statistical=$(dirname "$0")/../data/statistical
+spreadsheets=$(dirname "$0")/../data/spreadsheets
+"$cli" inspect "$statistical/cohort.dta" | grep -q "died .*binary.*labels: 0 = alive, 1 = died" \
+  && echo "ok: inspect shows a Stata file's value labels" || { echo "FAIL: inspect of a .dta"; failures=$((failures+1)); }
+"$cli" inspect "$spreadsheets/openpyxl_cohort.xlsx" --sheet Notes | grep -q "sheet 'Notes'" \
+  && echo "ok: inspect reads the sheet asked for" || { echo "FAIL: inspect --sheet"; failures=$((failures+1)); }
+expect 2 "sheet" -- "$cli" inspect "$spreadsheets/openpyxl_cohort.xlsx" --sheet "No such sheet"
+expect 2 "nothing to describe" -- "$cli" inspect
 expect 0 "" -- "$cli" validate "$samples/readmission-scores.csv" --outcomes "$samples/readmission-outcomes.csv" \
   --id encounter_id --outcome readmitted_30d --score supplier_score --bootstrap 0 --json "$work/join.json"
 /usr/bin/python3 - "$work/join.json" <<'PY' || failures=$((failures+1))
