@@ -3,6 +3,8 @@
 #include "files/atomic_file.hpp"
 #include "cli_exit.hpp"
 #include "files/cohort_simulator.hpp"
+#include "files/cohort_stata_file.hpp"
+#include "files/cohort_workbook.hpp"
 
 #include <iostream>
 #include <memory>
@@ -17,6 +19,8 @@ struct SimulateOptions {
     std::string out;
     std::string scoresOut;
     std::string outcomesOut;
+    std::string xlsxOut;
+    std::string dtaOut;
 };
 } // namespace
 
@@ -32,9 +36,23 @@ void addSimulateCommand(CLI::App& app, int& exitStatus)
     command->add_option("--out", options->out, "Cohort file to write (scores and outcome in one file)")->required();
     command->add_option("--scores-out", options->scoresOut, "Also write the scores alone, shuffled, with defects");
     command->add_option("--outcomes-out", options->outcomesOut, "Also write the outcomes alone, shuffled, with defects");
+    command->add_option("--xlsx-out", options->xlsxOut, "Also write the cohort as a workbook (sheet 'Cohort'; at most 1,048,575 rows)");
+    command->add_option("--dta-out", options->dtaOut, "Also write the cohort as a Stata file (at most 1,048,575 rows)");
     command->callback([options, &exitStatus] {
         const bool split = !options->scoresOut.empty() || !options->outcomesOut.empty();
-        const SimulatedFiles files = simulateCohort({options->rows, options->seed, options->decimals}, split);
+        const bool typed = !options->xlsxOut.empty() || !options->dtaOut.empty();
+        // The typed copies are built whole before they are written; a worksheet's row limit
+        // bounds them (and their memory) for both formats.
+        if (typed && options->rows > workbookMaxRecords) {
+            InputError error;
+            error.key = options->xlsxOut.empty() ? "--dta-out" : "--xlsx-out";
+            error.value = std::to_string(options->rows) + " rows";
+            error.problem = "a workbook or Stata copy of the cohort holds at most " + std::to_string(workbookMaxRecords) + " rows.";
+            error.remedy = "lower --rows, or write the larger cohort as CSV only (--out).";
+            exitStatus = reportError(error);
+            return;
+        }
+        const SimulatedFiles files = simulateCohort({options->rows, options->seed, options->decimals}, split, typed);
         const std::pair<const std::string*, const std::string*> outputs[] = {
             {&options->out, &files.cohort}, {&options->scoresOut, &files.scores}, {&options->outcomesOut, &files.outcomes}};
         for (const auto& [path, bytes] : outputs) {
@@ -45,6 +63,25 @@ void addSimulateCommand(CLI::App& app, int& exitStatus)
                 return;
             }
             std::cout << "wrote " << *path << '\n';
+        }
+        if (!options->xlsxOut.empty()) {
+            if (auto written = writeCohortWorkbook(files.cells, options->xlsxOut); !written) {
+                exitStatus = reportError(written.error());
+                return;
+            }
+            std::cout << "wrote " << options->xlsxOut << '\n';
+        }
+        if (!options->dtaOut.empty()) {
+            auto bytes = cohortStataFileBytes(files.cells, options->dtaOut);
+            if (!bytes) {
+                exitStatus = reportError(bytes.error());
+                return;
+            }
+            if (auto written = writeFileAtomically(options->dtaOut, *bytes); !written) {
+                exitStatus = reportError(written.error());
+                return;
+            }
+            std::cout << "wrote " << options->dtaOut << '\n';
         }
         exitStatus = Done;
     });

@@ -24,9 +24,12 @@ constexpr int ashford = 2;
 constexpr int medicaid = 1;
 constexpr int daysInPeriod = 731; // 2024-01-01 .. 2025-12-31
 
+constexpr long firstDay = 19723; // 2024-01-01
+
 struct Discharge {
     std::string id;
     std::string date;
+    long day = 0; // of `date`, since 1970-01-01
     int hospital = 0;
     int ageBand = 0;
     bool male = false;
@@ -85,10 +88,10 @@ std::string fixedDigits(double value, int decimals)
 
 Discharge simulateOne(RandomStream& random, std::size_t index, std::size_t rows)
 {
-    constexpr long firstDay = 19723; // 2024-01-01
     Discharge d;
     const long day = static_cast<long>(index * daysInPeriod / rows);
-    d.date = isoDate(firstDay + day);
+    d.day = firstDay + day;
+    d.date = isoDate(d.day);
     char id[32];
     std::snprintf(id, sizeof id, "KB%07zu", index + 1);
     d.id = id;
@@ -146,6 +149,32 @@ std::string cohortRow(const Discharge& d, int decimals)
     row += ',' + std::string(payers[d.payer]);
     row += ',' + d.date;
     return row;
+}
+
+// A risk as the number its written digits stand for, so the cells equal a reading of the CSV.
+CohortCell riskCell(double value, int decimals)
+{
+    const std::string digits = fixedDigits(value, decimals);
+    double written = 0.0;
+    std::from_chars(digits.data(), digits.data() + digits.size(), written);
+    return CohortCell::ofNumber(written);
+}
+
+std::vector<CohortCell> cohortCells(const Discharge& d, int decimals)
+{
+    std::vector<CohortCell> cells;
+    cells.reserve(9);
+    cells.push_back(CohortCell::ofText(d.id));
+    cells.push_back(d.supplierDefect == 2 ? CohortCell::ofText(supplierText(d, decimals))
+                                          : riskCell(d.supplierDefect == 1 ? 1.0 + d.supplier : d.supplier, decimals));
+    cells.push_back(d.localMissing ? CohortCell::missing() : riskCell(d.local, decimals));
+    cells.push_back(d.outcomeMissing ? CohortCell::missing() : CohortCell::ofText(d.readmitted ? "yes" : "no"));
+    cells.push_back(CohortCell::ofText(std::string(hospitals[d.hospital])));
+    cells.push_back(CohortCell::ofText(std::string(ageBands[d.ageBand])));
+    cells.push_back(CohortCell::ofText(d.male ? "M" : "F"));
+    cells.push_back(CohortCell::ofText(std::string(payers[d.payer])));
+    cells.push_back(CohortCell::ofDate(d.day));
+    return cells;
 }
 
 std::string scoresRow(const Discharge& d, int decimals)
@@ -214,18 +243,25 @@ void writeSplitFiles(const std::vector<Discharge>& discharges, int decimals, Ran
 
 } // namespace
 
-SimulatedFiles simulateCohort(const SimulationSettings& settings, bool withSplitFiles)
+SimulatedFiles simulateCohort(const SimulationSettings& settings, bool withSplitFiles, bool withCells)
 {
     RandomStream random(settings.seed, 0);
     std::vector<Discharge> discharges;
     discharges.reserve(settings.rows);
     SimulatedFiles files;
     files.cohort = "encounter_id,supplier_score,local_score,readmitted_30d,hospital,age_band,sex,payer,discharge_date\n";
+    if (withCells) {
+        files.cells.columns = {"encounter_id", "supplier_score", "local_score", "readmitted_30d", "hospital",
+                               "age_band", "sex", "payer", "discharge_date"};
+        files.cells.rows.reserve(settings.rows);
+    }
     files.cohort.reserve(settings.rows * 96);
     for (std::size_t i = 0; i < settings.rows; ++i) {
         Discharge d = simulateOne(random, i, settings.rows);
         files.cohort += cohortRow(d, settings.decimals);
         files.cohort += '\n';
+        if (withCells)
+            files.cells.rows.push_back(cohortCells(d, settings.decimals));
         if (withSplitFiles)
             discharges.push_back(std::move(d));
     }

@@ -1,5 +1,7 @@
 #pragma once
 
+#include "files/cohort_cells.hpp"
+
 #include <cstddef>
 #include <cstdint>
 #include <string>
@@ -16,14 +18,19 @@ struct SimulationSettings {
 };
 
 // The cohort as CSV text and, on request, the same discharges as a shuffled scores file and a
-// shuffled outcomes file with unmatched ids, duplicated ids and malformed rows. Deterministic:
-// the same settings give the same bytes.
+// shuffled outcomes file with unmatched ids, duplicated ids and malformed rows; on request also
+// the cohort as typed cells (for a workbook or a Stata file), cell for cell what a reading of the
+// CSV gives: the risks as the numbers their written digits stand for, `NA` and an empty outcome
+// as missing cells, the date as a date and a damaged score (`#VALUE!`) as text in its score
+// column, so every format carries the same defects. Deterministic: the same settings give the
+// same bytes and cells.
 struct SimulatedFiles {
     std::string cohort;
     std::string scores;
     std::string outcomes;
+    CohortCells cells;
 };
 
-SimulatedFiles simulateCohort(const SimulationSettings& settings, bool withSplitFiles);
+SimulatedFiles simulateCohort(const SimulationSettings& settings, bool withSplitFiles, bool withCells = false);
 
 } // namespace plumbline
