@@ -94,14 +94,15 @@ std::expected<void, InputError> checkSettings(const IntakeSettings& settings)
     return {};
 }
 
-// Reaching here means every row was read but the cohort cannot carry a validation.
-std::expected<void, InputError> checkEnoughRows(const IntakeAudit& audit, const IntakeSettings& settings)
+// Reaching here means every row was read but the cohort cannot carry a validation. The source
+// is named as the staging named it: a query's database has no cohort file.
+std::expected<void, InputError> checkEnoughRows(const IntakeAudit& audit, const IntakeSettings& settings, const std::string& source)
 {
     if (audit.events > 0 && audit.nonEvents > 0)
         return {};
     InputError error;
     error.kind = ErrorKind::ImpossibleAnalysis;
-    error.file = settings.cohortFile;
+    error.file = source;
     error.column = settings.outcomeColumn;
     std::string biggest;
     std::size_t biggestRows = 0;
@@ -181,7 +182,7 @@ std::expected<void, InputError> finishIntake(const IntakeSettings& asked, const 
     if (!cohort)
         return std::unexpected(cohort.error());
     audit.exclusions = exclusions.tallies();
-    if (auto enough = checkEnoughRows(audit, settings); !enough)
+    if (auto enough = checkEnoughRows(audit, settings, sources.cohortFile); !enough)
         return std::unexpected(enough.error());
     result.cohort = std::move(*cohort);
     if (asked.periodColumn) {

@@ -46,6 +46,7 @@ InputError QueryResultTable::error(std::size_t row, std::string problem, std::st
 {
     InputError failure = databaseError(m_displayName, std::move(problem), std::move(remedy));
     failure.line = row;
+    failure.lineNoun = positionNoun(); // "row of the result 7", not "line 7": there are no lines
     return failure;
 }
 

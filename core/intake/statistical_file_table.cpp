@@ -112,6 +112,7 @@ InputError errorIn(const std::string& path, std::size_t position, std::string pr
     InputError error;
     error.file = path;
     error.line = position;
+    error.lineNoun = "row"; // a data file has records, not lines of text
     error.problem = std::move(problem);
     error.remedy = std::move(remedy);
     return error;

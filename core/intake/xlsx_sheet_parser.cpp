@@ -76,6 +76,7 @@ void XlsxSheetParser::badCell(const std::string& problem, const std::string& val
     InputError error;
     error.file = m_file;
     error.line = m_row;
+    error.lineNoun = "row"; // the sheet's own row number, as the spreadsheet program shows it
     error.value = value;
     error.problem = problem;
     error.remedy = "the sheet is damaged or was not written by a spreadsheet program: open it in one and save it again as .xlsx.";

@@ -99,6 +99,7 @@ InputError XlsxTable::cellError(std::size_t row, std::uint32_t column, const std
     InputError error;
     error.file = m_source;
     error.line = row;
+    error.lineNoun = "row"; // the sheet's own row number, as the spreadsheet program shows it
     const bool inTable = column >= m_firstColumn && column - m_firstColumn < m_columns.size();
     error.column = inTable ? m_columns[column - m_firstColumn].name : xlsxCellReference(row, column);
     error.value = value;

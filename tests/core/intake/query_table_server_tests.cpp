@@ -168,7 +168,17 @@ TEST_CASE("A connection ended by the server mid-result is an InputError naming t
     CHECK(seen >= 1000);
     CHECK(seen < 3000000);
     CHECK(done.error().line == seen + 1);
-    CHECK(done.error().message().find("terminating connection due to administrator command") != std::string::npos);
+    // The server sends its reason only when it is not blocked writing rows to us: a backend
+    // that gets pg_terminate_backend's signal while its send buffer is full (we were busy in
+    // the admin query, or the machine is loaded) stops sending and just closes the connection
+    // (PostgreSQL 15 postgres.c, ProcessClientWriteInterrupt), and libpq then reports the
+    // closed connection. Which of the two happens is timing, so either is right; both must say
+    // the row reached and what to do.
+    const std::string message = done.error().message();
+    INFO(message);
+    CHECK((message.find("terminating connection due to administrator command") != std::string::npos
+           || message.find("server closed the connection unexpectedly") != std::string::npos));
+    CHECK(message.find("run again once the server is reachable") != std::string::npos);
     CHECK_FALSE((*table)->fingerprint());
     // Another visit on the dead connection is an error too, not a crash.
     CHECK_FALSE((*table)->forEachRecord([](std::span<const TypedCell>, std::size_t) { return true; }));

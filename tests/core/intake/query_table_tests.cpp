@@ -228,6 +228,7 @@ TEST_CASE("A BLOB cell is an InputError naming the result row and column", "[que
     REQUIRE_FALSE(done);
     CHECK(done.error().line == 3);
     CHECK(done.error().column == "image");
+    CHECK(done.error().message().find(", row of the result 3, column 'image'") != std::string::npos);
     CHECK_FALSE((*table)->fingerprint());
 }
 

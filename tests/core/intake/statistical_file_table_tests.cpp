@@ -200,6 +200,7 @@ TEST_CASE("A file cut inside its rows names the observation reached", "[statisti
     const auto read = readWhole(path);
     REQUIRE_FALSE(read);
     CHECK(read.error().line == 3);
+    CHECK(read.error().message().find(", row 3: ") != std::string::npos);
     CHECK(read.error().problem.find("ends before its last row") != std::string::npos);
 }
 

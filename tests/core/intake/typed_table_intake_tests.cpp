@@ -278,3 +278,20 @@ TEST_CASE("Settings that mix sources are refused with what to do", "[intake][typ
     settings.idColumn = "id";
     CHECK(runIntake(settings).error().problem == "outcomes in a second file can be joined to a delimited text cohort only.");
 }
+
+TEST_CASE("A query's rows that leave nothing to analyse name the database", "[intake][typed]")
+{
+    // Every score a word: the rows are read, all excluded, and the analysis is impossible.
+    MemoryTable table("sqlite:cohort.db", {{"y", {}}, {"p", {}}});
+    for (std::size_t i = 1; i <= 3; ++i)
+        table.addRow({MemoryTable::number(double(i % 2)), MemoryTable::text("high")}, i);
+    auto settings = memorySettings();
+    settings.cohortFile.clear();
+    settings.database = "sqlite:cohort.db";
+    settings.query = "SELECT y, p FROM cohort";
+    const auto result = runIntake(settings, table);
+    REQUIRE_FALSE(result);
+    CHECK(result.error().kind == ErrorKind::ImpossibleAnalysis);
+    CHECK(result.error().file == "sqlite:cohort.db");
+    CHECK(result.error().message().starts_with("sqlite:cohort.db, column 'y': after exclusions 0 of 3 rows remain"));
+}

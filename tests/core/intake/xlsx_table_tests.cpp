@@ -406,13 +406,13 @@ TEST_CASE("xlsx: bad files end in a message, never a crash", "[intake][xlsx]")
         const std::string rows = R"(<row r="2"><c t="inlineStr"><is><t>id</t></is></c></row><row r="5"><c><v>1</v></c></row>)"
                                  R"(<row r="4"><c><v>2</v></c></row>)";
         const std::string message = openFailure(zippedWorkbook("order.xlsx", workbookParts(rows)));
-        CHECK_THAT(message, Catch::Contains("line 4") && Catch::Contains("out of order"));
+        CHECK_THAT(message, Catch::Contains("row 4") && Catch::Contains("out of order"));
     }
     SECTION("a number cell that holds no number")
     {
         const std::string rows = R"(<row r="1"><c t="inlineStr"><is><t>age</t></is></c></row><row r="2"><c r="A2"><v>12x</v></c></row>)";
         const std::string message = openFailure(zippedWorkbook("bad_number.xlsx", workbookParts(rows)));
-        CHECK_THAT(message, Catch::Contains("line 2") && Catch::Contains("column 'age'") && Catch::Contains("value '12x'")
+        CHECK_THAT(message, Catch::Contains("row 2") && Catch::Contains("column 'age'") && Catch::Contains("value '12x'")
                                 && Catch::Contains("cell A2"));
     }
     SECTION("a shared string the table does not hold")
