@@ -5,6 +5,7 @@
 #include "widgets/elided_label.hpp"
 #include "files/atomic_file.hpp"
 #include "dialogs/database_dialog.hpp"
+#include "intake/query_table.hpp"
 #include "dialogs/import_dialog.hpp"
 #include "report/report_writers.hpp"
 #include "files/result_json.hpp"
@@ -62,21 +63,27 @@ void MainWindow::openWithDialog(const QString& path)
 void MainWindow::openFromDatabase()
 {
     DatabaseDialog ask(this);
-    // The address and query of the last database opened (never a password: one is refused).
+    // The address and query of the last database asked for (never a password: one is refused).
     QSettings settings;
     ask.setDatabase(settings.value(QStringLiteral("database/address")).toString());
     ask.setQuery(settings.value(QStringLiteral("database/query")).toString());
-    if (ask.exec() != QDialog::Accepted)
-        return;
-    ImportDialog dialog(this);
-    // A refused address or a failing query is shown in the dialog, with the database's message.
-    if (dialog.loadDatabase(ask.database(), ask.query())) {
-        settings.setValue(QStringLiteral("database/address"), ask.database());
+    for (;;) {
+        if (ask.exec() != QDialog::Accepted)
+            return;
+        settings.setValue(QStringLiteral("database/address"), QString::fromStdString(databaseDisplayName(ask.database().toStdString())));
         settings.setValue(QStringLiteral("database/query"), ask.query());
-    }
-    if (dialog.exec() != QDialog::Accepted)
+        ImportDialog dialog(this);
+        // A refused address or a failing query goes back to the address and the query, as typed,
+        // with the database's own message.
+        if (!dialog.loadDatabase(ask.database(), ask.query())) {
+            QMessageBox::warning(this, tr("The query cannot be read"), dialog.problemText());
+            continue;
+        }
+        if (dialog.exec() != QDialog::Accepted)
+            return;
+        runImported(dialog);
         return;
-    runImported(dialog);
+    }
 }
 
 void MainWindow::runImported(const ImportDialog& dialog)

@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <cctype>
+#include <regex>
 #include <vector>
 
 namespace plumbline {
@@ -21,7 +22,24 @@ std::string lowered(std::string_view text)
     return result;
 }
 
-bool startsWith(const std::string& text, std::string_view prefix) { return text.starts_with(prefix); }
+// Address schemes are compared without regard to case (POSTGRESQL:// is postgresql://).
+bool startsWith(const std::string& text, std::string_view prefix)
+{
+    return text.size() >= prefix.size()
+        && std::equal(prefix.begin(), prefix.end(), text.begin(), [](char a, char b) {
+               return std::tolower(static_cast<unsigned char>(a)) == std::tolower(static_cast<unsigned char>(b));
+           });
+}
+
+// Whatever the address looks like (an unknown scheme, a bare libpq string, a typo), a user:secret@
+// part and a password=… setting are blanked before the address is shown anywhere.
+std::string withoutAnySecret(const std::string& text)
+{
+    static const std::regex userInfo(R"(^([A-Za-z][A-Za-z0-9+.\-]*://[^/:@]*):[^@/]*@)");
+    static const std::regex setting(R"((password|passwd|pwd|sslpassword)(\s*=\s*)("[^"]*"|'[^']*'|\{[^}]*\}|[^;&\s]*))",
+                                    std::regex::icase);
+    return std::regex_replace(std::regex_replace(text, userInfo, "$1:***@"), setting, "$1$2***");
+}
 
 // %XX decoded, as libpq decodes a URI's parameter names (so "pass%77ord" is still a password).
 std::string percentDecoded(std::string_view text)
@@ -171,7 +189,10 @@ InputError addressError(const std::string& database, std::string problem, std::s
 
 } // namespace
 
-std::string secretFreeAddress(const std::string& database)
+namespace {
+
+// The secrets of the address forms Plumbline reads, left out setting by setting.
+std::string knownSecretsLeftOut(const std::string& database)
 {
     if (startsWith(database, "postgresql://") || startsWith(database, "postgres://"))
         return secretFreeUri(database);
@@ -187,13 +208,21 @@ std::string secretFreeAddress(const std::string& database)
     return database;
 }
 
+} // namespace
+
+std::string secretFreeAddress(const std::string& database)
+{
+    return withoutAnySecret(knownSecretsLeftOut(database));
+}
+
+
 std::expected<DatabaseAddress, InputError> readDatabaseAddress(const std::string& database)
 {
     DatabaseAddress address;
     address.displayName = secretFreeAddress(database);
     if (startsWith(database, "postgresql://") || startsWith(database, "postgres://")) {
         address.kind = DatabaseKind::Postgres;
-        address.target = database;
+        address.target = "postgresql" + database.substr(database.find(':')); // libpq knows the scheme in lower case only
     } else if (startsWith(database, "postgresql:") || startsWith(database, "postgres:")) {
         address.kind = DatabaseKind::Postgres;
         address.target = database.substr(database.find(':') + 1);

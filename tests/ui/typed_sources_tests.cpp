@@ -17,6 +17,7 @@
 #include <QJsonObject>
 #include <QLineEdit>
 #include <QMenuBar>
+#include <QMessageBox>
 #include <QPlainTextEdit>
 #include <QProcess>
 #include <QSignalSpy>
@@ -91,6 +92,39 @@ private slots:
         QVERIFY2(!dialog.problemText().contains(QStringLiteral("hunter2")), qPrintable(dialog.problemText()));
     }
 
+    void aFailingQueryGoesBackToTheAddressAndQueryAsTyped()
+    {
+        // Runs first of the two database tests: the store is still empty, the fields too.
+        QTemporaryDir dir;
+        const QString address = QStringLiteral("sqlite:") + dir.filePath(QStringLiteral("absent.db"));
+        const QString query = QStringLiteral("SELEC outcome FROM cohort");
+        MainWindow window;
+        window.show();
+        QAction* open = menuAction(window, QStringLiteral("Open from &database…"));
+        QVERIFY(open);
+        QString shownProblem;
+        QString queryOnReturn;
+        whenOpen<DatabaseDialog>([&](DatabaseDialog* ask) {
+            QTest::keyClicks(ask->findChild<QLineEdit*>(QStringLiteral("databaseAddress")), address);
+            auto* text = ask->findChild<QPlainTextEdit*>(QStringLiteral("databaseQuery"));
+            text->setFocus();
+            QTest::keyClicks(text, query);
+            ask->accept();
+            whenOpen<QMessageBox>([&](QMessageBox* box) {
+                shownProblem = box->text();
+                box->accept();
+                whenOpen<DatabaseDialog>([&](DatabaseDialog* again) {
+                    queryOnReturn = again->query();
+                    again->reject();
+                });
+            });
+        });
+        open->trigger();
+        QVERIFY2(shownProblem.contains(QStringLiteral("absent.db")), qPrintable(shownProblem));
+        QCOMPARE(queryOnReturn, query);
+        QVERIFY(!QFile::exists(dir.filePath(QStringLiteral("absent.db")))); // never created
+    }
+
     void fileOpenFromDatabaseRunsTheQueryAsTheCommandLineDoes()
     {
         QTemporaryDir dir;
@@ -112,10 +146,14 @@ private slots:
         QAction* open = menuAction(window, QStringLiteral("Open from &database…"));
         QVERIFY(open);
         whenOpen<DatabaseDialog>([&](DatabaseDialog* ask) {
+            // The fields hold the last address and query asked for: selected and typed over.
             auto* where = ask->findChild<QLineEdit*>(QStringLiteral("databaseAddress"));
+            where->setFocus();
+            QTest::keyClick(where, Qt::Key_A, Qt::ControlModifier);
             QTest::keyClicks(where, address);
             auto* text = ask->findChild<QPlainTextEdit*>(QStringLiteral("databaseQuery"));
             text->setFocus();
+            QTest::keyClick(text, Qt::Key_A, Qt::ControlModifier);
             QTest::keyClicks(text, query);
             ask->accept();
             whenOpen<ImportDialog>([](ImportDialog* dialog) {

@@ -83,6 +83,8 @@ ImportDialog::ImportDialog(QWidget* parent)
     , m_outcomesId(columnBox())
     , m_delimiter(new QComboBox)
     , m_decimalComma(new QCheckBox(tr("Decimal &comma (0,25)")))
+    , m_fileLabel(new QLabel(tr("Cohort &file:")))
+    , m_browse(plainButton(tr("&Browse…")))
     , m_sheetLabel(new QLabel(tr("S&heet:")))
     , m_sheet(new QComboBox)
     , m_valueLabels(new QLabel)
@@ -188,7 +190,7 @@ ImportDialog::ImportDialog(QWidget* parent)
 
 void ImportDialog::buildLayout()
 {
-    auto* browse = plainButton(tr("&Browse…"));
+    QPushButton* browse = m_browse;
     auto* browseOutcomes = plainButton(tr("Bro&wse…"));
     connect(browse, &QPushButton::clicked, this, [this] {
         const QString path = askOpenLocation(this, tr("Cohort file"), cohortFiles);
@@ -200,7 +202,7 @@ void ImportDialog::buildLayout()
         if (!path.isEmpty())
             loadOutcomesFile(path);
     });
-    auto* fileLabel = new QLabel(tr("Cohort &file:"));
+    QLabel* fileLabel = m_fileLabel;
     fileLabel->setBuddy(m_file);
     auto* fileRow = new QHBoxLayout;
     fileRow->addWidget(fileLabel);
@@ -295,7 +297,8 @@ bool ImportDialog::eventFilter(QObject* watched, QEvent* event)
     // Return in the path box reads the typed file; once it is read, Return runs (the default).
     if (watched == m_file && event->type() == QEvent::KeyPress) {
         const int key = static_cast<QKeyEvent*>(event)->key();
-        if ((key == Qt::Key_Return || key == Qt::Key_Enter) && m_file->text().trimmed() != m_loadedPath) {
+        // A database's address is not a path: it is shown, not read, here.
+        if ((key == Qt::Key_Return || key == Qt::Key_Enter) && !m_database && m_file->text().trimmed() != m_loadedPath) {
             loadFile(m_file->text().trimmed());
             return true;
         }
@@ -359,6 +362,8 @@ std::optional<DelimitedTable> ImportDialog::openTable(const QString& path)
 bool ImportDialog::loadFile(const QString& path)
 {
     m_file->setReadOnly(false);
+    m_fileLabel->setText(tr("Cohort &file:"));
+    m_browse->setVisible(true);
     m_file->setText(path);
     m_database.reset();
     m_query.reset();
@@ -440,6 +445,8 @@ bool ImportDialog::loadDatabase(const QString& database, const QString& query)
     m_query = query.trimmed().toStdString();
     m_file->setText(QString::fromStdString(databaseDisplayName(*m_database)));
     m_file->setReadOnly(true);
+    m_fileLabel->setText(tr("&Database:"));
+    m_browse->setVisible(false);
     m_loadedPath = m_file->text();
     m_problem->clear();
     m_auditSummary->clear();

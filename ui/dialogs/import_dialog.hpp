@@ -88,6 +88,8 @@ private:
     QComboBox* m_outcomesId;
     QComboBox* m_delimiter;
     QCheckBox* m_decimalComma;
+    QLabel* m_fileLabel;
+    QPushButton* m_browse;
     QLabel* m_sheetLabel;
     QComboBox* m_sheet;
     QLabel* m_valueLabels;
