@@ -255,12 +255,13 @@ QWidget* MainWindow::buildCentralArea()
 QWidget* MainWindow::buildOverviewPage()
 {
     auto* welcome = new QLabel(tr("<h2>Validate a risk model on your own patients</h2>"
-                                  "<p>Open a file of scored patients: one row per patient, the outcome (0/1 or yes/no), one "
+                                  "<p>Open a file of scored patients — delimited text, a workbook (.xlsx), or a SAS, Stata or "
+                                  "SPSS file — or a database query's result: one row per patient, the outcome (0/1 or yes/no), one "
                                   "column of predicted risk per model, and optionally an id, sites or other subgroups and a "
                                   "date.</p><p>Plumbline shows the rows it reads, guesses what each column is, accounts for "
                                   "every row, then computes discrimination, calibration, overall accuracy and usefulness at "
                                   "the thresholds your care team will act on, with honest intervals.</p>"
-                                  "<p>File → Open cohort (Ctrl+O), or drop a file on this window. Help → Guide to the window "
+                                  "<p>File → Open cohort (Ctrl+O), File → Open from database, or drop a file on this window. Help → Guide to the window "
                                   "(F1) explains every part.</p>"));
     welcome->setWordWrap(true);
     welcome->setAlignment(Qt::AlignTop | Qt::AlignLeft);

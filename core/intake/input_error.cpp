@@ -22,7 +22,19 @@ std::string InputError::message() const
         append("key '" + printableExcerpt(key, 60) + "'");
     if (!value.empty())
         append("value '" + printableExcerpt(value, 60) + "'");
-    std::string text = where.empty() ? problem : where + ": " + problem;
+    // A database's own message may span lines (PostgreSQL's "LINE 1: …" and its caret) and end
+    // without a full stop: one line, one sentence, before what to do.
+    std::string said;
+    for (const char c : problem) {
+        const char shown = c == '\t' || c == '\n' || c == '\r' ? ' ' : c;
+        if (shown != ' ' || (!said.empty() && said.back() != ' '))
+            said += shown;
+    }
+    while (!said.empty() && said.back() == ' ')
+        said.pop_back();
+    if (!said.empty() && said.back() != '.' && said.back() != '!' && said.back() != '?' && !remedy.empty())
+        said += '.';
+    std::string text = where.empty() ? said : where + ": " + said;
     if (!remedy.empty())
         text += " What to do: " + remedy;
     return text;

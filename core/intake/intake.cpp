@@ -10,6 +10,8 @@
 #include "intake/typed_source.hpp"
 #include "intake/typed_table_intake.hpp"
 #include "intake/written_date.hpp"
+#include "intake/xlsx_table.hpp"
+#include "intake/column_suggest.hpp"
 
 #include <algorithm>
 #include <future>
@@ -129,8 +131,14 @@ std::expected<void, InputError> checkRowsToUse(const IntakeAudit& audit, std::si
     InputError error;
     error.file = file;
     if (audit.rowsRead == 0) {
-        error.problem = "the file has a header row but no data rows.";
-        error.remedy = "choose the file with one row per patient under the header.";
+        if (audit.lineNoun == "row of the result") {
+            error.problem = "the query returned no rows.";
+            error.remedy = "check the query's conditions (dates, joins) against the data, or run it in the database first.";
+        } else {
+            error.problem = audit.lineNoun == "row" ? "the sheet or file has column names but no data rows."
+                                                    : "the file has a header row but no data rows.";
+            error.remedy = "choose the file (or sheet) with one row per patient under the column names.";
+        }
         return std::unexpected(error);
     }
     error.kind = ErrorKind::ImpossibleAnalysis;
@@ -199,6 +207,21 @@ std::expected<void, InputError> finishIntake(const IntakeSettings& asked, const 
     return {};
 }
 
+// Whether a query sorts its result (ORDER BY, any case, any spacing); a rough reading of the text
+// that serves only to warn.
+bool hasOrderBy(const std::string& query)
+{
+    std::string words;
+    for (const char c : lowerAscii(query)) {
+        const bool space = c == ' ' || c == '\t' || c == '\n' || c == '\r';
+        if (!space)
+            words += c;
+        else if (!words.empty() && words.back() != ' ')
+            words += ' ';
+    }
+    return words.find("order by") != std::string::npos;
+}
+
 InputFingerprint delimitedInput(std::string role, std::string path, std::string sha256, std::size_t rows)
 {
     InputFingerprint input;
@@ -253,8 +276,20 @@ std::expected<IntakeResult, InputError> runIntake(const IntakeSettings& asked, T
     IntakeResult result;
     ExclusionCounter exclusions;
     auto staged = stageTypedTable(table, settings, exclusions, result.audit);
-    if (!staged)
-        return std::unexpected(staged.error());
+    if (!staged) {
+        InputError error = staged.error();
+        // A workbook opened at its first sheet may hold the cohort on another one: say which exist.
+        if (const auto sheet = table.sheetName(); sheet && !error.column.empty() && error.problem.starts_with("there is no ")) {
+            if (const auto sheets = xlsxSheetNames(settings.cohortFile); sheets && sheets->size() > 1)
+                error.remedy += " This is sheet '" + *sheet + "' of " + std::to_string(sheets->size()) + ": " + quotedList(*sheets)
+                    + "; choose another with --sheet NAME (the Sheet box in the window).";
+        }
+        return std::unexpected(error);
+    }
+    if (settings.query && !hasOrderBy(*settings.query))
+        result.audit.warnings.push_back("The query has no ORDER BY, so the database may return the rows in another order next time: "
+                                        "the result's SHA-256, the bootstrap's draws and the row numbers would then change although "
+                                        "the data did not. Add ORDER BY a unique key (the encounter id, say) to make the run repeatable.");
     const StagedSources sources{table.sourceName(), table.sourceName()};
     if (auto finished = finishIntake(asked, settings, *staged, sources, false, exclusions, result); !finished)
         return std::unexpected(finished.error());
@@ -267,7 +302,7 @@ std::expected<IntakeResult, InputError> runIntake(const IntakeSettings& asked, T
     input.sha256 = std::move(*fingerprint);
     input.rows = result.audit.rowsRead;
     input.kind = sourceKindName(sourceKindOf(settings));
-    input.sheet = settings.sheet;
+    input.sheet = table.sheetName() ? table.sheetName() : settings.sheet;
     input.query = settings.query;
     result.inputs.push_back(std::move(input));
     giveBackStagingMemory();

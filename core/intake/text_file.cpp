@@ -269,7 +269,9 @@ std::expected<TextFile, InputError> TextFile::checked(TextFile file)
             return std::unexpected(position.error());
         error.line = position->line;
         error.problem = "the file holds binary data (a NUL byte), so it is not a delimited text file.";
-        error.remedy = "export the data as CSV or tab-separated text; spreadsheets (.xlsx) must be saved as CSV first.";
+        error.remedy = "Plumbline reads delimited text, workbooks (.xlsx), SAS, Stata and SPSS files by their extension "
+                       "(.sas7bdat .xpt .dta .sav .zsav) and databases with --database (an SQLite file: --database sqlite:PATH "
+                       "--query \"SELECT …\"); give the file its right extension, or export it as CSV.";
         return std::unexpected(error);
     }
     return file;

@@ -6,6 +6,7 @@
 #include <cstddef>
 #include <expected>
 #include <functional>
+#include <optional>
 #include <span>
 #include <string>
 #include <vector>
@@ -42,6 +43,8 @@ public:
     // How a record's position is called in messages and the audit: "row" or "row of the result".
     virtual std::string positionNoun() const { return "row"; }
     virtual const std::vector<TypedColumn>& columns() const = 0;
+    // A workbook's sheet by its name (even when it was chosen by number); nullopt for other sources.
+    virtual std::optional<std::string> sheetName() const { return std::nullopt; }
 
     // Visits every record. A failure part-way (a truncated file, a dropped connection) is an
     // InputError naming the position reached; rows already visited must then be thrown away.

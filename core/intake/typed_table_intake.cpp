@@ -2,6 +2,7 @@
 
 #include "intake/column_suggest.hpp"
 #include "intake/field_values.hpp"
+#include "intake/outcome_coding.hpp"
 
 #include <algorithm>
 #include <charconv>
@@ -116,11 +117,22 @@ std::expected<std::size_t, InputError> typedColumnIndex(const TypedTable& table,
 
 std::optional<std::string> eventValueAsCode(const TypedTable& table, const IntakeSettings& settings)
 {
-    if (!settings.eventValue)
-        return std::nullopt;
     const auto outcome = typedColumnIndex(table, settings.outcomeColumn, "outcome");
     if (!outcome)
         return settings.eventValue;
+    if (!settings.eventValue) {
+        // Codes labelled as a recognised pair (1 = No, 2 = Yes): the label says which is the event.
+        const auto& labels = table.columns()[*outcome].labels;
+        if (labels.size() != 2)
+            return std::nullopt;
+        std::vector<OutcomeLevel> levels;
+        for (const auto& label : labels)
+            levels.push_back({label.label, lowerAscii(trimmed(label.label)), 1, 0});
+        const auto coding = codeOutcome(levels, std::nullopt, table.sourceName(), settings.outcomeColumn);
+        if (!coding)
+            return std::nullopt;
+        return shortestNumber(labels[coding->eventLevel].value);
+    }
     const std::string wanted = lowerAscii(trimmed(*settings.eventValue));
     for (const auto& label : table.columns()[*outcome].labels)
         if (lowerAscii(trimmed(label.label)) == wanted)

@@ -26,7 +26,8 @@ std::expected<StagedFile, InputError> stageTypedTable(TypedTable& table, const I
                                                       ExclusionCounter& exclusions, IntakeAudit& audit);
 
 // The event value the user gave, turned into the outcome column's code when it names one of the
-// column's value labels (case-insensitively); otherwise as given.
+// column's value labels (case-insensitively); otherwise as given. Without one, an outcome whose
+// two codes are labelled as a recognised pair (No/Yes, False/True) takes the event from its labels.
 std::optional<std::string> eventValueAsCode(const TypedTable& table, const IntakeSettings& settings);
 
 // Index of a column by exact name, or an InputError naming the closest columns.

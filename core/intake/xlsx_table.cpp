@@ -67,6 +67,7 @@ public:
     }
 
     const std::string& sourceName() const override { return m_source; }
+    std::optional<std::string> sheetName() const override { return m_sheet.name; }
     const std::vector<TypedColumn>& columns() const override { return m_columns; }
 
     std::expected<void, InputError> readHeader();

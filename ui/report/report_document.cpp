@@ -241,7 +241,7 @@ ReportSection provenanceSection(const AnalysisSnapshot& s)
     section.tables.push_back(inputs);
     for (const auto& input : s.inputs)
         if (input.query)
-            section.paragraphs.push_back("The cohort is the result of this query (its SHA-256 above is of the result as read: column "
+            section.paragraphs.push_back("The cohort is the result of this query (the SHA-256 in the table of input files is of the result as read: column "
                                          "names, then every cell's type and value): " + *input.query);
     for (const auto& warning : s.request.inputWarnings)
         section.paragraphs.push_back("Input check: " + warning);

@@ -1,4 +1,5 @@
 #include "intake/typed_table_intake.hpp"
+#include "intake/xlsx_table.hpp"
 
 #include "support/intake_test_support.hpp"
 #include "intake/delimited_table.hpp"
@@ -294,4 +295,71 @@ TEST_CASE("A query's rows that leave nothing to analyse name the database", "[in
     CHECK(result.error().kind == ErrorKind::ImpossibleAnalysis);
     CHECK(result.error().file == "sqlite:cohort.db");
     CHECK(result.error().message().starts_with("sqlite:cohort.db, column 'y': after exclusions 0 of 3 rows remain"));
+}
+
+TEST_CASE("A workbook's sheet chosen by number is recorded by name, and a column not on it names the other sheets", "[intake][typed]")
+{
+    // The sheets openpyxl 3.0.9 lists for the fixture (tests/data/spreadsheets/openpyxl_cohort.json).
+    auto settings = memorySettings();
+    settings.cohortFile = std::string(spreadsheetsDir) + "/openpyxl_cohort.xlsx";
+    settings.outcomeColumn = "no such outcome";
+    const auto missing = runIntake(settings);
+    REQUIRE_FALSE(missing);
+    CHECK(missing.error().remedy.find("This is sheet 'Cohort' of 3: 'Cohort', 'Notes' or '2'; choose another with --sheet") != std::string::npos);
+    settings.sheet = "1";
+    auto table = openXlsxTable(settings.cohortFile, settings.sheet);
+    REQUIRE(table);
+    CHECK((*table)->sheetName() == std::optional<std::string>("Cohort"));
+}
+
+TEST_CASE("A query without ORDER BY is warned about: its rows may come back in another order", "[intake][typed]")
+{
+    auto run = [](const std::string& query) {
+        MemoryTable table("query result (sqlite:cohort.db)", {{"y", {}}, {"p", {}}});
+        table.addRow({MemoryTable::number(1), MemoryTable::number(0.8)}, 1);
+        table.addRow({MemoryTable::number(0), MemoryTable::number(0.2)}, 2);
+        auto settings = memorySettings();
+        settings.cohortFile.clear();
+        settings.database = "sqlite:cohort.db";
+        settings.query = query;
+        auto result = runIntake(settings, table);
+        REQUIRE(result);
+        return result->audit.warnings;
+    };
+    const auto unordered = run("SELECT y, p FROM cohort");
+    REQUIRE(unordered.size() == 1);
+    CHECK(unordered[0].starts_with("The query has no ORDER BY"));
+    CHECK(run("SELECT y, p FROM cohort\n  Order\t By id").empty());
+    CHECK(run("SELECT y, p FROM cohort ORDER BY id").empty());
+}
+
+TEST_CASE("Codes labelled as a recognised pair take the event from their labels", "[intake][typed]")
+{
+    // 1 = No, 2 = Yes: codes a delimited file would not recognise (an outside review's case).
+    MemoryTable table("cohort.sav", {{"y", {{1.0, "No"}, {2.0, "Yes"}}}, {"p", {}}});
+    table.addRow({MemoryTable::number(2), MemoryTable::number(0.7)}, 1);
+    table.addRow({MemoryTable::number(1), MemoryTable::number(0.2)}, 2);
+    table.addRow({MemoryTable::number(1), MemoryTable::number(0.3)}, 3);
+    auto settings = memorySettings();
+    settings.cohortFile = "cohort.sav";
+    const auto result = runIntake(settings, table);
+    REQUIRE(result);
+    CHECK(result->cohort.outcome == std::vector<std::uint8_t>{1, 0, 0});
+    CHECK(result->audit.eventValue == "2");
+}
+
+TEST_CASE("A query that returns no rows says so, not that a file has only a header", "[intake][typed]")
+{
+    struct EmptyResult final : MemoryTable {
+        using MemoryTable::MemoryTable;
+        std::string positionNoun() const override { return "row of the result"; }
+    };
+    EmptyResult table("query result (sqlite:cohort.db)", {{"y", {}}, {"p", {}}});
+    auto settings = memorySettings();
+    settings.cohortFile.clear();
+    settings.database = "sqlite:cohort.db";
+    settings.query = "SELECT y, p FROM cohort WHERE 0 ORDER BY y";
+    const auto result = runIntake(settings, table);
+    REQUIRE_FALSE(result);
+    CHECK(result.error().problem == "the query returned no rows.");
 }

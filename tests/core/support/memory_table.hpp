@@ -9,7 +9,7 @@ namespace plumbline::test {
 
 // A typed source held in memory: what a statistical file, a sheet or a query would hand the
 // intake, written out cell by cell in a test. Positions are given per row.
-class MemoryTable final : public TypedTable {
+class MemoryTable : public TypedTable {
 public:
     struct Cell {
         CellKind kind = CellKind::Missing;
