@@ -4,7 +4,7 @@
 #   ./plumbline.sh test    install what is missing, build, run every test (ctest)
 #   ./plumbline.sh bench   install what is missing, build, run the benchmark harness
 #   ./plumbline.sh sanitize   the core and CLI tests on an ASan + UBSan build (part of test)
-#   ./plumbline.sh fuzz [S]   the libFuzzer harnesses, S seconds each (part of test, 60 s)
+#   ./plumbline.sh fuzz [S]   the libFuzzer harnesses, S seconds each (part of test: 45 s each, four harnesses)
 #   ./plumbline.sh mutants [--only ID,...] [--skip RE] [--check]
 #                  mutation score of the tests (not part of test): each mutation of
 #                  tests/mutants/mutations.txt applied in a scratch copy (build-mutants/), rebuilt
@@ -108,7 +108,7 @@ case "$cmd" in
     build
     ctest --test-dir build --output-on-failure --schedule-random -j "$(nproc)"
     sanitize
-    fuzz 60
+    fuzz 45
     ;;
   sanitize)
     install_missing "${BUILD_PACKAGES[@]}" "${TEST_PACKAGES[@]}"
