@@ -1,5 +1,6 @@
 #pragma once
 
+#include "intake/input_error.hpp"
 #include "intake/typed_cell.hpp"
 
 #include <cstdint>
@@ -28,5 +29,16 @@ struct CohortCells {
     std::vector<std::string> columns;
     std::vector<std::vector<CohortCell>> rows;
 };
+
+// Why the cells could not be written to `path` (a column's name or value, or the file itself).
+inline InputError cohortWriteError(const std::string& path, std::string column, std::string problem, std::string remedy)
+{
+    InputError error;
+    error.file = path;
+    error.column = std::move(column);
+    error.problem = std::move(problem);
+    error.remedy = std::move(remedy);
+    return error;
+}
 
 } // namespace plumbline

@@ -80,16 +80,6 @@ struct WriterFree {
     void operator()(readstat_writer_t* writer) const { readstat_writer_free(writer); }
 };
 
-InputError stataError(const std::string& path, std::string column, std::string problem, std::string remedy)
-{
-    InputError error;
-    error.file = path;
-    error.column = std::move(column);
-    error.problem = std::move(problem);
-    error.remedy = std::move(remedy);
-    return error;
-}
-
 } // namespace
 
 std::expected<std::string, InputError> cohortStataFileBytes(const CohortCells& cells, const std::string& path)
@@ -97,7 +87,7 @@ std::expected<std::string, InputError> cohortStataFileBytes(const CohortCells& c
     std::string bytes;
     const std::unique_ptr<readstat_writer_t, WriterFree> writer(readstat_writer_init());
     if (!writer)
-        return std::unexpected(stataError(path, {}, "there is not enough memory to start the Stata file.", "close other programs and try again."));
+        return std::unexpected(cohortWriteError(path, {}, "there is not enough memory to start the Stata file.", "close other programs and try again."));
     readstat_set_data_writer(writer.get(), appendBytes);
     readstat_writer_set_file_format_version(writer.get(), 118);
     readstat_writer_set_file_label(writer.get(), "Invented sample cohort");
@@ -105,7 +95,7 @@ std::expected<std::string, InputError> cohortStataFileBytes(const CohortCells& c
 
     for (const auto& name : cells.columns)
         if (!isStataName(name))
-            return std::unexpected(stataError(path, name, "Stata does not accept this column name.",
+            return std::unexpected(cohortWriteError(path, name, "Stata does not accept this column name.",
                                               "rename the column: at most 32 letters, digits or _, not starting with a digit, and not a word Stata reserves."));
     std::vector<ColumnType> types;
     std::vector<readstat_variable_t*> variables;
@@ -116,7 +106,7 @@ std::expected<std::string, InputError> cohortStataFileBytes(const CohortCells& c
             for (const auto& row : cells.rows)
                 width = std::max(width, cellText(row[c]).size());
         if (width > stataMaxStrWidth)
-            return std::unexpected(stataError(path, cells.columns[c], "a text of " + std::to_string(width) + " bytes is longer than a Stata str column holds (2045).",
+            return std::unexpected(cohortWriteError(path, cells.columns[c], "a text of " + std::to_string(width) + " bytes is longer than a Stata str column holds (2045).",
                                               "shorten the column's texts, or write the cohort as CSV."));
         readstat_variable_t* variable = readstat_add_variable(writer.get(), cells.columns[c].c_str(),
                                                               type == ColumnType::Text ? READSTAT_TYPE_STRING : READSTAT_TYPE_DOUBLE,
@@ -127,7 +117,7 @@ std::expected<std::string, InputError> cohortStataFileBytes(const CohortCells& c
         variables.push_back(variable);
     }
     if (const readstat_error_t begun = readstat_begin_writing_dta(writer.get(), &bytes, long(cells.rows.size())); begun != READSTAT_OK)
-        return std::unexpected(stataError(path, {}, std::string("the Stata file cannot be started (ReadStat: ") + readstat_error_message(begun) + ").",
+        return std::unexpected(cohortWriteError(path, {}, std::string("the Stata file cannot be started (ReadStat: ") + readstat_error_message(begun) + ").",
                                           "give the columns names Stata accepts (letters, digits and _, at most 32 characters)."));
     for (const auto& row : cells.rows) {
         readstat_begin_row(writer.get());
@@ -143,11 +133,11 @@ std::expected<std::string, InputError> cohortStataFileBytes(const CohortCells& c
                 readstat_insert_double_value(writer.get(), variables[c], cell.number);
         }
         if (const readstat_error_t ended = readstat_end_row(writer.get()); ended != READSTAT_OK)
-            return std::unexpected(stataError(path, {}, std::string("a row could not be written (ReadStat: ") + readstat_error_message(ended) + ").",
+            return std::unexpected(cohortWriteError(path, {}, std::string("a row could not be written (ReadStat: ") + readstat_error_message(ended) + ").",
                                               "write the cohort as CSV instead, and report this."));
     }
     if (const readstat_error_t ended = readstat_end_writing(writer.get()); ended != READSTAT_OK)
-        return std::unexpected(stataError(path, {}, std::string("the Stata file could not be finished (ReadStat: ") + readstat_error_message(ended) + ").",
+        return std::unexpected(cohortWriteError(path, {}, std::string("the Stata file could not be finished (ReadStat: ") + readstat_error_message(ended) + ").",
                                           "write the cohort as CSV instead, and report this."));
     return bytes;
 }

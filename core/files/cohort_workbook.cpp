@@ -32,29 +32,19 @@ std::size_t shownWidth(const CohortCell& cell)
     return 0;
 }
 
-InputError writeError(const std::string& path, std::string column, std::string problem, std::string remedy)
-{
-    InputError error;
-    error.file = path;
-    error.column = std::move(column);
-    error.problem = std::move(problem);
-    error.remedy = std::move(remedy);
-    return error;
-}
-
 } // namespace
 
 std::expected<void, InputError> writeCohortWorkbook(const CohortCells& cells, const std::string& path)
 {
     if (cells.rows.size() > workbookMaxRecords)
-        return std::unexpected(writeError(path, {}, "a worksheet holds at most " + std::to_string(workbookMaxRecords) + " rows below its header, and the cohort has " + std::to_string(cells.rows.size()) + ".",
+        return std::unexpected(cohortWriteError(path, {}, "a worksheet holds at most " + std::to_string(workbookMaxRecords) + " rows below its header, and the cohort has " + std::to_string(cells.rows.size()) + ".",
                                              "write fewer rows, or write the cohort as CSV or as a Stata file."));
     // libxlsxwriter writes the whole file on close; it goes to a temporary name first so a
     // failure never leaves half a workbook under the name asked for.
     const std::string temporary = path + ".part-" + std::to_string(::getpid());
     lxw_workbook* workbook = workbook_new(temporary.c_str());
     if (!workbook)
-        return std::unexpected(writeError(path, {}, "the workbook cannot be created.", "check that the folder exists and that you may write to it."));
+        return std::unexpected(cohortWriteError(path, {}, "the workbook cannot be created.", "check that the folder exists and that you may write to it."));
     lxw_doc_properties properties{};
     properties.created = fixedCreationTime;
     workbook_set_properties(workbook, &properties);
@@ -98,14 +88,14 @@ std::expected<void, InputError> writeCohortWorkbook(const CohortCells& cells, co
 
     if (const lxw_error closed = workbook_close(workbook); closed != LXW_NO_ERROR) {
         std::remove(temporary.c_str());
-        return std::unexpected(writeError(path, {}, std::string("the workbook could not be written (") + lxw_strerror(closed) + ").",
+        return std::unexpected(cohortWriteError(path, {}, std::string("the workbook could not be written (") + lxw_strerror(closed) + ").",
                                              "check the folder and the free space; nothing was overwritten."));
     }
     std::error_code renameError;
     std::filesystem::rename(temporary, path, renameError);
     if (renameError) {
         std::remove(temporary.c_str());
-        return std::unexpected(writeError(path, {}, "the finished workbook could not be moved into place (" + renameError.message() + ").",
+        return std::unexpected(cohortWriteError(path, {}, "the finished workbook could not be moved into place (" + renameError.message() + ").",
                                              "check that the target is not a folder and that you may replace it."));
     }
     return {};
