@@ -1,5 +1,6 @@
 #include "intake/xlsx_table.hpp"
 
+#include "intake/field_values.hpp"
 #include "intake/read_only_file.hpp"
 #include "intake/sha256_stream.hpp"
 #include "intake/xlsx_archive.hpp"
@@ -233,7 +234,8 @@ std::expected<std::string, InputError> XlsxTable::fingerprint() const
     return digest.hexDigest();
 }
 
-// The sheet the user asked for, by name first and then by number.
+// The sheet the user asked for, by name first (exactly, then in any case: a spreadsheet program
+// allows no two sheets that differ in case only) and then by number.
 std::expected<std::size_t, InputError> chosenSheet(const std::string& path, const XlsxWorkbook& workbook,
                                                    const std::optional<std::string>& sheet)
 {
@@ -242,6 +244,10 @@ std::expected<std::size_t, InputError> chosenSheet(const std::string& path, cons
         return std::size_t{0};
     for (std::size_t i = 0; i < sheets.size(); ++i) {
         if (sheets[i].name == *sheet)
+            return i;
+    }
+    for (std::size_t i = 0; i < sheets.size(); ++i) {
+        if (lowerAscii(sheets[i].name) == lowerAscii(*sheet))
             return i;
     }
     std::size_t number = 0;

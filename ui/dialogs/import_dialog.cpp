@@ -364,6 +364,7 @@ bool ImportDialog::loadFile(const QString& path)
     m_file->setReadOnly(false);
     m_fileLabel->setText(tr("Cohort &file:"));
     m_browse->setVisible(true);
+    m_file->setToolTip(QString());
     m_file->setText(path);
     m_database.reset();
     m_query.reset();
@@ -447,6 +448,7 @@ bool ImportDialog::loadDatabase(const QString& database, const QString& query)
     m_file->setReadOnly(true);
     m_fileLabel->setText(tr("&Database:"));
     m_browse->setVisible(false);
+    m_file->setToolTip(tr("The cohort is this query's result:\n%1").arg(query.trimmed()));
     m_loadedPath = m_file->text();
     m_problem->clear();
     m_auditSummary->clear();

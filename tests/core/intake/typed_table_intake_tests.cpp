@@ -310,6 +310,10 @@ TEST_CASE("A workbook's sheet chosen by number is recorded by name, and a column
     auto table = openXlsxTable(settings.cohortFile, settings.sheet);
     REQUIRE(table);
     CHECK((*table)->sheetName() == std::optional<std::string>("Cohort"));
+    // A spreadsheet program allows no two sheets differing in case only: "notes" is 'Notes'.
+    auto anyCase = openXlsxTable(settings.cohortFile, std::optional<std::string>("nOTES"));
+    REQUIRE(anyCase);
+    CHECK((*anyCase)->sheetName() == std::optional<std::string>("Notes"));
 }
 
 TEST_CASE("A query without ORDER BY is warned about: its rows may come back in another order", "[intake][typed]")
