@@ -1,8 +1,9 @@
 #include "intake/statistical_file_table.hpp"
 
+#include "intake/file_fingerprint.hpp"
+
 #include "intake/read_only_file.hpp"
 #include "intake/readstat_file_io.hpp"
-#include "intake/sha256_stream.hpp"
 #include "intake/utf8_text.hpp"
 
 #include <readstat.h>
@@ -461,20 +462,7 @@ std::expected<void, InputError> StatisticalFileTable::forEachRecord(const Visit&
 
 std::expected<std::string, InputError> StatisticalFileTable::fingerprint() const
 {
-    auto file = ReadOnlyFile::open(m_path);
-    if (!file)
-        return std::unexpected(errorIn(m_path, 0, "the file cannot be opened: " + file.error() + ".", "check the path and that you may read the file."));
-    Sha256Stream digest;
-    std::vector<char> block(std::size_t{1} << 20);
-    for (std::size_t offset = 0;;) {
-        const auto got = file->readAt(offset, block.data(), block.size());
-        if (!got)
-            return std::unexpected(errorIn(m_path, 0, "the file cannot be read: " + got.error() + ".", "check the file and its disk."));
-        digest.update(std::string_view(block.data(), *got));
-        if (*got < block.size())
-            return digest.hexDigest();
-        offset += *got;
-    }
+    return fileFingerprint(m_path);
 }
 
 } // namespace plumbline

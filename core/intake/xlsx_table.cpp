@@ -1,8 +1,8 @@
 #include "intake/xlsx_table.hpp"
 
 #include "intake/field_values.hpp"
+#include "intake/file_fingerprint.hpp"
 #include "intake/read_only_file.hpp"
-#include "intake/sha256_stream.hpp"
 #include "intake/xlsx_archive.hpp"
 #include "intake/xlsx_cell_values.hpp"
 #include "intake/xlsx_sheet_parser.hpp"
@@ -210,28 +210,7 @@ std::vector<std::string> XlsxTable::warnings() const
 
 std::expected<std::string, InputError> XlsxTable::fingerprint() const
 {
-    auto unreadable = [this](const std::string& why) {
-        InputError error;
-        error.file = m_path;
-        error.problem = "the workbook cannot be read again to fingerprint it: " + why + ".";
-        error.remedy = "check that the file is still there and readable.";
-        return error;
-    };
-    const auto file = ReadOnlyFile::open(m_path);
-    if (!file)
-        return std::unexpected(unreadable(file.error()));
-    Sha256Stream digest;
-    std::vector<char> block(1 << 20);
-    for (std::size_t offset = 0;;) {
-        const auto got = file->readAt(offset, block.data(), block.size());
-        if (!got)
-            return std::unexpected(unreadable(got.error()));
-        if (*got == 0)
-            break;
-        digest.update(std::string_view(block.data(), *got));
-        offset += *got;
-    }
-    return digest.hexDigest();
+    return fileFingerprint(m_path);
 }
 
 // The sheet the user asked for, by name first (exactly, then in any case: a spreadsheet program
