@@ -2,6 +2,7 @@
 
 #include "files/atomic_file.hpp"
 #include "files/settings_check.hpp"
+#include "intake/field_values.hpp"
 #include "intake/file_fingerprint.hpp"
 #include "intake/text_file.hpp"
 
@@ -29,6 +30,11 @@ std::string relativeTo(const std::string& file, const fs::path& folder)
     return error || relative.empty() ? absolute.generic_string() : relative.generic_string();
 }
 
+bool isSqliteAddress(const std::string& database)
+{
+    return database.size() > 7 && lowerAscii(database.substr(0, 7)) == "sqlite:";
+}
+
 std::string fileHash(const std::string& path)
 {
     return fileFingerprint(path).value_or(std::string());
@@ -48,7 +54,10 @@ std::expected<void, InputError> saveAnalysisFile(const std::string& path, const 
     Json inputs = Json::array();
     if (a.intake.database) {
         // The URI was refused at intake if it held a password, so it is safe to store.
-        inputs.push_back({{"role", "cohort"}, {"database", *a.intake.database}, {"query", a.intake.query.value_or("")},
+        // An SQLite file is an input file like any other: stored relative to the analysis file.
+        const std::string database = isSqliteAddress(*a.intake.database)
+            ? "sqlite:" + relativeTo(a.intake.database->substr(7), folder) : *a.intake.database;
+        inputs.push_back({{"role", "cohort"}, {"database", database}, {"query", a.intake.query.value_or("")},
                           {"sha256", a.queryResultSha256}});
     } else {
         Json cohort = {{"role", "cohort"}, {"path", relativeTo(a.intake.cohortFile, folder)}, {"sha256", fileHash(a.intake.cohortFile)}};
@@ -274,6 +283,9 @@ AnalysisFile readAnalysis(const Json& json, const std::string& path, std::vector
             input.refuse("role", role, "appears twice.");
         if (role == "cohort" && inputs[k].contains("database")) {
             a.intake.database = input.text("database", "");
+            if (isSqliteAddress(*a.intake.database))
+                a.intake.database = "sqlite:" + inputPath("inputs[" + std::to_string(k) + "].database", a.intake.database->substr(7),
+                                                          folder, reading, path);
             a.intake.query = input.text("query", "");
             if (a.intake.database->empty() || a.intake.query->empty())
                 input.refuse("query", {}, "a database input needs both the database and the query.");

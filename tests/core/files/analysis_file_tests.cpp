@@ -162,3 +162,36 @@ TEST_CASE("A missing fingerprint is a warning and strict reading refuses a chang
     CHECK(strict.error().message().find("--strict-inputs") != std::string::npos);
     fs::remove_all(dir);
 }
+
+TEST_CASE("A query's SQLite file is found relative to the analysis file, and a result that changed is said", "[analysis]")
+{
+    const fs::path dir = scratch("sqlite");
+    std::ofstream(dir / "data" / "cohort.db") << "stands for the database file";
+    AnalysisFile a = analysisOf(dir);
+    a.intake.cohortFile.clear();
+    a.intake.database = "sqlite:" + (dir / "data" / "cohort.db").string();
+    a.intake.query = "SELECT y, p FROM cohort ORDER BY id";
+    a.queryResultSha256 = std::string(64, 'b');
+    REQUIRE(saveAnalysisFile((dir / "q.plumbline.json").string(), a));
+    std::ifstream saved(dir / "q.plumbline.json");
+    const std::string text((std::istreambuf_iterator<char>(saved)), std::istreambuf_iterator<char>());
+    CHECK(text.find("\"sqlite:data/cohort.db\"") != std::string::npos);
+    // Moved with its data, the analysis still finds the database (an outside try found it read
+    // relative to the working folder instead).
+    const fs::path moved = fs::temp_directory_path() / "plumbline-analysis-sqlite-moved";
+    fs::remove_all(moved);
+    fs::rename(dir, moved);
+    std::vector<std::string> warnings;
+    const auto b = loadAnalysisFile((moved / "q.plumbline.json").string(), warnings);
+    REQUIRE(b);
+    REQUIRE(b->intake.database);
+    REQUIRE(b->intake.database->starts_with("sqlite:"));
+    CHECK(fs::equivalent(b->intake.database->substr(7), moved / "data" / "cohort.db"));
+    CHECK(b->intake.query == a.intake.query);
+    CHECK(b->intake.cohortFile.empty());
+    CHECK_FALSE(queryResultChange(*b, std::string(64, 'b')));
+    const auto changed = queryResultChange(*b, std::string(64, 'c'));
+    REQUIRE(changed);
+    CHECK(changed->starts_with("The query's result has changed since the analysis was saved"));
+    fs::remove_all(moved);
+}
