@@ -2,6 +2,7 @@
 // Open with a typed path, the sheet box, the value labels under the preview, and File → Open from
 // database with an address and a query, each from a fresh settings store.
 #include "dialogs/database_dialog.hpp"
+#include "files/analysis_file.hpp"
 #include "dialogs/import_dialog.hpp"
 #include "main_window.hpp"
 #include "metrics/panel_keys.hpp"
@@ -189,6 +190,17 @@ private slots:
         QCOMPARE(*snapshot.validation.models[0].metrics[CStatistic].estimate.value, c);
         QCOMPARE(result[QStringLiteral("inputs")].toArray()[0][QStringLiteral("sha256")].toString().toStdString(),
                  snapshot.inputs.front().sha256);
+
+        // Save analysis keeps the query and its result's SHA-256, and finds the database again.
+        const QString saved = dir.filePath(QStringLiteral("query.plumbline.json"));
+        QString problem;
+        QVERIFY2(window.saveAnalysis(saved, &problem), qPrintable(problem));
+        std::vector<std::string> warnings;
+        const auto analysis = loadAnalysisFile(saved.toStdString(), warnings);
+        QVERIFY(analysis);
+        QCOMPARE(analysis->intake.query, std::optional<std::string>(query.toStdString()));
+        QCOMPARE(analysis->queryResultSha256, snapshot.inputs.front().sha256);
+        QVERIFY(warnings.empty());
     }
 };
 
