@@ -12,19 +12,27 @@ namespace plumbline {
 
 namespace {
 
-constexpr std::array<std::string_view, 3> hospitals{"Harbour General", "Millbrook Community", "Ashford Regional"};
-constexpr std::array<double, 3> hospitalShare{0.45, 0.35, 0.20};
+constexpr std::array<std::string_view, 5> hospitals{"Harbour General", "Millbrook Community", "Ashford Regional",
+                                                   "Linnet Hill Memorial", "Saltmarsh District"};
+constexpr std::array<double, 5> hospitalShare{0.34, 0.26, 0.16, 0.12, 0.12};
 constexpr std::array<std::string_view, 5> ageBands{"18-44", "45-64", "65-74", "75-84", "85+"};
 constexpr std::array<double, 5> ageShare{0.15, 0.28, 0.22, 0.22, 0.13};
 constexpr std::array<double, 5> ageEffect{-0.35, -0.10, 0.05, 0.20, 0.35};
 constexpr std::array<std::string_view, 4> payers{"Medicare", "Medicaid", "Commercial", "Self-pay"};
 constexpr std::array<double, 4> payerShareOlder{0.85, 0.04, 0.10, 0.01};
 constexpr std::array<double, 4> payerShareYounger{0.08, 0.29, 0.55, 0.08};
+constexpr int millbrook = 1;
 constexpr int ashford = 2;
+constexpr int linnetHill = 3;
+constexpr int saltmarsh = 4;
 constexpr int medicaid = 1;
 constexpr int daysInPeriod = 731; // 2024-01-01 .. 2025-12-31
 
 constexpr long firstDay = 19723; // 2024-01-01
+// The patterns the monitoring should find (sample-data/README.md), as days since 2024-01-01.
+constexpr long codingShiftFrom = 547;        // 2025-07-01: Linnet Hill codes the supplier's inputs more fully
+constexpr long disruptionFrom = 456;         // 2025-04-01: Saltmarsh's discharge process is disrupted ...
+constexpr long disruptionUntil = 578;        // ... until 2025-08-01 (exclusive), after which it recovers
 
 struct Discharge {
     std::string id;
@@ -89,7 +97,7 @@ std::string fixedDigits(double value, int decimals)
 Discharge simulateOne(RandomStream& random, std::size_t index, std::size_t rows)
 {
     Discharge d;
-    const long day = static_cast<long>(index * daysInPeriod / rows);
+    const long day = static_cast<long>(index * daysInPeriod / rows); // since 2024-01-01
     d.day = firstDay + day;
     d.date = isoDate(d.day);
     char id[32];
@@ -106,15 +114,31 @@ Discharge simulateOne(RandomStream& random, std::size_t index, std::size_t rows)
     const double month = 12.0 * double(day) / 365.25;
     const double programme = month < 12.0 ? 0.0 : -0.30 * std::min(1.0, (month - 11.0) / 3.0);
     const double demographic = ageEffect[d.ageBand] + (d.male ? 0.10 : 0.0);
-    const double truth = -2.05 + 0.95 * burden + demographic + (d.payer == medicaid ? 0.45 : 0.0)
-        + (d.hospital == 1 ? 0.05 : d.hospital == ashford ? -0.05 : 0.0) + programme;
+    // Saltmarsh's catchment is a little healthier than the scores assume.
+    const double siteEffect = d.hospital == millbrook ? 0.05 : d.hospital == ashford ? -0.05 : d.hospital == saltmarsh ? -0.10 : 0.0;
+    // Saltmarsh's disruption: for four months the programme's benefit is lost there and the odds
+    // of readmission are more than doubled, to about twice what either score predicts there.
+    const bool disrupted = d.hospital == saltmarsh && day >= disruptionFrom && day < disruptionUntil;
+    const double disruption = disrupted ? -programme + 0.85 : 0.0;
+    const double truth = -2.07 + 0.95 * burden + demographic + (d.payer == medicaid ? 0.45 : 0.0) + siteEffect
+        + programme + disruption;
     d.readmitted = random.uniform() < expit(truth);
 
     // Supplier: developed on a higher-risk population (intercept too high), sees the burden
     // well; Ashford's coding spreads its scores out (too extreme there).
-    double supplier = -1.70 + 0.95 * (burden + 0.40 * random.normal()) + demographic;
+    // Saltmarsh's records carry the burden less fully and less of it: there the supplier
+    // discriminates a little less and, unlike at the other sites, is calibrated on average
+    // (the site whose calibration differs).
+    const double supplierNoise = d.hospital == saltmarsh ? 0.50 : 0.40;
+    double supplier = -1.70 + 0.95 * (burden + supplierNoise * random.normal()) + demographic;
     if (d.hospital == ashford)
         supplier = -1.55 + 1.7 * (supplier + 1.55);
+    if (d.hospital == saltmarsh)
+        supplier -= 0.40;
+    // From July 2025 Linnet Hill codes the supplier's inputs more fully: its predicted odds rise
+    // by a quarter while the true risk does not change.
+    if (d.hospital == linnetHill && day >= codingShiftFrom)
+        supplier += std::log(1.25);
     d.supplier = expit(supplier);
     // Local refit on year-one data: calibrated on average then, but sees the burden through
     // noisier local fields (less discriminating) and knows nothing of the programme.

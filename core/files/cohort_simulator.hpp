@@ -8,7 +8,7 @@
 
 namespace plumbline {
 
-// The invented demo scenario (see sample-data/README.md): three hospitals of one network,
+// The invented demo scenario (see sample-data/README.md): five hospitals of one network,
 // 24 months of discharges, a supplier's 30-day readmission score and a locally refitted score,
 // with built-in truths the workbench should reveal and a few data-entry defects for the audit.
 struct SimulationSettings {
