@@ -142,7 +142,8 @@ expect 0 "" -- "$cli" validate "$sample" --outcome readmitted_30d --score suppli
 import json, sys
 r = json.load(open(sys.argv[1]))
 levels = {s["level"] for s in r["subgroups"]}
-assert levels == {"Ashford Regional", "Harbour General", "Millbrook Community"}, levels
+assert levels == {"Ashford Regional", "Harbour General", "Linnet Hill Memorial", "Millbrook Community",
+                  "Saltmarsh District"}, levels
 assert [p["period"] for p in r["periods"]][:2] == ["2024-Q1", "2024-Q2"]
 assert len(r["models"][0]["net_benefit"]) == 46
 print("ok: subgroups, periods and net benefit in the JSON")
