@@ -96,6 +96,10 @@ for label, part in {"others 2024": others[others["date"].dt.year == 2024],
                     "others 2025-07..12": others[others["month"] >= "2025-07"]}.items():
     print(f"  {label}: mean supplier {part['supplier_score'].mean():.4f}, observed {part['y'].mean():.4f}")
 
+print("\nthe whole network by quarter: mean supplier risk, observed rate")
+for quarter, part in frame.groupby(frame["date"].dt.to_period("Q")):
+    print(f"  {quarter}: mean supplier {part['supplier_score'].mean():.4f}, observed {part['y'].mean():.4f}")
+
 print("\nSaltmarsh District: observed odds / predicted odds (offset logistic, 95% CI) by window")
 salt = frame[frame["hospital"] == "Saltmarsh District"].sort_index()
 windows = {"2024-01..2025-03": salt[salt["month"] <= "2025-03"],
