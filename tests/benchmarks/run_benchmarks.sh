@@ -114,7 +114,7 @@ replicate_cost() {
   awk -v a="$(sed -E 's/.*cpu_s=([0-9.]+).*/\1/' <<<"$short")" -v b="$(sed -E 's/.*cpu_s=([0-9.]+).*/\1/' <<<"$long")" \
     'BEGIN { printf "%.1f %.2f\n", (b - a) / 200 * 1000, a - 20 * (b - a) / 200 }'
 }
-echo "== continuous risks: 1,000,000 rows written with 6 decimals (about 448,000 distinct risks)"
+echo "== continuous risks: 1,000,000 rows written with 6 decimals (about 440,000 distinct risks)"
 medium="$work/cohort-1m-6dp.csv"
 if [[ ! -f $medium ]]; then
   "$build/app/plumbline-cli" simulate --rows 1000000 --seed 7 --decimals 6 --out "$medium" >/dev/null
