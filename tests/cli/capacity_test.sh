@@ -23,7 +23,7 @@ run() { # run NAME -- command... (stdout to NAME.out)
 }
 run share -- "$cli" validate "$sample" --outcome readmitted_30d "${scores[@]}" --capacity 10% --json "$work/share.json"
 run rate -- "$cli" validate "$sample" --outcome readmitted_30d "${scores[@]}" --capacity 40/week --period discharge_date \
-  --json "$work/rate.json"
+  --json "$work/rate.json" --csv-dir "$work/rate-tables"
 run quarter -- "$cli" validate "$sample" --outcome readmitted_30d "${scores[@]}" --capacity 160/month --period discharge_date \
   --period-unit quarter --json "$work/quarter.json"
 
@@ -119,6 +119,15 @@ def rate_checks(path, per_unit, unit_days, quarter):
     return r
 
 rate = rate_checks(f"{work}/rate.json", 40, 7, False)
+# The report's capacity table holds the same counts where it prints them (the small-cell rule
+# may suppress a period's; the whole cohort's are large).
+import csv
+with open(f"{work}/rate-tables/capacity.csv", newline="", encoding="utf-8") as f:
+    printed = list(csv.DictReader(f))
+check(len(printed) == len(rate["capacity"]["models"]) + len(rate["capacity"]["periods"]), "capacity table rows")
+for row in rate["capacity"]["models"]:
+    line = next(p for p in printed if p["Model"] == row["model"] and p["Period"] == "all patients")
+    check(line["TP"] == str(row["tp"]) and line["Flagged"] == str(row["flagged"]), f"report table: {row['model']} counts")
 rate_checks(f"{work}/quarter.json", 160, 365.25 / 12, True)
 if failures:
     print("FAIL: " + "\n  ".join(failures[:20]))
