@@ -1,5 +1,7 @@
 #include "cli_capacity_report.hpp"
 
+#include "reporting/cautions.hpp"
+
 #include <cstdio>
 #include <iomanip>
 #include <string>
@@ -42,6 +44,7 @@ void printCapacity(std::ostream& out, const ValidationResult& result)
             << withInterval(r.ppv) << '\n'
             << "    net benefit " << fixed(r.netBenefit, 4) << ", events reached per 100 flagged " << fixed(r.eventsPer100Flagged, 1) << '\n';
     }
+    out << "  note: " << capacityCaution << '\n';
     if (c.periods.empty())
         return;
     out << "  Per " << (c.periodUnit == PeriodUnit::Month ? "month" : "quarter")

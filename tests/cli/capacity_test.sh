@@ -137,6 +137,7 @@ PY
 
 # The printed summary says the capacity, the rule and, per period, the overflow column.
 grep -q "^Capacity 10% (flagged if risk >= threshold" "$work/share.out" || { echo "FAIL: no capacity line in the summary"; failures=$((failures+1)); }
+grep -q "note: A threshold chosen to flag a capacity" "$work/share.out" || { echo "FAIL: no capacity caution in the summary"; failures=$((failures+1)); }
 grep -q "whole-cohort threshold" "$work/rate.out" || { echo "FAIL: no per-period capacity table"; failures=$((failures+1)); }
 
 expect_refusal() { # expect_refusal "needle" -- capacity arguments...

@@ -1,6 +1,7 @@
 #include "panels/threshold_panel.hpp"
 
 #include "analyses/panel_settings.hpp"
+#include "reporting/cautions.hpp"
 
 #include <QComboBox>
 #include <QDoubleSpinBox>
@@ -55,6 +56,7 @@ ThresholdPanel::ThresholdPanel(QWidget* parent)
     m_capacity->setPlaceholderText(tr("e.g. 10% or 40/week"));
     m_capacity->setMaximumWidth(110);
     m_capacityModel->setAccessibleName(tr("Model of the capacity box"));
+    m_capacityModel->setSizeAdjustPolicy(QComboBox::AdjustToContents); // a model's name in full
     m_capacityModel->setToolTip(tr("The model whose flagged patients the capacity box counts"));
     row->addWidget(capacityLabel);
     row->addWidget(m_capacity);
@@ -103,7 +105,7 @@ void ThresholdPanel::showCapacity()
     m_capacityNote->setText(tr("flags %1 of %2")
                                 .arg(QLocale().toString(qulonglong(lookup.flaggedAt(std::size_t(model), m_threshold))))
                                 .arg(QLocale().toString(qulonglong(lookup.patients))));
-    m_capacityNote->setToolTip(QString());
+    m_capacityNote->setToolTip(QString::fromUtf8(capacityCaution.data(), qsizetype(capacityCaution.size())));
 }
 
 // A typed capacity moves the threshold; a text that is not one says why and moves nothing.

@@ -1,5 +1,6 @@
 #include "report/capacity_report_table.hpp"
 
+#include "reporting/cautions.hpp"
 #include "reporting/value_text.hpp"
 
 #include <map>
@@ -91,7 +92,7 @@ std::optional<ReportTable> capacityTable(const ValidationResult& v, const Disclo
                 addRow(p, true);
     }
     table.note = c.definition + " When patients are tied at the threshold it flags more than the capacity; the tied column says how "
-                 "many share its risk. Counts of 1 to " + std::to_string(minimumCell - 1) + " are suppressed with what is built on them.";
+                 "many share its risk. Counts of 1 to " + std::to_string(minimumCell - 1) + " are suppressed with what is built on them. " + std::string(capacityCaution);
     return table;
 }
 

@@ -7,6 +7,7 @@
 
 #include "analyses/capacity_analysis.hpp"
 #include "panels/threshold_panel.hpp"
+#include "reporting/cautions.hpp"
 
 #include <QComboBox>
 #include <QLabel>
@@ -84,6 +85,8 @@ private slots:
         QCOMPARE(moved, step(t, 1));
         const double share = std::round(1000.0 * double(flaggedAt(cohort, 0, moved)) / n) / 10.0;
         QCOMPARE(box->text(), QString::fromStdString(capacityText({CapacitySpec::Kind::Share, share})));
+        // The caution about a threshold fitted to past volume is beside the box.
+        QCOMPARE(panel->capacityNote()->toolTip(), QString::fromUtf8(capacityCaution.data(), qsizetype(capacityCaution.size())));
         // The second model: the box counts its patients.
         panel->capacityModel()->setFocus();
         QTest::keyClick(panel->capacityModel(), Qt::Key_Down);
