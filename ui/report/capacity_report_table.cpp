@@ -37,8 +37,8 @@ std::optional<ReportTable> capacityTable(const ValidationResult& v, const Disclo
     const CapacityAnalysis& c = *v.capacity;
     const std::size_t minimumCell = plan.minimumCell;
     ReportTable table{"capacity", "Operating by capacity: " + c.text + " (flagged if risk >= threshold, highest risk first)",
-                      {"Model", "Period", "Capacity", "Threshold", "Flagged", "Tied at threshold", "TP", "FP", "TN", "FN", "Sensitivity",
-                       "Specificity", "PPV", "Events per 100 flagged", "Net benefit", "Flagged by the whole-cohort threshold"},
+                      {"Model", "Period", "Capacity", "Threshold", "Flagged", "Tied at it", "TP", "FP", "TN", "FN", "Sensitivity",
+                       "Specificity", "PPV", "Events per 100 flagged", "Net benefit", "Whole-cohort threshold flags"},
                       {}, {}, {}};
     // Periods the report suppresses elsewhere (their patients or events), by model and period.
     std::map<std::pair<std::string, std::string>, bool> periodHidden;
@@ -91,7 +91,7 @@ std::optional<ReportTable> capacityTable(const ValidationResult& v, const Disclo
             if (p.model == r.model)
                 addRow(p, true);
     }
-    table.note = c.definition + " When patients are tied at the threshold it flags more than the capacity; the tied column says how "
+    table.note = c.definition + " When patients are tied at the threshold it flags more than the capacity; the column 'Tied at it' says how "
                  "many share its risk. Counts of 1 to " + std::to_string(minimumCell - 1) + " are suppressed with what is built on them. " + std::string(capacityCaution);
     return table;
 }
