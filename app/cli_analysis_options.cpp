@@ -78,6 +78,7 @@ std::expected<AnalysisFile, InputError> AnalysisOptions::resolved(const CLI::App
         if (given("--decision-range")) { p.decisionFrom = panelGiven->decisionFrom; p.decisionTo = panelGiven->decisionTo; p.decisionStep = panelGiven->decisionStep; }
         if (given("--period-unit")) p.periodUnit = panelGiven->periodUnit;
         if (given("--date-format")) p.dateFormat = panelGiven->dateFormat;
+        if (given("--capacity")) p.capacity = panelGiven->capacity;
         BootstrapSettings& b = out.bootstrap;
         if (given("--bootstrap")) b.replicates = bootstrapGiven.replicates;
         if (given("--seed")) b.seed = bootstrapGiven.seed;

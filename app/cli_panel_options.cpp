@@ -36,6 +36,9 @@ void PanelOptions::addTo(CLI::App& command)
     command.add_option("--period-unit", periodUnit, "Periods of --period: month or quarter")->check(CLI::IsMember({"month", "quarter"}));
     command.add_option("--date-format", dateFormat, "Dates of --period: iso (YYYY-MM-DD), dmy (DD/MM/YYYY) or mdy (MM/DD/YYYY)")
         ->check(CLI::IsMember({"iso", "dmy", "mdy"}));
+    command.add_option("--capacity", capacity,
+                       "Patients the team can act on: a share (10%) or a number per day, week or month (40/week, needs --period); "
+                       "gives the threshold that flags that many");
 }
 
 std::expected<PanelSettings, InputError> PanelOptions::resolved() const
@@ -65,6 +68,12 @@ std::expected<PanelSettings, InputError> PanelOptions::resolved() const
         settings.dateFormat = DateFormat::DayFirst;
     else if (dateFormat == "mdy")
         settings.dateFormat = DateFormat::MonthFirst;
+    if (!capacity.empty()) {
+        const auto spec = parseCapacity(capacity, "--capacity");
+        if (!spec)
+            return std::unexpected(spec.error());
+        settings.capacity = *spec;
+    }
     return settings;
 }
 

@@ -359,6 +359,7 @@ void MainWindow::showSnapshot(SnapshotPointer snapshot, bool complete)
         [this] { m_periods->setSnapshot(m_snapshot); },
         [this] {
             rebuildModelToggles();
+            m_threshold->setSnapshot(m_snapshot);
             setThreshold(m_threshold->threshold());
         },
     };

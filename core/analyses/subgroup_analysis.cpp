@@ -106,11 +106,14 @@ SubgroupAnalysis analyseSubgroups(const Cohort& cohort, const PanelSettings& set
             // The levels' runs need only their orders.
             std::vector<std::uint32_t>().swap(indexInLevel);
         }
+        // A capacity belongs to the whole cohort (its team, its dates): levels run without it.
+        PanelSettings levelSettings = settings;
+        levelSettings.capacity.reset();
         onTwoThreads(codes.size(), [&](std::size_t i) {
             const Cohort level = levelCohort(cohort, column, codes[i]);
             runs[i].rows = level.rows();
             runs[i].events = level.events();
-            runs[i].result = runValidation(level, settings, 1, std::move(levelOrders[codes[i]]));
+            runs[i].result = runValidation(level, levelSettings, 1, std::move(levelOrders[codes[i]]));
             for (const auto& model : level.models)
                 runs[i].expected.push_back(std::accumulate(model.values.begin(), model.values.end(), 0.0));
         });

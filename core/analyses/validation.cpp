@@ -88,6 +88,15 @@ ValidationResult runValidation(const Cohort& cohort, const PanelSettings& settin
         else
             periodProblem = "No view over time: " + periods.error().message();
     }
+    // Operating by capacity: the threshold that flags what the team can take, per model and period.
+    std::string capacityProblem;
+    if (settings.capacity) {
+        if (auto capacity = analyseCapacity(cohort, *settings.capacity, orders, settings.confidence, settings.binomialInterval,
+                                            settings.dateFormat, settings.periodUnit))
+            result.capacity = std::move(*capacity);
+        else
+            capacityProblem = "No capacity threshold: " + capacity.error().message();
+    }
     // Achieved precision beside the widths commonly aimed at (Riley et al. 2021 examples; from memory).
     for (const auto& model : result.models)
         for (const auto& [metric, target] : {std::pair<PanelMetric, double>{CStatistic, 0.1}, {OeRatio, 0.2}, {CalibrationSlope, 0.2}}) {
@@ -98,6 +107,10 @@ ValidationResult runValidation(const Cohort& cohort, const PanelSettings& settin
     result.warnings = cohortWarnings(cohort);
     if (!periodProblem.empty())
         result.warnings.push_back(periodProblem);
+    if (!capacityProblem.empty())
+        result.warnings.push_back(capacityProblem);
+    if (result.capacity)
+        result.warnings.insert(result.warnings.end(), result.capacity->warnings.begin(), result.capacity->warnings.end());
     if (result.periods)
         result.warnings.insert(result.warnings.end(), result.periods->warnings.begin(), result.periods->warnings.end());
     for (const auto& model : result.models)

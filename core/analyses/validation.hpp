@@ -2,6 +2,7 @@
 
 #include "intake/cohort.hpp"
 #include "analyses/model_comparison.hpp"
+#include "analyses/capacity_analysis.hpp"
 #include "analyses/model_validation.hpp"
 #include "analyses/subgroup_results.hpp"
 #include "analyses/panel_settings.hpp"
@@ -22,6 +23,7 @@ struct ValidationResult {
     std::optional<BootstrapSummary> bootstrap; // empty when intervals are analytic only
     std::optional<SubgroupAnalysis> subgroups; // when the cohort has group columns
     std::optional<PeriodAnalysis> periods;     // when the cohort has a period column
+    std::optional<CapacityAnalysis> capacity;  // when settings.capacity is given
     struct PrecisionRow {
         std::string model, metric;
         double width = 0.0, target = 0.0; // achieved interval width against a common target

@@ -97,7 +97,8 @@ std::expected<void, InputError> saveAnalysisFile(const std::string& path, const 
                        {"ci_method", std::string(bootstrapCiName(a.bootstrap.method))},
                        {"stratified_bootstrap", a.bootstrap.stratified},
                        {"add_updated", a.addUpdated},
-                       {"minimum_cell", a.minimumCell}};
+                       {"minimum_cell", a.minimumCell},
+                       {"capacity", a.panel.capacity ? Json(capacityText(*a.panel.capacity)) : Json(nullptr)}};
     json["report"] = {{"title", a.report.title}, {"model", a.report.model}, {"outcome", a.report.outcome},
                       {"population", a.report.population}, {"period", a.report.period}, {"notes", a.report.notes}};
     return writeFileAtomically(path, json.dump(2) + "\n");
@@ -365,6 +366,12 @@ AnalysisFile readAnalysis(const Json& json, const std::string& path, std::vector
     a.addUpdated = o.choice("add_updated", "", {"", "intercept", "logistic", "closed-test"});
     a.minimumCell = o.count("minimum_cell", a.minimumCell);
     a.panel.minimumCell = a.minimumCell;
+    if (const auto capacity = o.optionalText("capacity")) {
+        const auto spec = parseCapacity(*capacity, "the capacity");
+        if (!spec)
+            o.refuse("capacity", *capacity, spec.error().problem, spec.error().remedy);
+        a.panel.capacity = *spec;
+    }
     if (json.contains("report")) {
         const FieldReader t(top.object("report"), "report", path);
         a.report = {t.text("title", ""), t.text("model", ""), t.text("outcome", ""), t.text("population", ""), t.text("period", ""), t.text("notes", "")};

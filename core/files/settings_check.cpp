@@ -8,7 +8,7 @@ namespace plumbline {
 namespace {
 
 enum class Setting { Confidence, RiskGroups, Thresholds, NriCuts, DecisionRange, DecisionThreshold, Replicates, MinimumCell,
-                     AddUpdated, Threads, MaxLineBytes };
+                     AddUpdated, Threads, MaxLineBytes, Capacity };
 
 struct SettingName {
     const char* commandLine;
@@ -30,6 +30,7 @@ SettingName nameOf(Setting setting)
     case Setting::AddUpdated: return {"--add-updated", "options.add_updated", "Add updated models"};
     case Setting::Threads: return {"--threads", "options.threads", "Threads"};
     case Setting::MaxLineBytes: return {"--max-line-length", "reading.max_line_bytes", "Longest line"};
+    case Setting::Capacity: return {"--capacity", "options.capacity", "Capacity"};
     }
     return {"", "", ""};
 }
@@ -134,6 +135,17 @@ std::expected<void, InputError> checkAnalysisSettings(const AnalysisFile& a, Set
                             "give e.g. 11 (a common small-cell rule).");
     if (!a.addUpdated.empty() && a.addUpdated != "intercept" && a.addUpdated != "logistic" && a.addUpdated != "closed-test")
         return check.refuse(Setting::AddUpdated, a.addUpdated, "must be intercept, logistic or closed-test.", "give one of them, or leave it out.");
+    if (const auto& c = a.panel.capacity) {
+        const bool share = c->kind == CapacitySpec::Kind::Share;
+        if (share && !(std::isfinite(c->amount) && c->amount > 0.0 && c->amount <= 100.0))
+            return check.refuse(Setting::Capacity, capacityText(*c), "is a share of the patients and must lie above 0% and at most 100%.", "give e.g. 10%.");
+        if (!share && !(std::isfinite(c->amount) && c->amount > 0.0 && c->amount <= maxCapacityRate))
+            return check.refuse(Setting::Capacity, capacityText(*c), "must be a number of patients above 0 (at most 1e9) per day, week or month.", "give e.g. 40/week.");
+        // A rate becomes a number of patients only over the cohort's dates.
+        if (!share && !a.intake.periodColumn)
+            return check.refuse(Setting::Capacity, capacityText(*c), "counts patients per unit of time and needs the cohort's dates.",
+                                "name a date column with --period (Settings → Period column in the window), or give a share such as 10%.");
+    }
     if (a.intake.maxLineBytes < L::minLineBytes || a.intake.maxLineBytes > L::maxLineBytes)
         return check.refuse(Setting::MaxLineBytes, std::to_string(a.intake.maxLineBytes), "must lie between 1024 and 1073741824 bytes.",
                             "give e.g. 1048576 (1 MB, the default).");

@@ -1,4 +1,5 @@
 #include "files/validation_json.hpp"
+#include "files/capacity_json.hpp"
 
 #include "resampling/interval_choice.hpp"
 
@@ -273,6 +274,7 @@ void addUsefulnessFairnessDriftJson(Json& json, const ValidationResult& result)
         precision.push_back({{"model", p.model}, {"metric", p.metric}, {"interval_width", p.width}, {"common_target", p.target},
                              {"meets_target", p.width <= p.target}});
     json["precision"] = precision;
+    json["capacity"] = capacityJson(result.capacity);
 }
 
 Json numberOrNull(const std::optional<double>& value)

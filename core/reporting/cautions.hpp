@@ -12,4 +12,9 @@ inline constexpr std::array<std::string_view, 3> standardCautions{
     "Follow local policy and regulation on the use of risk models in patient care.",
 };
 
+// Said wherever a capacity threshold is shown (CLI, window, report): it was fitted to past volume.
+inline constexpr std::string_view capacityCaution =
+    "A threshold chosen to flag a capacity on past patients flags a different number when volume or case mix changes: "
+    "watch the number flagged each period against what the team can take.";
+
 } // namespace plumbline

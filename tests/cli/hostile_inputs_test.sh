@@ -73,7 +73,7 @@ edit many 'a["options"]["thresholds"] = [0.2] * 5000000'
 expect 2 "" -- "$cli" validate --settings "$work/inputs/many.plumbline.json"
 for case in 'confidence=0' 'confidence=-0.95' 'confidence=2' 'risk_groups=-5' 'risk_groups=0' 'thresholds=[-1]' \
             'thresholds=[2]' 'thresholds=[1e308]' 'bootstrap=2.5' 'bootstrap=-1' 'ci_method="bogus"' \
-            'minimum_cell=0' 'decision_threshold=7'; do
+            'minimum_cell=0' 'decision_threshold=7' 'capacity="101%"' 'capacity="40/fortnight"' 'capacity=7' 'capacity="-5/week"'; do
   key=${case%%=*}; value=${case#*=}
   edit bad "a['options']['$key'] = $value"
   expect 2 "key 'options.$key'" -- "$cli" validate --settings "$work/inputs/bad.plumbline.json"

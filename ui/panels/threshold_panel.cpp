@@ -1,10 +1,14 @@
 #include "panels/threshold_panel.hpp"
 
 #include "analyses/panel_settings.hpp"
+#include "reporting/cautions.hpp"
 
+#include <QComboBox>
 #include <QDoubleSpinBox>
 #include <QHBoxLayout>
 #include <QLabel>
+#include <QLineEdit>
+#include <QLocale>
 #include <QSignalBlocker>
 #include <QSlider>
 
@@ -21,6 +25,9 @@ ThresholdPanel::ThresholdPanel(QWidget* parent)
     : QWidget(parent)
     , m_slider(new QSlider(Qt::Horizontal))
     , m_spin(new QDoubleSpinBox)
+    , m_capacityModel(new QComboBox)
+    , m_capacity(new QLineEdit)
+    , m_capacityNote(new QLabel)
 {
     m_slider->setRange(0, steps);
     m_slider->setSingleStep(1);
@@ -40,9 +47,91 @@ ThresholdPanel::ThresholdPanel(QWidget* parent)
     row->addWidget(label);
     row->addWidget(m_slider, 1);
     row->addWidget(m_spin);
+    // The capacity box: what the threshold means for a team that works to a number of patients.
+    auto* capacityLabel = new QLabel(tr("Ca&pacity:"));
+    capacityLabel->setBuddy(m_capacity);
+    m_capacity->setAccessibleName(tr("Capacity"));
+    m_capacity->setToolTip(tr("Patients flagged at the threshold. Type a capacity (10% of patients, or 40/week, 8/day, "
+                              "160/month with dates) and press Return to move the threshold to the one that flags at most that many"));
+    m_capacity->setPlaceholderText(tr("e.g. 10% or 40/week"));
+    m_capacity->setMaximumWidth(110);
+    m_capacityModel->setAccessibleName(tr("Model of the capacity box"));
+    m_capacityModel->setSizeAdjustPolicy(QComboBox::AdjustToContents); // a model's name in full
+    m_capacityModel->setToolTip(tr("The model whose flagged patients the capacity box counts"));
+    row->addWidget(capacityLabel);
+    row->addWidget(m_capacity);
+    row->addWidget(m_capacityModel);
+    row->addWidget(m_capacityNote);
+    for (QWidget* w : std::initializer_list<QWidget*>{m_capacity, m_capacityModel, m_capacityNote})
+        w->setEnabled(false); // until a result arrives
     connect(m_slider, &QSlider::valueChanged, this, [this](int value) { setThreshold(double(value) / steps); });
     connect(m_spin, &QDoubleSpinBox::valueChanged, this, [this](double value) { setThreshold(value); });
+    connect(m_capacity, &QLineEdit::returnPressed, this, &ThresholdPanel::applyCapacity);
+    connect(m_capacityModel, &QComboBox::currentIndexChanged, this, [this] { showCapacity(); });
     setThreshold(PanelSettings{}.decisionThreshold);
+}
+
+void ThresholdPanel::setSnapshot(SnapshotPointer snapshot)
+{
+    m_snapshot = std::move(snapshot);
+    const int kept = m_capacityModel->currentIndex();
+    {
+        const QSignalBlocker block(m_capacityModel);
+        m_capacityModel->clear();
+        if (m_snapshot)
+            for (const auto& name : m_snapshot->capacity.models)
+                m_capacityModel->addItem(QString::fromStdString(name));
+        m_capacityModel->setCurrentIndex(kept >= 0 && kept < m_capacityModel->count() ? kept : 0);
+    }
+    const bool usable = m_snapshot && !m_snapshot->capacity.models.empty();
+    m_capacity->setEnabled(usable);
+    m_capacityModel->setEnabled(usable);
+    m_capacityNote->setEnabled(usable);
+    showCapacity();
+}
+
+// The box follows the threshold: a look-up in the snapshot, never a computation here.
+void ThresholdPanel::showCapacity()
+{
+    const int model = m_capacityModel->currentIndex();
+    if (!m_snapshot || model < 0 || std::size_t(model) >= m_snapshot->capacity.models.size()) {
+        m_capacity->clear();
+        m_capacityNote->clear();
+        return;
+    }
+    const CapacityLookup& lookup = m_snapshot->capacity;
+    const QSignalBlocker block(m_capacity);
+    m_capacity->setText(QString::fromStdString(capacityText(lookup.capacityAt(std::size_t(model), m_threshold))));
+    m_capacityNote->setText(tr("flags %1 of %2")
+                                .arg(QLocale().toString(qulonglong(lookup.flaggedAt(std::size_t(model), m_threshold))))
+                                .arg(QLocale().toString(qulonglong(lookup.patients))));
+    m_capacityNote->setToolTip(QString::fromUtf8(capacityCaution.data(), qsizetype(capacityCaution.size())));
+}
+
+// A typed capacity moves the threshold; a text that is not one says why and moves nothing.
+void ThresholdPanel::applyCapacity()
+{
+    const int model = m_capacityModel->currentIndex();
+    if (!m_snapshot || model < 0)
+        return;
+    const auto spec = parseCapacity(m_capacity->text().toStdString(), "The capacity");
+    if (!spec) {
+        m_capacityNote->setText(tr("not a capacity"));
+        m_capacityNote->setToolTip(QString::fromStdString(spec.error().message()));
+        return;
+    }
+    const CapacityLookup& lookup = m_snapshot->capacity;
+    const auto allowed = lookup.patientsAllowed(*spec);
+    if (!allowed) {
+        m_capacityNote->setText(tr("needs dates"));
+        m_capacityNote->setToolTip(tr("A capacity per day, week or month needs the cohort's dates: choose a period column "
+                                      "in Settings, or type a share such as 10%."));
+        return;
+    }
+    const double before = m_threshold;
+    setThreshold(lookup.thresholdFor(std::size_t(model), *allowed));
+    if (m_threshold == before)
+        showCapacity(); // no change of threshold: still show what it flags
 }
 
 void ThresholdPanel::setThreshold(double value)
@@ -57,8 +146,10 @@ void ThresholdPanel::setThreshold(double value)
         m_spin->setValue(snapped);
     }
     m_threshold = snapped;
-    if (changed)
+    if (changed) {
+        showCapacity();
         emit thresholdChanged(snapped);
+    }
 }
 
 } // namespace plumbline

@@ -1,4 +1,5 @@
 #include "report/report_document.hpp"
+#include "report/capacity_report_table.hpp"
 
 #include "reporting/cautions.hpp"
 #include "reporting/decision_summary.hpp"
@@ -395,6 +396,8 @@ ReportSection resultsSection(const AnalysisSnapshot& s, const ValidationResult& 
                                        numberCell(t.netBenefitTreatAll, 4)});
         }
     section.tables.push_back(thresholds);
+    if (auto capacity = capacityTable(v, plan))
+        section.tables.push_back(std::move(*capacity));
     ReportTable decision{"net_benefit", "Decision curve: net benefit by threshold (treat none = 0)",
                          {"Model", "Threshold", "Net benefit", "Interval", "Treat all", "Standardised", "Net reduction per 100"}, {}, {}, {}};
     for (std::size_t k = 0; k < v.models.size(); ++k)

@@ -4,6 +4,7 @@
 #include "intake/intake.hpp"
 #include "analyses/model_updating.hpp"
 #include "analyses/validation.hpp"
+#include "analyses/capacity_lookup.hpp"
 
 #include <QMetaType>
 
@@ -20,6 +21,7 @@ struct AnalysisSnapshot {
     std::vector<InputFingerprint> inputs;
     ValidationResult validation;
     std::vector<ModelUpdate> updates; // models updated on these data and added to the validation
+    CapacityLookup capacity;          // flagged patients per model along the slider's grid, and the date span
 };
 
 using SnapshotPointer = std::shared_ptr<const AnalysisSnapshot>;

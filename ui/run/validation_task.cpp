@@ -73,6 +73,7 @@ void ValidationTask::run(AnalysisRequest request, std::stop_token stop, unsigned
         snapshot->request = request;
         snapshot->updates = addUpdatedModels(intake->cohort, request.addUpdated);
         snapshot->validation = runValidation(intake->cohort, request.panel);
+        snapshot->capacity = capacityLookup(snapshot->validation, intake->cohort, request.panel.dateFormat);
         snapshot->audit = intake->audit;
         snapshot->audit.warnings.insert(snapshot->audit.warnings.begin(), request.inputWarnings.begin(), request.inputWarnings.end());
         snapshot->cohort = std::make_shared<const Cohort>(std::move(intake->cohort));
