@@ -66,6 +66,7 @@ std::expected<AnalysisFile, InputError> AnalysisOptions::resolved(const CLI::App
         if (given("--decimal-comma")) i.decimalComma = g.decimalComma;
         if (given("--group")) i.groupColumns = g.groupColumns;
         if (given("--period")) i.periodColumn = g.periodColumn;
+        if (given("--cluster")) i.clusterColumn = g.clusterColumn;
         if (given("--max-line-length")) i.maxLineBytes = g.maxLineBytes;
         PanelSettings& p = out.panel;
         if (given("--thresholds")) p.thresholds = panelGiven->thresholds;

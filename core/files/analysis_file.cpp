@@ -76,6 +76,7 @@ std::expected<void, InputError> saveAnalysisFile(const std::string& path, const 
                        {"outcomes_id", optional(a.intake.outcomesIdColumn)},
                        {"groups", a.intake.groupColumns},
                        {"period", optional(a.intake.periodColumn)},
+                       {"cluster", optional(a.intake.clusterColumn)},
                        {"event", optional(a.intake.eventValue)}};
     json["reading"] = {{"scale", std::string(scaleName(a.intake.scale))},
                        {"scale_given", a.intake.scaleGiven},
@@ -328,6 +329,7 @@ AnalysisFile readAnalysis(const Json& json, const std::string& path, std::vector
     a.intake.idColumn = columns.optionalText("id");
     a.intake.outcomesIdColumn = columns.optionalText("outcomes_id");
     a.intake.periodColumn = columns.optionalText("period");
+    a.intake.clusterColumn = columns.optionalText("cluster");
     a.intake.eventValue = columns.optionalText("event");
     const FieldReader read(top.object("reading"), "reading", path);
     a.intake.scale = *scaleFromName(read.choice("scale", "probability", {"probability", "percent", "logit", "points"}));

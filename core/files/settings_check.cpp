@@ -1,5 +1,6 @@
 #include "files/settings_check.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 
@@ -8,7 +9,7 @@ namespace plumbline {
 namespace {
 
 enum class Setting { Confidence, RiskGroups, Thresholds, NriCuts, DecisionRange, DecisionThreshold, Replicates, MinimumCell,
-                     AddUpdated, Threads, MaxLineBytes };
+                     AddUpdated, Threads, MaxLineBytes, Cluster };
 
 struct SettingName {
     const char* commandLine;
@@ -30,6 +31,7 @@ SettingName nameOf(Setting setting)
     case Setting::AddUpdated: return {"--add-updated", "options.add_updated", "Add updated models"};
     case Setting::Threads: return {"--threads", "options.threads", "Threads"};
     case Setting::MaxLineBytes: return {"--max-line-length", "reading.max_line_bytes", "Longest line"};
+    case Setting::Cluster: return {"--cluster", "columns.cluster", "Site column"};
     }
     return {"", "", ""};
 }
@@ -137,6 +139,14 @@ std::expected<void, InputError> checkAnalysisSettings(const AnalysisFile& a, Set
     if (a.intake.maxLineBytes < L::minLineBytes || a.intake.maxLineBytes > L::maxLineBytes)
         return check.refuse(Setting::MaxLineBytes, std::to_string(a.intake.maxLineBytes), "must lie between 1024 and 1073741824 bytes.",
                             "give e.g. 1048576 (1 MB, the default).");
+    if (const auto& cluster = a.intake.clusterColumn) {
+        if (cluster->empty())
+            return check.refuse(Setting::Cluster, "", "names no column.", "give the column that holds each row's site, e.g. hospital.");
+        const auto& scores = a.intake.scoreColumns;
+        if (*cluster == a.intake.outcomeColumn || std::find(scores.begin(), scores.end(), *cluster) != scores.end())
+            return check.refuse(Setting::Cluster, *cluster, "names the outcome or a score column, which cannot be a site.",
+                                "give the column that holds each row's site, e.g. hospital.");
+    }
     return {};
 }
 

@@ -53,3 +53,19 @@ TEST_CASE("Every setting out of its range is refused naming it where it was give
     a.addUpdated = "bogus";
     CHECK(refusal(a).find("--add-updated") != std::string::npos);
 }
+
+TEST_CASE("A site column that is empty or the outcome or a score is refused", "[settings][cluster]")
+{
+    AnalysisFile a;
+    a.intake.outcomeColumn = "y";
+    a.intake.scoreColumns = {"p"};
+    a.intake.clusterColumn = std::string("hospital");
+    CHECK(refusal(a).empty());
+    a.intake.clusterColumn = std::string();
+    CHECK(refusal(a).find("--cluster names no column") != std::string::npos);
+    CHECK(refusal(a, SettingsSource::AnalysisFile).find("key 'columns.cluster'") != std::string::npos);
+    a.intake.clusterColumn = std::string("p");
+    CHECK(refusal(a).find("--cluster names the outcome or a score column") != std::string::npos);
+    a.intake.clusterColumn = std::string("y");
+    CHECK(refusal(a, SettingsSource::Window).find("Site column: names the outcome") != std::string::npos);
+}
