@@ -79,6 +79,7 @@ std::expected<AnalysisFile, InputError> AnalysisOptions::resolved(const CLI::App
         if (given("--decision-range")) { p.decisionFrom = panelGiven->decisionFrom; p.decisionTo = panelGiven->decisionTo; p.decisionStep = panelGiven->decisionStep; }
         if (given("--period-unit")) p.periodUnit = panelGiven->periodUnit;
         if (given("--date-format")) p.dateFormat = panelGiven->dateFormat;
+        if (given("--acceptable")) p.acceptable = panelGiven->acceptable;
         BootstrapSettings& b = out.bootstrap;
         if (given("--bootstrap")) b.replicates = bootstrapGiven.replicates;
         if (given("--seed")) b.seed = bootstrapGiven.seed;
@@ -89,6 +90,7 @@ std::expected<AnalysisFile, InputError> AnalysisOptions::resolved(const CLI::App
     if (settingsFile.empty() || given("--add-updated")) out.addUpdated = addUpdated;
     if (settingsFile.empty() || given("--min-cell")) out.minimumCell = minimumCell;
     out.panel.minimumCell = out.minimumCell;
+    out.panel.simulationSeed = out.bootstrap.seed; // the draws for a new site's acceptability
     auto text = [&](const char* option, const std::string& value, std::string& field) {
         if (settingsFile.empty() || given(option))
             field = value;

@@ -26,6 +26,7 @@ struct PanelOptions {
     std::string decisionRange;
     std::string periodUnit;
     std::string dateFormat;
+    std::string acceptable;
 
     void addTo(CLI::App& command);
     std::expected<PanelSettings, InputError> resolved() const;

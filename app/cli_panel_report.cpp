@@ -1,5 +1,6 @@
 #include "cli_panel_report.hpp"
 
+#include "cli_site_pooling_report.hpp"
 #include "metrics/metric_reading.hpp"
 #include "reporting/value_text.hpp"
 
@@ -247,6 +248,7 @@ void printPanel(std::ostream& out, const ValidationResult& result)
     printDecisionCurves(out, result);
     printSubgroups(out, result);
     printPeriods(out, result);
+    printSitePooling(out, result);
     printPrecision(out, result);
     if (!result.warnings.empty()) {
         out << "\nWarnings:\n";

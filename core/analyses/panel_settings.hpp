@@ -1,10 +1,12 @@
 #pragma once
 
+#include "intake/acceptable_criteria.hpp"
 #include "metrics/discrimination.hpp"
 #include "metrics/estimate.hpp"
 #include "analyses/period_analysis.hpp"
 
 #include <cstddef>
+#include <cstdint>
 #include <optional>
 #include <vector>
 
@@ -25,6 +27,8 @@ struct PanelSettings {
     std::size_t minimumCell = 11;                  // subgroup levels below this are flagged too small
     PeriodUnit periodUnit = PeriodUnit::Month;
     std::optional<DateFormat> dateFormat;          // nullopt: ISO dates only; ambiguous ones refused
+    AcceptableCriteria acceptable;                 // --acceptable: performance acceptable in a new site
+    std::uint64_t simulationSeed = 20240101;       // the bootstrap's seed (BootstrapSettings::seed), copied by each entry point
 
     const std::vector<double>& cutPoints() const { return nriCutPoints.empty() ? thresholds : nriCutPoints; }
 };

@@ -89,6 +89,7 @@ std::expected<void, InputError> saveAnalysisFile(const std::string& path, const 
                        {"nri_cuts", a.panel.nriCutPoints},
                        {"decision_threshold", a.panel.decisionThreshold},
                        {"decision_range", {a.panel.decisionFrom, a.panel.decisionTo, a.panel.decisionStep}},
+                       {"acceptable", acceptableCriteriaText(a.panel.acceptable)},
                        {"period_unit", a.panel.periodUnit == PeriodUnit::Quarter ? "quarter" : "month"},
                        {"date_format", !a.panel.dateFormat ? "iso" : *a.panel.dateFormat == DateFormat::DayFirst ? "dmy" : "mdy"},
                        {"c_statistic_interval", a.panel.cStatisticScale == CStatisticScale::Logit ? "logit" : "plain"},
@@ -353,6 +354,12 @@ AnalysisFile readAnalysis(const Json& json, const std::string& path, std::vector
     a.panel.decisionFrom = range[0];
     a.panel.decisionTo = range[1];
     a.panel.decisionStep = range[2];
+    if (const std::string acceptable = o.text("acceptable", ""); !acceptable.empty()) {
+        const auto criteria = parseAcceptableCriteria(acceptable, "the criteria");
+        if (!criteria)
+            o.refuse("acceptable", acceptable, criteria.error().problem, criteria.error().remedy);
+        a.panel.acceptable = *criteria;
+    }
     a.panel.periodUnit = o.choice("period_unit", "month", {"month", "quarter"}) == "quarter" ? PeriodUnit::Quarter : PeriodUnit::Month;
     const std::string dates = o.choice("date_format", "iso", {"iso", "dmy", "mdy"});
     if (dates != "iso")
@@ -367,6 +374,7 @@ AnalysisFile readAnalysis(const Json& json, const std::string& path, std::vector
     a.addUpdated = o.choice("add_updated", "", {"", "intercept", "logistic", "closed-test"});
     a.minimumCell = o.count("minimum_cell", a.minimumCell);
     a.panel.minimumCell = a.minimumCell;
+    a.panel.simulationSeed = a.bootstrap.seed;
     if (json.contains("report")) {
         const FieldReader t(top.object("report"), "report", path);
         a.report = {t.text("title", ""), t.text("model", ""), t.text("outcome", ""), t.text("population", ""), t.text("period", ""), t.text("notes", "")};

@@ -9,7 +9,7 @@ namespace plumbline {
 namespace {
 
 enum class Setting { Confidence, RiskGroups, Thresholds, NriCuts, DecisionRange, DecisionThreshold, Replicates, MinimumCell,
-                     AddUpdated, Threads, MaxLineBytes, Cluster };
+                     AddUpdated, Threads, MaxLineBytes, Cluster, Acceptable };
 
 struct SettingName {
     const char* commandLine;
@@ -32,6 +32,7 @@ SettingName nameOf(Setting setting)
     case Setting::Threads: return {"--threads", "options.threads", "Threads"};
     case Setting::MaxLineBytes: return {"--max-line-length", "reading.max_line_bytes", "Longest line"};
     case Setting::Cluster: return {"--cluster", "columns.cluster", "Site column"};
+    case Setting::Acceptable: return {"--acceptable", "options.acceptable", "Acceptable in a new site"};
     }
     return {"", "", ""};
 }
@@ -113,6 +114,8 @@ std::expected<void, InputError> checkPanel(const Checker& check, const PanelSett
     if (points > double(L::maxDecisionPoints))
         return check.refuse(Setting::DecisionRange, range, "would give " + numberText(points) + " thresholds; at most 1000 are drawn.",
                             "use a step of at least " + numberText((p.decisionTo - p.decisionFrom) / double(L::maxDecisionPoints - 1)) + ".");
+    if (const std::string problem = acceptableCriteriaProblem(p.acceptable); !problem.empty())
+        return check.refuse(Setting::Acceptable, acceptableCriteriaText(p.acceptable), problem, "e.g. c=0.70,oe=0.8:1.2,slope=0.8:1.2.");
     if (!(std::isfinite(p.decisionThreshold) && p.decisionThreshold >= 0.0 && p.decisionThreshold <= 1.0))
         return check.refuse(Setting::DecisionThreshold, numberText(p.decisionThreshold), "must lie between 0 and 1.", "give e.g. 0.2.");
     return {};

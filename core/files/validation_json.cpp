@@ -1,5 +1,6 @@
 #include "files/validation_json.hpp"
 
+#include "files/site_pooling_json.hpp"
 #include "resampling/interval_choice.hpp"
 
 #include <algorithm>
@@ -273,6 +274,7 @@ void addUsefulnessFairnessDriftJson(Json& json, const ValidationResult& result)
         precision.push_back({{"model", p.model}, {"metric", p.metric}, {"interval_width", p.width}, {"common_target", p.target},
                              {"meets_target", p.width <= p.target}});
     json["precision"] = precision;
+    json["site_pooling"] = sitePoolingJson(result);
 }
 
 Json numberOrNull(const std::optional<double>& value)

@@ -12,4 +12,10 @@ inline constexpr std::array<std::string_view, 3> standardCautions{
     "Follow local policy and regulation on the use of risk models in patient care.",
 };
 
+// How to read pooled performance across sites (--cluster), shown wherever it is.
+inline constexpr std::array<std::string_view, 2> siteCautions{
+    "The prediction interval and the probability of acceptable performance describe a new site like those pooled; a site with another case mix, coding or care pathway may fall outside them.",
+    "With few sites the between-site variance is poorly estimated, so these intervals are themselves uncertain: validate the model in the new site before relying on it.",
+};
+
 } // namespace plumbline

@@ -88,8 +88,8 @@ TEST_CASE("A typed source gives the cluster as the text a delimited export would
     const auto result = runIntake(settings, table);
     REQUIRE(result);
     REQUIRE(result->cohort.cluster);
-    CHECK(result->cohort.cluster->levels == std::vector<std::string>{"12", "North", "(missing)"});
-    CHECK(result->cohort.cluster->codes == std::vector<std::uint32_t>{0, 2, 1});
+    CHECK(result->cohort.cluster->levels == std::vector<std::string>{"12", "(missing)", "North"});
+    CHECK(result->cohort.cluster->codes == std::vector<std::uint32_t>{0, 1, 2});
     settings.clusterColumn = "ward";
     const auto missing = runIntake(settings, table);
     REQUIRE_FALSE(missing);
