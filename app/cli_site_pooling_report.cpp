@@ -28,13 +28,14 @@ void printSitePooling(std::ostream& out, const ValidationResult& result)
         for (const auto& m : model.measures) {
             out << "    " << metricLabel(m.measure) << ": ";
             if (!m.pool) {
-                out << "not pooled (fewer than 2 sites with an estimate)\n";
+                out << "not pooled: " << m.sites.size() << " sites with an estimate, 2 needed; " << m.sitesLeftOut << " left out ("
+                    << (m.leftOut.empty() ? std::string("-") : m.leftOut.front()) << ")\n";
                 continue;
             }
             out << fixedText(m.pooled, 3) << " (" << range(m.hksjLower, m.hksjUpper, 3) << "), new site "
                 << range(m.predictionLower, m.predictionUpper, 3) << "; tau2 " << fixedText(m.pool->tau2Reml, 4) << " (DL "
                 << fixedText(m.pool->tau2DerSimonianLaird, 4) << "), I2 " << fixedText(m.pool->i2 * 100.0, 0) << " %, "
-                << m.sites.size() << " sites" << (m.leftOut.empty() ? "" : ", " + std::to_string(m.leftOut.size()) + " left out") << '\n';
+                << m.sites.size() << " sites" << (m.sitesLeftOut == 0 ? "" : ", " + std::to_string(m.sitesLeftOut) + " left out") << '\n';
         }
         const NewSiteAcceptability& a = model.acceptability;
         if (a.joint) {

@@ -66,6 +66,27 @@ else
   echo "FAIL: the saved analysis did not re-run"; cat "$work/err2.txt"; failures=$((failures+1))
 fi
 
+# A site per row (an id given as the site column): every site too small, counted, the run ends
+# normally, and the result keeps at most 21 notes a measure.
+/usr/bin/python3 -c "
+import sys
+with open(sys.argv[1], 'w') as f:
+    f.write('y,p,site\n')
+    for i in range(3000):
+        f.write(f'{i % 3 == 0:d},{0.1 + (i % 7) / 10:.2f},row{i}\n')
+" "$work/site_per_row.csv"
+if "$cli" validate "$work/site_per_row.csv" --outcome y --score p --cluster site --json "$work/per_row.json" >"$work/per_row.txt" 2>&1; then
+  grep -q "3000 left out" "$work/per_row.txt" || { echo "FAIL: the sites left out are not counted"; failures=$((failures+1)); }
+  /usr/bin/python3 -c "
+import json, sys
+m = json.load(open(sys.argv[1]))['site_pooling']['models'][0]['measures'][0]
+assert m['sites_left_out'] == 3000 and len(m['left_out']) == 21 and m['pooled'] is None, m['sites_left_out']
+print('ok: a site per row is counted, not listed')
+" "$work/per_row.json" || failures=$((failures+1))
+else
+  echo "FAIL: a site per row stopped the run"; cat "$work/per_row.txt"; failures=$((failures+1))
+fi
+
 expect 2 "there is no cluster column of that name" -- "$cli" validate "$sample" "${columns[@]}" --cluster hospitl
 expect 2 "'hospital'" -- "$cli" validate "$sample" "${columns[@]}" --cluster hospitl
 expect 2 "--cluster names no column" -- "$cli" validate "$sample" "${columns[@]}" --cluster ""
