@@ -98,14 +98,19 @@ void SiteForestView::setMeasure(const PooledMeasure& measure, std::optional<doub
     auto* points = new QScatterSeries;
     points->setMarkerSize(9);
     points->setColor(colour);
+    // A whisker is a series of its own: beyond 100 sites (a column that is not really a site)
+    // only the points are drawn, so the chart stays quick; the tooltip still gives each interval.
+    const bool whiskers = measure.sites.size() <= 100;
     for (std::size_t k = 0; k < measure.sites.size(); ++k) {
         const SiteEstimate& s = measure.sites[k];
         const double row = count - 1.0 - double(k);
-        auto* whisker = new QLineSeries;
-        whisker->append(s.lower, row);
-        whisker->append(s.upper, row);
-        whisker->setPen(QPen(colour, 1.5));
-        add(whisker);
+        if (whiskers) {
+            auto* whisker = new QLineSeries;
+            whisker->append(s.lower, row);
+            whisker->append(s.upper, row);
+            whisker->setPen(QPen(colour, 1.5));
+            add(whisker);
+        }
         points->append(s.estimate, row);
     }
     add(points);
