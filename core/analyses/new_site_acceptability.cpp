@@ -155,7 +155,7 @@ NewSiteAcceptability newSiteAcceptability(const std::vector<PooledMeasure>& meas
     out.joint = double(allMet) / double(draws);
     out.method = "joint simulation from the predictive distribution: " + std::to_string(draws)
         + " draws of a new site's true values (logit C, log O/E, calibration slope) from a multivariate t with " + std::to_string(out.degreesOfFreedom)
-        + " degrees of freedom (fewest sites − 2), centred on the pooled values, each with scale √(τ² + SE²), "
+        + (out.degreesOfFreedom == 1 ? " degree" : " degrees") + " of freedom (fewest sites − 2), centred on the pooled values, each with scale √(τ² + SE²), "
         + (out.correlated ? "correlated as the site estimates are" : "independent")
         + "; the share of draws meeting each criterion, and all of them";
     return out;

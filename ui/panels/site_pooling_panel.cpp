@@ -51,7 +51,8 @@ SitePoolingPanel::SitePoolingPanel(QWidget* parent)
     m_table->setHorizontalHeaderLabels({tr("Measure"), tr("Sites"), tr("Pooled"), tr("HKSJ interval"), tr("New site (prediction)"),
                                         tr("τ² REML (DL)"), tr("I²"), tr("P(acceptable)")});
     m_table->horizontalHeader()->setStretchLastSection(true);
-    m_table->setMinimumHeight(60);
+    // Room for the header and the three measures, so a 720-pixel screen shows the whole table.
+    m_table->setMinimumHeight(m_table->horizontalHeader()->sizeHint().height() + 3 * m_table->verticalHeader()->defaultSectionSize() + 4);
     auto* top = new QHBoxLayout;
     auto* label = new QLabel(tr("&Model:"));
     label->setBuddy(m_model);
