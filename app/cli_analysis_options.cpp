@@ -66,6 +66,7 @@ std::expected<AnalysisFile, InputError> AnalysisOptions::resolved(const CLI::App
         if (given("--decimal-comma")) i.decimalComma = g.decimalComma;
         if (given("--group")) i.groupColumns = g.groupColumns;
         if (given("--period")) i.periodColumn = g.periodColumn;
+        if (given("--cluster")) i.clusterColumn = g.clusterColumn;
         if (given("--max-line-length")) i.maxLineBytes = g.maxLineBytes;
         PanelSettings& p = out.panel;
         if (given("--thresholds")) p.thresholds = panelGiven->thresholds;
@@ -79,6 +80,7 @@ std::expected<AnalysisFile, InputError> AnalysisOptions::resolved(const CLI::App
         if (given("--period-unit")) p.periodUnit = panelGiven->periodUnit;
         if (given("--date-format")) p.dateFormat = panelGiven->dateFormat;
         if (given("--capacity")) p.capacity = panelGiven->capacity;
+        if (given("--acceptable")) p.acceptable = panelGiven->acceptable;
         BootstrapSettings& b = out.bootstrap;
         if (given("--bootstrap")) b.replicates = bootstrapGiven.replicates;
         if (given("--seed")) b.seed = bootstrapGiven.seed;
@@ -89,6 +91,7 @@ std::expected<AnalysisFile, InputError> AnalysisOptions::resolved(const CLI::App
     if (settingsFile.empty() || given("--add-updated")) out.addUpdated = addUpdated;
     if (settingsFile.empty() || given("--min-cell")) out.minimumCell = minimumCell;
     out.panel.minimumCell = out.minimumCell;
+    out.panel.simulationSeed = out.bootstrap.seed; // the draws for a new site's acceptability
     auto text = [&](const char* option, const std::string& value, std::string& field) {
         if (settingsFile.empty() || given(option))
             field = value;

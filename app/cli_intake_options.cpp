@@ -43,6 +43,7 @@ void IntakeOptions::addTo(CLI::App& command, bool required)
     command.add_flag("--decimal-comma", settings.decimalComma, "Read 0,25 as 0.25");
     command.add_option("--group", settings.groupColumns, "Subgroup column (repeatable)");
     command.add_option("--period", periodColumn, "Date column for performance over time");
+    command.add_option("--cluster", clusterColumn, "Site column: performance per site, pooled across sites (random effects)");
     command.add_option("--sheet", sheet, "A workbook's sheet, by name or number (default: the first)");
     command.add_option("--database", database,
                        "Read the cohort from a database: postgresql://user@host/db, sqlite:FILE or odbc:DSN=name (no password: "
@@ -90,6 +91,8 @@ std::expected<IntakeSettings, InputError> IntakeOptions::resolved(const CLI::App
         out.eventValue = eventValue;
     if (!periodColumn.empty())
         out.periodColumn = periodColumn;
+    if (clusterColumn)
+        out.clusterColumn = clusterColumn;
     out.scale = *scaleFromName(scale);
     out.scaleGiven = command.count("--scale") > 0;
     if (!delimiter.empty()) {

@@ -18,6 +18,7 @@ struct IntakeOptions {
     std::string outcomesIdColumn;
     std::string eventValue;
     std::string periodColumn;
+    std::optional<std::string> clusterColumn;
     std::string scale = "probability";
     std::string delimiter;
     std::string sheet;

@@ -17,6 +17,7 @@ PanelOptions::PanelOptions()
     decisionRange = riskListText({d.decisionFrom, d.decisionTo, d.decisionStep}, ",");
     periodUnit = d.periodUnit == PeriodUnit::Quarter ? "quarter" : "month";
     dateFormat = !d.dateFormat ? "iso" : *d.dateFormat == DateFormat::DayFirst ? "dmy" : "mdy";
+    acceptable = acceptableCriteriaText(d.acceptable);
 }
 
 void PanelOptions::addTo(CLI::App& command)
@@ -33,6 +34,8 @@ void PanelOptions::addTo(CLI::App& command)
         ->check(CLI::IsMember({"wilson", "clopper-pearson"}));
     command.add_option("--nri-cuts", nriCuts, "Risk cut-points of the categorical NRI (default: the thresholds)");
     command.add_option("--decision-range", decisionRange, "Decision curve thresholds: from,to,step (default 0.05,0.50,0.01)");
+    command.add_option("--acceptable", acceptable,
+                       "With --cluster: performance acceptable in a new site, c=MIN,oe=LOW:HIGH,slope=LOW:HIGH (default c=0.7,oe=0.8:1.2,slope=0.8:1.2)");
     command.add_option("--period-unit", periodUnit, "Periods of --period: month or quarter")->check(CLI::IsMember({"month", "quarter"}));
     command.add_option("--date-format", dateFormat, "Dates of --period: iso (YYYY-MM-DD), dmy (DD/MM/YYYY) or mdy (MM/DD/YYYY)")
         ->check(CLI::IsMember({"iso", "dmy", "mdy"}));
@@ -63,6 +66,10 @@ std::expected<PanelSettings, InputError> PanelOptions::resolved() const
     settings.decisionFrom = range->from;
     settings.decisionTo = range->to;
     settings.decisionStep = range->step;
+    const auto criteria = parseAcceptableCriteria(acceptable, "--acceptable");
+    if (!criteria)
+        return std::unexpected(criteria.error());
+    settings.acceptable = *criteria;
     settings.periodUnit = periodUnit == "quarter" ? PeriodUnit::Quarter : PeriodUnit::Month;
     if (dateFormat == "dmy")
         settings.dateFormat = DateFormat::DayFirst;

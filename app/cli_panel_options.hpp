@@ -27,6 +27,7 @@ struct PanelOptions {
     std::string periodUnit;
     std::string dateFormat;
     std::string capacity; // empty: no capacity
+    std::string acceptable;
 
     void addTo(CLI::App& command);
     std::expected<PanelSettings, InputError> resolved() const;

@@ -1,6 +1,7 @@
 #include "cli_panel_report.hpp"
 #include "cli_capacity_report.hpp"
 
+#include "cli_site_pooling_report.hpp"
 #include "metrics/metric_reading.hpp"
 #include "reporting/value_text.hpp"
 
@@ -249,6 +250,7 @@ void printPanel(std::ostream& out, const ValidationResult& result)
     printSubgroups(out, result);
     printPeriods(out, result);
     printCapacity(out, result);
+    printSitePooling(out, result);
     printPrecision(out, result);
     if (!result.warnings.empty()) {
         out << "\nWarnings:\n";

@@ -1,11 +1,13 @@
 #pragma once
 
+#include "intake/acceptable_criteria.hpp"
 #include "metrics/discrimination.hpp"
 #include "metrics/estimate.hpp"
 #include "analyses/period_analysis.hpp"
 #include "analyses/capacity_spec.hpp"
 
 #include <cstddef>
+#include <cstdint>
 #include <optional>
 #include <vector>
 
@@ -27,6 +29,8 @@ struct PanelSettings {
     PeriodUnit periodUnit = PeriodUnit::Month;
     std::optional<DateFormat> dateFormat;          // nullopt: ISO dates only; ambiguous ones refused
     std::optional<CapacitySpec> capacity;          // --capacity: the threshold that flags that many (capacity_analysis)
+    AcceptableCriteria acceptable;                 // --acceptable: performance acceptable in a new site
+    std::uint64_t simulationSeed = 20240101;       // the bootstrap's seed (BootstrapSettings::seed), copied by each entry point
 
     const std::vector<double>& cutPoints() const { return nriCutPoints.empty() ? thresholds : nriCutPoints; }
 };

@@ -97,6 +97,8 @@ ValidationResult runValidation(const Cohort& cohort, const PanelSettings& settin
         else
             capacityProblem = "No capacity threshold: " + capacity.error().message();
     }
+    if (cohort.cluster)
+        result.sites = analyseSites(cohort, *cohort.cluster, settings);
     // Achieved precision beside the widths commonly aimed at (Riley et al. 2021 examples; from memory).
     for (const auto& model : result.models)
         for (const auto& [metric, target] : {std::pair<PanelMetric, double>{CStatistic, 0.1}, {OeRatio, 0.2}, {CalibrationSlope, 0.2}}) {
@@ -113,6 +115,8 @@ ValidationResult runValidation(const Cohort& cohort, const PanelSettings& settin
         result.warnings.insert(result.warnings.end(), result.capacity->warnings.begin(), result.capacity->warnings.end());
     if (result.periods)
         result.warnings.insert(result.warnings.end(), result.periods->warnings.begin(), result.periods->warnings.end());
+    if (result.sites)
+        result.warnings.insert(result.warnings.end(), result.sites->warnings.begin(), result.sites->warnings.end());
     for (const auto& model : result.models)
         result.warnings.insert(result.warnings.end(), model.warnings.begin(), model.warnings.end());
     return result;

@@ -6,6 +6,7 @@
 #include "analyses/model_validation.hpp"
 #include "analyses/subgroup_results.hpp"
 #include "analyses/panel_settings.hpp"
+#include "analyses/site_pooling.hpp"
 #include "metrics/score_order.hpp"
 
 #include <optional>
@@ -24,6 +25,7 @@ struct ValidationResult {
     std::optional<SubgroupAnalysis> subgroups; // when the cohort has group columns
     std::optional<PeriodAnalysis> periods;     // when the cohort has a period column
     std::optional<CapacityAnalysis> capacity;  // when settings.capacity is given
+    std::optional<SitePooling> sites;          // when the cohort has a cluster (site) column
     struct PrecisionRow {
         std::string model, metric;
         double width = 0.0, target = 0.0; // achieved interval width against a common target

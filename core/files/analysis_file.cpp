@@ -76,6 +76,7 @@ std::expected<void, InputError> saveAnalysisFile(const std::string& path, const 
                        {"outcomes_id", optional(a.intake.outcomesIdColumn)},
                        {"groups", a.intake.groupColumns},
                        {"period", optional(a.intake.periodColumn)},
+                       {"cluster", optional(a.intake.clusterColumn)},
                        {"event", optional(a.intake.eventValue)}};
     json["reading"] = {{"scale", std::string(scaleName(a.intake.scale))},
                        {"scale_given", a.intake.scaleGiven},
@@ -88,6 +89,7 @@ std::expected<void, InputError> saveAnalysisFile(const std::string& path, const 
                        {"nri_cuts", a.panel.nriCutPoints},
                        {"decision_threshold", a.panel.decisionThreshold},
                        {"decision_range", {a.panel.decisionFrom, a.panel.decisionTo, a.panel.decisionStep}},
+                       {"acceptable", acceptableCriteriaText(a.panel.acceptable)},
                        {"period_unit", a.panel.periodUnit == PeriodUnit::Quarter ? "quarter" : "month"},
                        {"date_format", !a.panel.dateFormat ? "iso" : *a.panel.dateFormat == DateFormat::DayFirst ? "dmy" : "mdy"},
                        {"c_statistic_interval", a.panel.cStatisticScale == CStatisticScale::Logit ? "logit" : "plain"},
@@ -329,6 +331,7 @@ AnalysisFile readAnalysis(const Json& json, const std::string& path, std::vector
     a.intake.idColumn = columns.optionalText("id");
     a.intake.outcomesIdColumn = columns.optionalText("outcomes_id");
     a.intake.periodColumn = columns.optionalText("period");
+    a.intake.clusterColumn = columns.optionalText("cluster");
     a.intake.eventValue = columns.optionalText("event");
     const FieldReader read(top.object("reading"), "reading", path);
     a.intake.scale = *scaleFromName(read.choice("scale", "probability", {"probability", "percent", "logit", "points"}));
@@ -352,6 +355,12 @@ AnalysisFile readAnalysis(const Json& json, const std::string& path, std::vector
     a.panel.decisionFrom = range[0];
     a.panel.decisionTo = range[1];
     a.panel.decisionStep = range[2];
+    if (const std::string acceptable = o.text("acceptable", ""); !acceptable.empty()) {
+        const auto criteria = parseAcceptableCriteria(acceptable, "the criteria");
+        if (!criteria)
+            o.refuse("acceptable", acceptable, criteria.error().problem, criteria.error().remedy);
+        a.panel.acceptable = *criteria;
+    }
     a.panel.periodUnit = o.choice("period_unit", "month", {"month", "quarter"}) == "quarter" ? PeriodUnit::Quarter : PeriodUnit::Month;
     const std::string dates = o.choice("date_format", "iso", {"iso", "dmy", "mdy"});
     if (dates != "iso")
@@ -372,6 +381,7 @@ AnalysisFile readAnalysis(const Json& json, const std::string& path, std::vector
             o.refuse("capacity", *capacity, spec.error().problem, spec.error().remedy);
         a.panel.capacity = *spec;
     }
+    a.panel.simulationSeed = a.bootstrap.seed;
     if (json.contains("report")) {
         const FieldReader t(top.object("report"), "report", path);
         a.report = {t.text("title", ""), t.text("model", ""), t.text("outcome", ""), t.text("population", ""), t.text("period", ""), t.text("notes", "")};

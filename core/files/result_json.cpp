@@ -66,6 +66,7 @@ nlohmann::ordered_json intakeSettingsJson(const IntakeSettings& settings)
     out["outcomes_id"] = optionalJson(settings.outcomesIdColumn);
     out["groups"] = settings.groupColumns;
     out["period"] = optionalJson(settings.periodColumn);
+    out["cluster"] = optionalJson(settings.clusterColumn);
     out["event"] = optionalJson(settings.eventValue);
     out["scale"] = std::string(scaleName(settings.scale));
     out["delimiter"] = settings.delimiter ? nlohmann::ordered_json(std::string(1, *settings.delimiter))

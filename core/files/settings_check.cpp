@@ -1,5 +1,6 @@
 #include "files/settings_check.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 
@@ -8,7 +9,7 @@ namespace plumbline {
 namespace {
 
 enum class Setting { Confidence, RiskGroups, Thresholds, NriCuts, DecisionRange, DecisionThreshold, Replicates, MinimumCell,
-                     AddUpdated, Threads, MaxLineBytes, Capacity };
+                     AddUpdated, Threads, MaxLineBytes, Capacity, Cluster, Acceptable };
 
 struct SettingName {
     const char* commandLine;
@@ -31,6 +32,8 @@ SettingName nameOf(Setting setting)
     case Setting::Threads: return {"--threads", "options.threads", "Threads"};
     case Setting::MaxLineBytes: return {"--max-line-length", "reading.max_line_bytes", "Longest line"};
     case Setting::Capacity: return {"--capacity", "options.capacity", "Capacity"};
+    case Setting::Cluster: return {"--cluster", "columns.cluster", "Site column"};
+    case Setting::Acceptable: return {"--acceptable", "options.acceptable", "Acceptable in a new site"};
     }
     return {"", "", ""};
 }
@@ -112,6 +115,8 @@ std::expected<void, InputError> checkPanel(const Checker& check, const PanelSett
     if (points > double(L::maxDecisionPoints))
         return check.refuse(Setting::DecisionRange, range, "would give " + numberText(points) + " thresholds; at most 1000 are drawn.",
                             "use a step of at least " + numberText((p.decisionTo - p.decisionFrom) / double(L::maxDecisionPoints - 1)) + ".");
+    if (const std::string problem = acceptableCriteriaProblem(p.acceptable); !problem.empty())
+        return check.refuse(Setting::Acceptable, acceptableCriteriaText(p.acceptable), problem, "e.g. c=0.70,oe=0.8:1.2,slope=0.8:1.2.");
     if (!(std::isfinite(p.decisionThreshold) && p.decisionThreshold >= 0.0 && p.decisionThreshold <= 1.0))
         return check.refuse(Setting::DecisionThreshold, numberText(p.decisionThreshold), "must lie between 0 and 1.", "give e.g. 0.2.");
     return {};
@@ -149,6 +154,14 @@ std::expected<void, InputError> checkAnalysisSettings(const AnalysisFile& a, Set
     if (a.intake.maxLineBytes < L::minLineBytes || a.intake.maxLineBytes > L::maxLineBytes)
         return check.refuse(Setting::MaxLineBytes, std::to_string(a.intake.maxLineBytes), "must lie between 1024 and 1073741824 bytes.",
                             "give e.g. 1048576 (1 MB, the default).");
+    if (const auto& cluster = a.intake.clusterColumn) {
+        if (cluster->empty())
+            return check.refuse(Setting::Cluster, "", "names no column.", "give the column that holds each row's site, e.g. hospital.");
+        const auto& scores = a.intake.scoreColumns;
+        if (*cluster == a.intake.outcomeColumn || std::find(scores.begin(), scores.end(), *cluster) != scores.end())
+            return check.refuse(Setting::Cluster, *cluster, "names the outcome or a score column, which cannot be a site.",
+                                "give the column that holds each row's site, e.g. hospital.");
+    }
     return {};
 }
 

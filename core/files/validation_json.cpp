@@ -1,6 +1,7 @@
 #include "files/validation_json.hpp"
 #include "files/capacity_json.hpp"
 
+#include "files/site_pooling_json.hpp"
 #include "resampling/interval_choice.hpp"
 
 #include <algorithm>
@@ -275,6 +276,7 @@ void addUsefulnessFairnessDriftJson(Json& json, const ValidationResult& result)
                              {"meets_target", p.width <= p.target}});
     json["precision"] = precision;
     json["capacity"] = capacityJson(result.capacity);
+    json["site_pooling"] = sitePoolingJson(result);
 }
 
 Json numberOrNull(const std::optional<double>& value)

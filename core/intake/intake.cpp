@@ -152,19 +152,20 @@ std::expected<void, InputError> checkRowsToUse(const IntakeAudit& audit, std::si
     return std::unexpected(error);
 }
 
-bool periodIsAlsoGroup(const IntakeSettings& settings)
+bool isAlsoGroup(const IntakeSettings& settings, const std::optional<std::string>& column)
 {
-    return settings.periodColumn
-        && std::find(settings.groupColumns.begin(), settings.groupColumns.end(), *settings.periodColumn) != settings.groupColumns.end();
+    return column && std::find(settings.groupColumns.begin(), settings.groupColumns.end(), *column) != settings.groupColumns.end();
 }
 
-// The period column is read like a group column (its date texts dictionary-coded) and moved
-// to the cohort's period afterwards.
+// The period and cluster columns are read like group columns (their texts dictionary-coded,
+// a missing value the level "(missing)") and moved to the cohort's period and cluster afterwards.
 IntakeSettings withPeriodAsGroup(const IntakeSettings& asked)
 {
     IntakeSettings settings = asked;
-    if (asked.periodColumn && !periodIsAlsoGroup(asked))
+    if (asked.periodColumn && !isAlsoGroup(asked, asked.periodColumn))
         settings.groupColumns.push_back(*asked.periodColumn);
+    if (asked.clusterColumn && !isAlsoGroup(settings, asked.clusterColumn))
+        settings.groupColumns.push_back(*asked.clusterColumn);
     return settings;
 }
 
@@ -193,6 +194,12 @@ std::expected<void, InputError> finishIntake(const IntakeSettings& asked, const 
     if (auto enough = checkEnoughRows(audit, settings, sources.cohortFile); !enough)
         return std::unexpected(enough.error());
     result.cohort = std::move(*cohort);
+    // The cluster is copied first: it may be the period column, which the period then moves.
+    if (asked.clusterColumn) {
+        const auto& groups = result.cohort.groups;
+        const auto it = std::find_if(groups.begin(), groups.end(), [&](const CategoricalColumn& c) { return c.name == *asked.clusterColumn; });
+        result.cohort.cluster = *it;
+    }
     if (asked.periodColumn) {
         auto& groups = result.cohort.groups;
         const auto it = std::find_if(groups.begin(), groups.end(), [&](const CategoricalColumn& c) { return c.name == *asked.periodColumn; });
@@ -201,8 +208,12 @@ std::expected<void, InputError> finishIntake(const IntakeSettings& asked, const 
         // day/month order the user chose to what was read.
         for (const auto& level : result.cohort.period->levels)
             result.cohort.period->written.push_back(readWrittenDate(level));
-        if (!periodIsAlsoGroup(asked))
+        if (!isAlsoGroup(asked, asked.periodColumn))
             groups.erase(it);
+    }
+    if (asked.clusterColumn && !isAlsoGroup(asked, asked.clusterColumn) && asked.clusterColumn != asked.periodColumn) {
+        auto& groups = result.cohort.groups;
+        groups.erase(std::find_if(groups.begin(), groups.end(), [&](const CategoricalColumn& c) { return c.name == *asked.clusterColumn; }));
     }
     return {};
 }

@@ -21,6 +21,7 @@ struct IntakeSettings {
     std::optional<std::string> outcomesIdColumn; // defaults to idColumn
     std::vector<std::string> groupColumns;
     std::optional<std::string> periodColumn;  // a date column; checked at intake, analysed by period later
+    std::optional<std::string> clusterColumn; // the site of each row; performance is pooled across its levels
     std::optional<std::string> eventValue;
     ScoreScale scale = ScoreScale::Probability;
     bool scaleGiven = false;                  // the user chose the scale explicitly

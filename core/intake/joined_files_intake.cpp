@@ -89,6 +89,9 @@ std::expected<StagedFile, InputError> stageJoinedFiles(const DelimitedTable& sco
     if (settings.periodColumn)
         if (const auto period = scores.column(*settings.periodColumn, "period"); !period)
             return std::unexpected(period.error());
+    if (settings.clusterColumn)
+        if (const auto cluster = scores.column(*settings.clusterColumn, "cluster"); !cluster)
+            return std::unexpected(cluster.error());
     std::vector<std::size_t> groupIndices;
     for (const auto& name : settings.groupColumns) {
         const auto column = scores.column(name, "group");

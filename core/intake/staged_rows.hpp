@@ -94,7 +94,7 @@ std::expected<ColumnIndices, InputError> resolveColumnIndices(const IntakeSettin
         indices.scores.push_back(*score);
     }
     for (const auto& name : settings.groupColumns) {
-        const auto group = find(name, name == settings.periodColumn ? "period" : "group");
+        const auto group = find(name, name == settings.periodColumn ? "period" : name == settings.clusterColumn ? "cluster" : "group");
         if (!group)
             return std::unexpected(group.error());
         indices.groups.push_back(*group);
@@ -102,6 +102,9 @@ std::expected<ColumnIndices, InputError> resolveColumnIndices(const IntakeSettin
     if (settings.periodColumn)
         if (const auto period = find(*settings.periodColumn, "period"); !period)
             return std::unexpected(period.error());
+    if (settings.clusterColumn)
+        if (const auto cluster = find(*settings.clusterColumn, "cluster"); !cluster)
+            return std::unexpected(cluster.error());
     if (settings.idColumn) {
         const auto id = find(*settings.idColumn, "id");
         if (!id)

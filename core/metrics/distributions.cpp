@@ -3,6 +3,7 @@
 #include <boost/math/distributions/beta.hpp>
 #include <boost/math/distributions/chi_squared.hpp>
 #include <boost/math/distributions/normal.hpp>
+#include <boost/math/distributions/students_t.hpp>
 
 #include <cmath>
 
@@ -36,6 +37,11 @@ double chiSquaredQuantile(double p, double df)
 double betaQuantile(double a, double b, double p)
 {
     return boost::math::quantile(boost::math::beta_distribution<>(a, b), p);
+}
+
+double studentTQuantile(double p, double df)
+{
+    return boost::math::quantile(boost::math::students_t_distribution<>(df), p);
 }
 
 double zForConfidence(double confidence)

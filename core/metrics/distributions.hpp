@@ -9,6 +9,7 @@ double twoSidedNormalP(double z);               // 2(1 − Φ(|z|))
 double chiSquaredUpperTail(double x, double df); // P(χ²_df > x)
 double chiSquaredQuantile(double p, double df);
 double betaQuantile(double a, double b, double p);
+double studentTQuantile(double p, double df);    // Student t with df degrees of freedom
 
 // z for a two-sided interval at the given confidence (0.95 → 1.959963984540054).
 double zForConfidence(double confidence);

@@ -16,5 +16,10 @@ inline constexpr std::array<std::string_view, 3> standardCautions{
 inline constexpr std::string_view capacityCaution =
     "A threshold chosen to flag a capacity on past patients flags a different number when volume or case mix changes: "
     "watch the number flagged each period against what the team can take.";
+// How to read pooled performance across sites (--cluster), shown wherever it is.
+inline constexpr std::array<std::string_view, 2> siteCautions{
+    "The prediction interval and the probability of acceptable performance describe a new site like those pooled; a site with another case mix, coding or care pathway may fall outside them.",
+    "With few sites the between-site variance is poorly estimated, so these intervals are themselves uncertain: validate the model in the new site before relying on it.",
+};
 
 } // namespace plumbline

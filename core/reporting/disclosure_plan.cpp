@@ -1,5 +1,6 @@
 #include "reporting/disclosure_plan.hpp"
 
+#include "reporting/site_disclosure.hpp"
 #include "reporting/small_cell_protection.hpp"
 
 #include <algorithm>
@@ -502,6 +503,8 @@ ValidationResult redactedForReport(const ValidationResult& result, const Disclos
                     reference.oe.upper.reset();
                 }
     }
+    if (out.sites)
+        withholdSmallSites(*out.sites, plan.minimumCell);
     return out;
 }
 

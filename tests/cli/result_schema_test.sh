@@ -49,15 +49,15 @@ PY
 
 run golden -- cp "$source/tests/golden/validation-result.json" "$work/golden.json"
 run full -- "$cli" validate "$sample" --outcome readmitted_30d --score supplier_score --score local_score --group hospital \
-  --period discharge_date --add-updated closed-test --bootstrap 30 --seed 3 --capacity 40/week --json "$work/full.json"
+  --cluster hospital --period discharge_date --add-updated closed-test --bootstrap 30 --seed 3 --capacity 40/week --json "$work/full.json"
 run one_event -- "$cli" validate "$work/one_event.csv" --outcome outcome --score a --score b --group site --period day \
-  --bootstrap 200 --seed 11 --json "$work/one_event.json"
+  --cluster site --bootstrap 200 --seed 11 --json "$work/one_event.json"
 run constant -- "$cli" validate "$work/constant.csv" --outcome outcome --score a --score b --bootstrap 50 --seed 1 --json "$work/constant.json"
 run separating -- "$cli" validate "$work/separating.csv" --outcome outcome --score a --score b --add-updated logistic \
   --bootstrap 50 --seed 2 --json "$work/separating.json"
 run contradicted -- "$cli" validate "$work/contradicted.csv" --outcome outcome --score a --score b --json "$work/contradicted.json"
 run points -- "$cli" validate "$work/points.csv" --outcome outcome --score a --score b --scale points --bootstrap 50 --seed 4 \
-  --capacity 10% --json "$work/points.json"
+  --capacity 10% --cluster site --json "$work/points.json"
 run joined -- "$cli" validate "$work/scores.csv" --outcomes "$work/outcomes.csv" --id id --score a --score b --outcome outcome \
   --bootstrap 0 --json "$work/joined.json"
 run update -- "$cli" update "$sample" --outcome readmitted_30d --score supplier_score --id encounter_id --method closed-test \

@@ -96,6 +96,7 @@ ImportDialog::ImportDialog(QWidget* parent)
     , m_id(columnBox())
     , m_groups(new QListWidget)
     , m_period(columnBox())
+    , m_cluster(columnBox())
     , m_problem(new QLabel)
     , m_auditSummary(new QLabel)
     , m_audit(new IntakeAuditModel(this))
@@ -143,7 +144,7 @@ ImportDialog::ImportDialog(QWidget* parent)
         m_runAfterCheck = false;
     });
     // Any change of the mapping makes the last check stale.
-    for (QComboBox* box : {m_scale, m_period, m_outcomesId, m_delimiter})
+    for (QComboBox* box : {m_scale, m_period, m_cluster, m_outcomesId, m_delimiter})
         connect(box, &QComboBox::currentIndexChanged, this, &ImportDialog::stale);
     // The outcome and the id are never offered as scores.
     auto names = [](const QStringList& list) {
@@ -234,6 +235,7 @@ void ImportDialog::buildLayout()
     mapping->addRow(tr("&Id column:"), m_id);
     mapping->addRow(tr("Sub&group columns:"), m_groups);
     mapping->addRow(tr("&Period (date) column:"), m_period);
+    mapping->addRow(tr("Si&te column (pool across sites):"), m_cluster);
     auto* mappingBox = new QGroupBox(tr("What the columns are"));
     mappingBox->setLayout(mapping);
 
@@ -579,14 +581,17 @@ void ImportDialog::fillColumnChoices(const std::vector<std::string>& header, con
         m_outcome->clear();
         m_id->clear();
         m_period->clear();
+        m_cluster->clear();
         m_outcome->addItem(none);
         m_id->addItem(none);
         m_period->addItem(none);
+        m_cluster->addItem(none);
         for (const auto& name : header) {
             const QString column = QString::fromStdString(name);
             m_outcome->addItem(column);
             m_id->addItem(column);
             m_period->addItem(column);
+            m_cluster->addItem(column);
         }
         if (roles.outcome)
             m_outcome->setCurrentText(QString::fromStdString(*roles.outcome));
@@ -670,6 +675,7 @@ IntakeSettings ImportDialog::intakeSettings() const
         s.groupColumns.push_back(group.toStdString());
     s.idColumn = chosen(m_id);
     s.periodColumn = chosen(m_period);
+    s.clusterColumn = chosen(m_cluster);
     if (!m_event->text().trimmed().isEmpty())
         s.eventValue = m_event->text().trimmed().toStdString();
     s.scale = *scaleFromName(m_scale->currentText().toStdString());
@@ -688,6 +694,7 @@ void ImportDialog::setMapping(const IntakeSettings& settings)
     refreshScoreChoices(settings.scoreColumns);
     refreshGroupChoices(settings.groupColumns);
     m_period->setCurrentText(settings.periodColumn ? QString::fromStdString(*settings.periodColumn) : none);
+    m_cluster->setCurrentText(settings.clusterColumn ? QString::fromStdString(*settings.clusterColumn) : none);
     m_scale->setCurrentText(QString::fromLatin1(scaleName(settings.scale).data()));
     m_event->setText(settings.eventValue ? QString::fromStdString(*settings.eventValue) : QString());
     stale();

@@ -103,6 +103,7 @@ private:
     QComboBox* m_id;
     QListWidget* m_groups;
     QComboBox* m_period;
+    QComboBox* m_cluster;
     QLabel* m_problem;
     QLabel* m_auditSummary;
     IntakeAuditModel* m_audit;

@@ -194,6 +194,7 @@ std::optional<AnalysisRequest> SettingsPanel::request() const
                   m_population->text().toStdString(), m_period->text().toStdString(), m_notes->text().toStdString()};
     out.minimumCell = std::size_t(m_minimumCell->value());
     out.panel.minimumCell = out.minimumCell;
+    out.panel.simulationSeed = out.bootstrap.seed; // the draws for a new site's acceptability (--cluster)
     out.panel.periodUnit = PeriodUnit(m_periodUnit->currentData().toInt());
     const int dateFormat = m_dateFormat->currentData().toInt();
     out.panel.dateFormat = dateFormat < 0 ? std::nullopt : std::optional<DateFormat>(DateFormat(dateFormat));

@@ -7,6 +7,8 @@
 #include "charts/level_calibration_view.hpp"
 #include "charts/period_chart_view.hpp"
 #include "panels/period_panel.hpp"
+#include "panels/site_pooling_panel.hpp"
+#include "charts/site_forest_view.hpp"
 #include "panels/subgroup_panel.hpp"
 #include "charts/roc_chart_view.hpp"
 
@@ -26,12 +28,14 @@ ReportCharts::ReportCharts(const SnapshotPointer& snapshot, std::optional<double
     , m_decision(std::make_unique<DecisionCurveView>())
     , m_subgroups(std::make_unique<SubgroupPanel>())
     , m_periods(std::make_unique<PeriodPanel>())
+    , m_sites(std::make_unique<SitePoolingPanel>())
 {
     m_roc->setSnapshot(snapshot);
     m_calibration->setSnapshot(snapshot);
     m_decision->setSnapshot(snapshot);
     m_subgroups->setSnapshot(snapshot);
     m_periods->setSnapshot(snapshot);
+    m_sites->setSnapshot(snapshot);
     m_threshold = threshold.value_or(snapshot ? snapshot->request.panel.decisionThreshold : PanelSettings{}.decisionThreshold);
     m_roc->setThreshold(m_threshold);
     m_calibration->setThreshold(m_threshold);
@@ -54,6 +58,10 @@ ExportableChartView* ReportCharts::view(const ReportChartRef& chart) const
         m_periods->modelPicker()->setCurrentIndex(chart.choice);
         return settled(v);
     };
+    auto sites = [&](auto* v) -> ExportableChartView* {
+        m_sites->modelPicker()->setCurrentIndex(chart.choice);
+        return settled(v);
+    };
     switch (chart.kind) {
     case ReportChart::Roc: return m_roc.get();
     case ReportChart::Calibration: return m_calibration.get();
@@ -65,6 +73,9 @@ ExportableChartView* ReportCharts::view(const ReportChartRef& chart) const
     case ReportChart::SubgroupFunnel: return subgroup(m_subgroups->funnelChart());
     case ReportChart::OverTimeC: return overTime(m_periods->cChart());
     case ReportChart::OverTimeOe: return overTime(m_periods->oeChart());
+    case ReportChart::SiteC: return sites(m_sites->cChart());
+    case ReportChart::SiteOe: return sites(m_sites->oeChart());
+    case ReportChart::SiteSlope: return sites(m_sites->slopeChart());
     }
     return m_roc.get();
 }
@@ -107,6 +118,18 @@ QString ReportCharts::caption(const ReportChartRef& chart) const
     case ReportChart::OverTimeOe:
         return QStringLiteral("O/E by period for %1, oldest first; the band is the first year's interval. Periods whose counts "
                               "are suppressed are drawn without a value.").arg(model);
+    case ReportChart::SiteC:
+    case ReportChart::SiteOe:
+    case ReportChart::SiteSlope: {
+        const QString measure = chart.kind == ReportChart::SiteC ? QStringLiteral("C statistic")
+            : chart.kind == ReportChart::SiteOe                  ? QStringLiteral("Observed / expected (1 is ideal)")
+                                                                 : QStringLiteral("Calibration slope (1 is ideal)");
+        const QString siteModel = m_snapshot && m_snapshot->validation.sites && chart.choice < int(m_snapshot->validation.sites->models.size())
+            ? QString::fromStdString(m_snapshot->validation.sites->models[std::size_t(chart.choice)].model) : QString();
+        return QStringLiteral("%1 per site for %2 with intervals; the diamond spans the pooled value's HKSJ interval and the bar "
+                              "beneath it the prediction interval for a new site. Sites below the small-cell rule are not drawn.")
+            .arg(measure, siteModel);
+    }
     }
     return {};
 }

@@ -1,5 +1,6 @@
 #include "report/report_document.hpp"
 #include "report/capacity_report_table.hpp"
+#include "report/site_pooling_report.hpp"
 
 #include "reporting/cautions.hpp"
 #include "reporting/decision_summary.hpp"
@@ -427,8 +428,9 @@ ReportSection subgroupSection(const AnalysisSnapshot& s, const ValidationResult&
     const ValidationResult& v = s.validation;
     const std::size_t minimumCell = plan.minimumCell;
     ReportSection section{"6. Subgroups, sites and performance over time", {}, {}, {}, {}, false};
-    if (!v.subgroups && !v.periods)
-        section.paragraphs.push_back("Not part of this analysis (no subgroup or period column).");
+    if (!v.subgroups && !v.periods && !v.sites)
+        section.paragraphs.push_back("Not part of this analysis (no subgroup, period or site column).");
+    addSitePooling(section, shown);
     if (v.subgroups)
         // Every column and model: forests of C, O/E and slope, the curves by level, the funnel.
         for (std::size_t column = 0; s.cohort && column < s.cohort->groups.size(); ++column)

@@ -195,3 +195,25 @@ TEST_CASE("A query's SQLite file is found relative to the analysis file, and a r
     CHECK(changed->starts_with("The query's result has changed since the analysis was saved"));
     fs::remove_all(moved);
 }
+
+TEST_CASE("An analysis file keeps the site column so a pooled analysis re-runs", "[analysis][cluster]")
+{
+    const fs::path dir = scratch("cluster");
+    AnalysisFile a = analysisOf(dir);
+    a.intake.clusterColumn = std::string("hospital");
+    a.panel.acceptable = {0.65, 0.85, 1.15, 0.7, 1.3};
+    a.bootstrap.seed = 77;
+    REQUIRE(saveAnalysisFile((dir / "a.plumbline.json").string(), a));
+    std::vector<std::string> warnings;
+    const auto b = loadAnalysisFile((dir / "a.plumbline.json").string(), warnings);
+    REQUIRE(b);
+    CHECK(b->intake.clusterColumn == std::optional<std::string>("hospital"));
+    CHECK(b->panel.acceptable == a.panel.acceptable);
+    CHECK(b->panel.simulationSeed == 77); // the draws for a new site use the saved seed
+    a.intake.clusterColumn.reset();
+    REQUIRE(saveAnalysisFile((dir / "b.plumbline.json").string(), a));
+    const auto c = loadAnalysisFile((dir / "b.plumbline.json").string(), warnings);
+    REQUIRE(c);
+    CHECK_FALSE(c->intake.clusterColumn);
+    fs::remove_all(dir);
+}

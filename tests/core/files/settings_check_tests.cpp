@@ -53,3 +53,38 @@ TEST_CASE("Every setting out of its range is refused naming it where it was give
     a.addUpdated = "bogus";
     CHECK(refusal(a).find("--add-updated") != std::string::npos);
 }
+
+TEST_CASE("A site column that is empty or the outcome or a score is refused", "[settings][cluster]")
+{
+    AnalysisFile a;
+    a.intake.outcomeColumn = "y";
+    a.intake.scoreColumns = {"p"};
+    a.intake.clusterColumn = std::string("hospital");
+    CHECK(refusal(a).empty());
+    a.intake.clusterColumn = std::string();
+    CHECK(refusal(a).find("--cluster names no column") != std::string::npos);
+    CHECK(refusal(a, SettingsSource::AnalysisFile).find("key 'columns.cluster'") != std::string::npos);
+    a.intake.clusterColumn = std::string("p");
+    CHECK(refusal(a).find("--cluster names the outcome or a score column") != std::string::npos);
+    a.intake.clusterColumn = std::string("y");
+    CHECK(refusal(a, SettingsSource::Window).find("Site column: names the outcome") != std::string::npos);
+}
+
+TEST_CASE("Acceptability criteria out of range are refused naming where they were given", "[settings][cluster]")
+{
+    AnalysisFile a;
+    a.panel.acceptable.oeLow = 1.3; // above oeHigh
+    CHECK(refusal(a).find("--acceptable takes oe as low:high") != std::string::npos);
+    CHECK(refusal(a, SettingsSource::AnalysisFile).find("key 'options.acceptable'") != std::string::npos);
+    a = {};
+    a.panel.acceptable.cMinimum = 1.0;
+    CHECK(refusal(a, SettingsSource::Window).find("Acceptable in a new site: takes c") != std::string::npos);
+    // The parser reads what a person types, with the same words (core/intake/acceptable_criteria).
+    const auto parsed = parseAcceptableCriteria(" slope = 0.9:1.1 , c=0.75", "--acceptable");
+    REQUIRE(parsed);
+    CHECK(parsed->cMinimum == 0.75);
+    CHECK(parsed->slopeLow == 0.9);
+    CHECK(parsed->oeLow == 0.8); // not named: the default
+    CHECK(parseAcceptableCriteria(acceptableCriteriaText(*parsed), "x").value() == *parsed);
+    CHECK(parseAcceptableCriteria("oe=0.8:", "--acceptable").error().problem.find("low:high") != std::string::npos);
+}

@@ -3,6 +3,7 @@
 #include "report/report_writers.hpp"
 #include "files/result_json.hpp"
 #include "reporting/value_text.hpp"
+#include "report/report_charts.hpp"
 
 #include <QDir>
 #include <QFile>
@@ -86,6 +87,47 @@ QString pdfText(const SnapshotPointer& snapshot, const ReportDocument& document,
 class ReportWritersTests : public QObject {
     Q_OBJECT
 private slots:
+    void theSitesPartShowsThePooledNumbersAndWithholdsSmallSites()
+    {
+        // The sample cohort by hospital: the report's tables carry the core's pooled values, and
+        // a small-cell rule above every hospital's size leaves no site estimate of its own.
+        IntakeSettings intake;
+        intake.cohortFile = PLUMBLINE_SAMPLE_DATA "/readmissions.csv";
+        intake.outcomeColumn = "readmitted_30d";
+        intake.scoreColumns = {"supplier_score", "local_score"};
+        intake.clusterColumn = "hospital";
+        auto result = runIntake(intake);
+        QVERIFY(result.has_value());
+        auto snapshot = std::make_shared<AnalysisSnapshot>();
+        snapshot->request.intake = intake;
+        snapshot->validation = runValidation(result->cohort, snapshot->request.panel);
+        snapshot->audit = result->audit;
+        snapshot->inputs = result->inputs;
+        snapshot->cohort = std::make_shared<const Cohort>(std::move(result->cohort));
+        auto tableOf = [](const ReportDocument& d, const std::string& id) -> const ReportTable* {
+            for (const ReportTable* t : d.tables())
+                if (t->id == id)
+                    return t;
+            return nullptr;
+        };
+        const ReportDocument document = buildReport(*snapshot, {}, 11, "2026-01-01T00:00:00Z");
+        const ReportTable* pooled = tableOf(document, "site_pooling");
+        const ReportTable* sites = tableOf(document, "site_estimates");
+        QVERIFY(pooled && sites);
+        const SitePooling& s = *snapshot->validation.sites;
+        const PooledMeasure& c = s.models[0].measures[0];
+        QCOMPARE(pooled->rows[0][3].text, fixedText(*c.pooled, 3));
+        QCOMPARE(int(sites->rows.size()), 2 * 3 * int(s.sites)); // 2 models, 3 measures, every hospital above the rule
+        const ReportDocument strict = buildReport(*snapshot, {}, 100000, "2026-01-01T00:00:00Z");
+        QVERIFY(tableOf(strict, "site_estimates")->rows.empty());
+        QVERIFY(tableOf(strict, "site_estimates")->note.find("estimate withheld in reports") != std::string::npos);
+        QCOMPARE(tableOf(strict, "site_pooling")->rows[0][3].text, fixedText(*c.pooled, 3));
+        // The forest chart is drawn by the window's own view.
+        ReportCharts charts(snapshotForReport(*snapshot, 11));
+        QVERIFY(charts.svg({ReportChart::SiteC, 1}).contains("<svg"));
+        QVERIFY(charts.caption({ReportChart::SiteOe, 1}).contains(QStringLiteral("local_score")));
+    }
+
     void outlineUpdateKeepsEveryOffsetRightAndLeavesUnreadableFilesAlone()
     {
         // A minimal classic PDF (PDF 1.7 reference, 7.5): catalog 1, pages 2, one page 3.

@@ -1,0 +1,201 @@
+#include "analyses/site_pooling.hpp"
+
+#include "metrics/discrimination.hpp"
+#include "metrics/distributions.hpp"
+#include "metrics/logistic_recalibration.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <numeric>
+
+namespace plumbline {
+
+namespace {
+
+constexpr const char* missingLevel = "(missing)";
+constexpr std::size_t mostLeftOutNotes = 20;
+
+double expit(double x)
+{
+    return 1.0 / (1.0 + std::exp(-x));
+}
+
+// A site's rows, as the outcome and each model's scores gathered together.
+struct SiteRows {
+    std::string name;
+    std::vector<std::uint8_t> outcome;
+    std::vector<std::vector<double>> scores; // per model
+};
+
+std::vector<SiteRows> gatherSites(const Cohort& cohort, const CategoricalColumn& cluster, std::size_t& missingRows)
+{
+    std::vector<std::uint32_t> codes(cluster.levels.size());
+    std::iota(codes.begin(), codes.end(), 0u);
+    // Sites in name order, as the subgroups list their levels.
+    std::sort(codes.begin(), codes.end(), [&](auto a, auto b) { return cluster.levels[a] < cluster.levels[b]; });
+    std::vector<std::size_t> slot(cluster.levels.size(), SIZE_MAX);
+    std::vector<SiteRows> sites;
+    for (const std::uint32_t code : codes) {
+        if (cluster.levels[code] == missingLevel)
+            continue;
+        slot[code] = sites.size();
+        sites.push_back({cluster.levels[code], {}, std::vector<std::vector<double>>(cohort.models.size())});
+    }
+    missingRows = 0;
+    for (std::size_t i = 0; i < cohort.rows(); ++i) {
+        const std::size_t s = slot[cluster.codes[i]];
+        if (s == SIZE_MAX) {
+            ++missingRows;
+            continue;
+        }
+        sites[s].outcome.push_back(cohort.outcome[i]);
+        for (std::size_t m = 0; m < cohort.models.size(); ++m)
+            sites[s].scores[m].push_back(cohort.models[m].values[i]);
+    }
+    return sites;
+}
+
+PooledMeasure pooledMeasure(std::string measure, std::string scale, std::vector<SiteEstimate> sites, std::vector<std::string> leftOut,
+                            std::size_t sitesLeftOut, double confidence)
+{
+    PooledMeasure out;
+    out.measure = std::move(measure);
+    out.scale = std::move(scale);
+    out.sites = std::move(sites);
+    out.leftOut = std::move(leftOut);
+    out.sitesLeftOut = sitesLeftOut;
+    if (out.sites.size() < 2)
+        return out;
+    std::vector<double> y, v;
+    for (const auto& s : out.sites) {
+        y.push_back(s.pooledScale);
+        v.push_back(s.se * s.se);
+    }
+    out.pool = poolRandomEffects(y, v, confidence);
+    const auto back = [&](double x) { return out.scale == "logit" ? expit(x) : out.scale == "log" ? std::exp(x) : x; };
+    out.pooled = back(out.pool->pooled);
+    out.hksjLower = back(out.pool->hksjLower);
+    out.hksjUpper = back(out.pool->hksjUpper);
+    if (out.pool->predictionLower) {
+        out.predictionLower = back(*out.pool->predictionLower);
+        out.predictionUpper = back(*out.pool->predictionUpper);
+    }
+    return out;
+}
+
+} // namespace
+
+SiteMeasures measureSite(std::span<const std::uint8_t> outcome, std::span<const double> scores, ScoreScale scale)
+{
+    SiteMeasures out;
+    const std::size_t n = outcome.size();
+    const std::size_t events = std::accumulate(outcome.begin(), outcome.end(), std::size_t{0});
+    if (events < 2 || n - events < 2) {
+        out.cProblem = "fewer than 2 events or non-events";
+    } else {
+        // DeLong SE of C, moved to the logit scale by the delta method: SE/(C(1 − C)) (§4, §20).
+        const Estimate c = cStatistic(outcome, scores, CStatisticScale::Logit, 0.95);
+        if (!c.value || !c.se || *c.value <= 0.0 || *c.value >= 1.0 || !(*c.se > 0.0))
+            out.cProblem = "C is 0 or 1, so its logit is undefined";
+        else {
+            out.logitC = std::log(*c.value / (1.0 - *c.value));
+            out.logitCSe = *c.se / (*c.value * (1.0 - *c.value));
+        }
+    }
+    if (!scaleIsProbabilistic(scale)) {
+        out.oeProblem = out.slopeProblem = "the scores are points, not risks";
+        return out;
+    }
+    const double expected = std::accumulate(scores.begin(), scores.end(), 0.0);
+    if (events == 0)
+        out.oeProblem = "no events, so log O/E is undefined";
+    else if (events == n)
+        out.oeProblem = "every patient had the event, so log O/E has no variance";
+    else if (!(expected > 0.0))
+        out.oeProblem = "every risk is 0";
+    else {
+        // SE(ln O/E) = √(1/O − 1/N), as the panel's O/E interval (§8).
+        out.logOe = std::log(double(events) / expected);
+        out.logOeSe = std::sqrt(1.0 / double(events) - 1.0 / double(n));
+    }
+    if (events == 0 || events == n) {
+        out.slopeProblem = "one outcome class only";
+        return out;
+    }
+    const std::vector<double> lp = clampedLogits(scores);
+    std::vector<std::uint8_t> included(n);
+    for (std::size_t i = 0; i < n; ++i)
+        included[i] = contradictsOutcome(scores[i], outcome[i] != 0) ? 0 : 1;
+    if (const auto fit = fitCalibrationSlope(outcome, lp, included); fit && fit->slopeSe > 0.0 && std::isfinite(fit->slopeSe)) {
+        out.slope = fit->slope;
+        out.slopeSe = fit->slopeSe;
+    } else {
+        out.slopeProblem = "the slope cannot be fitted (separation, or one risk for every patient)";
+    }
+    return out;
+}
+
+SitePooling analyseSites(const Cohort& cohort, const CategoricalColumn& cluster, const PanelSettings& settings)
+{
+    SitePooling out;
+    out.column = cluster.name;
+    out.criteria = settings.acceptable;
+    const std::vector<SiteRows> sites = gatherSites(cohort, cluster, out.missingRows);
+    out.sites = sites.size();
+    if (out.missingRows > 0)
+        out.warnings.push_back(std::to_string(out.missingRows) + " rows have no value in the site column '" + cluster.name
+                               + "' and are left out of the pooling across sites.");
+    if (sites.size() < 2)
+        out.warnings.push_back("Pooling across sites needs at least 2 sites in column '" + cluster.name + "'; it has "
+                               + std::to_string(sites.size()) + ".");
+    else if (sites.size() < fewestSitesForTau2)
+        out.warnings.push_back("Only " + std::to_string(sites.size()) + " sites in column '" + cluster.name
+                               + "': the between-site variance τ² is poorly estimated below 5 sites (common practice), so the "
+                                 "pooled intervals and the prediction interval are uncertain.");
+    const double z = zForConfidence(settings.confidence);
+    for (std::size_t m = 0; m < cohort.models.size(); ++m) {
+        ModelSitePooling model;
+        model.model = cohort.models[m].name;
+        std::vector<SiteEstimate> c, oe, slope;
+        std::vector<std::string> cOut, oeOut, slopeOut;
+        std::size_t cLeft = 0, oeLeft = 0, slopeLeft = 0;
+        for (const SiteRows& site : sites) {
+            const std::size_t n = site.outcome.size();
+            const std::size_t events = std::accumulate(site.outcome.begin(), site.outcome.end(), std::size_t{0});
+            const SiteMeasures measures = measureSite(site.outcome, site.scores[m], cohort.scale);
+            // At most 20 notes a measure: a site column with a site per row must not fill the result.
+            const auto note = [&](std::vector<std::string>& list, std::size_t& count, const std::string& why) {
+                ++count;
+                if (list.size() < mostLeftOutNotes)
+                    list.push_back(site.name + ": " + why + ".");
+                else if (list.size() == mostLeftOutNotes)
+                    list.push_back("and other sites.");
+            };
+            if (measures.logitC)
+                c.push_back({site.name, n, events, expit(*measures.logitC), expit(*measures.logitC - z * *measures.logitCSe),
+                             expit(*measures.logitC + z * *measures.logitCSe), *measures.logitC, *measures.logitCSe});
+            else
+                note(cOut, cLeft, measures.cProblem);
+            if (measures.logOe)
+                oe.push_back({site.name, n, events, std::exp(*measures.logOe), std::exp(*measures.logOe - z * *measures.logOeSe),
+                              std::exp(*measures.logOe + z * *measures.logOeSe), *measures.logOe, *measures.logOeSe});
+            else if (scaleIsProbabilistic(cohort.scale))
+                note(oeOut, oeLeft, measures.oeProblem);
+            if (measures.slope)
+                slope.push_back({site.name, n, events, *measures.slope, *measures.slope - z * *measures.slopeSe,
+                                 *measures.slope + z * *measures.slopeSe, *measures.slope, *measures.slopeSe});
+            else if (scaleIsProbabilistic(cohort.scale))
+                note(slopeOut, slopeLeft, measures.slopeProblem);
+        }
+        model.measures.push_back(pooledMeasure("c_statistic", "logit", std::move(c), std::move(cOut), cLeft, settings.confidence));
+        if (scaleIsProbabilistic(cohort.scale)) {
+            model.measures.push_back(pooledMeasure("oe_ratio", "log", std::move(oe), std::move(oeOut), oeLeft, settings.confidence));
+            model.measures.push_back(pooledMeasure("calibration_slope", "identity", std::move(slope), std::move(slopeOut), slopeLeft, settings.confidence));
+        }
+        model.acceptability = newSiteAcceptability(model.measures, settings.acceptable, settings.simulationSeed);
+        out.models.push_back(std::move(model));
+    }
+    return out;
+}
+
+} // namespace plumbline
