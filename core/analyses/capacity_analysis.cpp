@@ -148,7 +148,7 @@ std::expected<CapacityAnalysis, InputError> analyseCapacity(const Cohort& cohort
     InputError error;
     error.problem = "--capacity " + out.text + " counts patients per " + (spec.unit == CapacitySpec::Unit::Day ? "day" : spec.unit == CapacitySpec::Unit::Week ? "week" : "month")
                     + " and needs the cohort's dates to know how many that is.";
-    error.remedy = "name a date column with --period (Settings → Period column in the window), or give the capacity as a share, e.g. 10%.";
+    error.remedy = "name a date column with --period (in the window: Period (date) column when opening the file), or give the capacity as a share, e.g. 10%.";
     // The dates: each level once, then the rows' span and the periods that hold rows.
     std::vector<std::optional<DatedLevel>> levels;
     if (cohort.period) {

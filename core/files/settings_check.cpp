@@ -149,7 +149,7 @@ std::expected<void, InputError> checkAnalysisSettings(const AnalysisFile& a, Set
         // A rate becomes a number of patients only over the cohort's dates.
         if (!share && !a.intake.periodColumn)
             return check.refuse(Setting::Capacity, capacityText(*c), "counts patients per unit of time and needs the cohort's dates.",
-                                "name a date column with --period (Settings → Period column in the window), or give a share such as 10%.");
+                                "name a date column with --period (in the window: Period (date) column when opening the file), or give a share such as 10%.");
     }
     if (a.intake.maxLineBytes < L::minLineBytes || a.intake.maxLineBytes > L::maxLineBytes)
         return check.refuse(Setting::MaxLineBytes, std::to_string(a.intake.maxLineBytes), "must lie between 1024 and 1073741824 bytes.",

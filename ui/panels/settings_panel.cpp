@@ -2,6 +2,7 @@
 
 #include "intake/option_lists.hpp"
 #include "files/settings_check.hpp"
+#include "analyses/capacity_spec.hpp"
 
 #include <QCheckBox>
 #include <QComboBox>
@@ -64,6 +65,7 @@ SettingsPanel::SettingsPanel(QWidget* parent)
     , m_minimumCell(new QSpinBox)
     , m_periodUnit(new QComboBox)
     , m_dateFormat(new QComboBox)
+    , m_capacity(textField(24))
     , m_problem(new QLabel)
 {
     auto* boxes = new QWidget;
@@ -133,6 +135,9 @@ QWidget* SettingsPanel::buildAnalysisBox()
     form->addRow(tr("Decision curve r&ange:"), m_decisionRange);
     form->addRow(tr("Over time, &by:"), m_periodUnit);
     form->addRow(tr("Dates &written as:"), m_dateFormat);
+    m_capacity->setPlaceholderText(tr("e.g. 10% or 40/week (needs a period column); empty: none"));
+    m_capacity->setToolTip(tr("The patients the team can act on: the run adds the threshold that flags that many, per model and period"));
+    form->addRow(tr("Capacit&y:"), m_capacity);
     form->addRow(tr("Suppress counts &below:"), m_minimumCell);
     return box;
 }
@@ -176,6 +181,7 @@ void SettingsPanel::setRequest(const AnalysisRequest& request)
     m_minimumCell->setValue(int(request.minimumCell));
     m_periodUnit->setCurrentIndex(m_periodUnit->findData(int(request.panel.periodUnit)));
     m_dateFormat->setCurrentIndex(m_dateFormat->findData(request.panel.dateFormat ? int(*request.panel.dateFormat) : -1));
+    m_capacity->setText(request.panel.capacity ? QString::fromStdString(capacityText(*request.panel.capacity)) : QString());
     m_problem->clear();
 }
 
@@ -212,6 +218,15 @@ std::optional<AnalysisRequest> SettingsPanel::request() const
     out.panel.decisionFrom = range->from;
     out.panel.decisionTo = range->to;
     out.panel.decisionStep = range->step;
+    out.panel.capacity.reset();
+    if (const QString capacity = m_capacity->text().trimmed(); !capacity.isEmpty()) {
+        const auto spec = parseCapacity(capacity.toStdString(), "The capacity");
+        if (!spec) {
+            m_problem->setText(QString::fromStdString(spec.error().message()));
+            return std::nullopt;
+        }
+        out.panel.capacity = *spec;
+    }
     // The same bounds as the command line and analysis files (50 thresholds, 1,000 points on
     // the decision curve, …), in the Settings tab's words.
     if (const auto checked = checkAnalysisSettings(out.toAnalysisFile(), SettingsSource::Window); !checked) {

@@ -55,6 +55,7 @@ private:
     QSpinBox* m_minimumCell;
     QComboBox* m_periodUnit;
     QComboBox* m_dateFormat;
+    QLineEdit* m_capacity; // --capacity: empty for none
     QLabel* m_problem;
 };
 

@@ -6,6 +6,7 @@
 #include "support/window_test_support.hpp"
 
 #include "analyses/capacity_analysis.hpp"
+#include "panels/settings_panel.hpp"
 #include "panels/threshold_panel.hpp"
 #include "reporting/cautions.hpp"
 
@@ -137,6 +138,40 @@ private slots:
         const double more = std::round(double(flaggedAt(cohort, 0, lower)) * 7.0 / days * 10.0) / 10.0;
         QCOMPARE(box->text(), QString::fromStdString(capacityText({CapacitySpec::Kind::Rate, more, CapacitySpec::Unit::Week})));
         QVERIFY(more >= 40.0); // the next threshold down flags more than the capacity
+    }
+
+    void theSettingsTabTakesACapacityForTheRunAndRefusesABadOne()
+    {
+        SettingsPanel panel;
+        panel.show();
+        QLineEdit* field = nullptr;
+        for (QLineEdit* f : panel.findChildren<QLineEdit*>())
+            if (f->placeholderText().startsWith(QStringLiteral("e.g. 10%")))
+                field = f;
+        QVERIFY(field);
+        QVERIFY(!panel.request()->panel.capacity); // none by default, as on the command line
+        AnalysisRequest dated = *panel.request();
+        dated.intake.periodColumn = "discharge_date";
+        panel.setRequest(dated);
+        field->setFocus();
+        QTest::keyClicks(field, QStringLiteral("40/week"));
+        QCOMPARE(panel.request()->panel.capacity, parseCapacity("40/week", "x").value());
+        field->clear();
+        QTest::keyClicks(field, QStringLiteral("40/fortnight"));
+        QVERIFY(!panel.request());
+        bool said = false;
+        for (QLabel* label : panel.findChildren<QLabel*>())
+            said = said || label->text().contains(QStringLiteral("'fortnight' is none of them"));
+        QVERIFY(said);
+        // A rate without a period column: the shared settings check asks for one, in the tab's words.
+        panel.setRequest(AnalysisRequest{});
+        field->clear();
+        QTest::keyClicks(field, QStringLiteral("40/week"));
+        QVERIFY(!panel.request());
+        said = false;
+        for (QLabel* label : panel.findChildren<QLabel*>())
+            said = said || label->text().contains(QStringLiteral("Capacity: counts patients per unit of time"));
+        QVERIFY(said);
     }
 };
 
