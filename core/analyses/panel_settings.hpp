@@ -3,6 +3,7 @@
 #include "metrics/discrimination.hpp"
 #include "metrics/estimate.hpp"
 #include "analyses/period_analysis.hpp"
+#include "analyses/monitoring_settings.hpp"
 
 #include <cstddef>
 #include <optional>
@@ -25,6 +26,7 @@ struct PanelSettings {
     std::size_t minimumCell = 11;                  // subgroup levels below this are flagged too small
     PeriodUnit periodUnit = PeriodUnit::Month;
     std::optional<DateFormat> dateFormat;          // nullopt: ISO dates only; ambiguous ones refused
+    MonitoringSettings monitoring;                 // CUSUM and case-mix options over time (with a period column)
 
     const std::vector<double>& cutPoints() const { return nriCutPoints.empty() ? thresholds : nriCutPoints; }
 };

@@ -5,6 +5,7 @@
 #include "analyses/model_validation.hpp"
 #include "analyses/subgroup_results.hpp"
 #include "analyses/panel_settings.hpp"
+#include "analyses/monitoring_analysis.hpp"
 #include "metrics/score_order.hpp"
 
 #include <optional>
@@ -22,6 +23,7 @@ struct ValidationResult {
     std::optional<BootstrapSummary> bootstrap; // empty when intervals are analytic only
     std::optional<SubgroupAnalysis> subgroups; // when the cohort has group columns
     std::optional<PeriodAnalysis> periods;     // when the cohort has a period column
+    std::optional<MonitoringAnalysis> monitoring; // with a period column whose dates read
     struct PrecisionRow {
         std::string model, metric;
         double width = 0.0, target = 0.0; // achieved interval width against a common target

@@ -39,6 +39,7 @@ struct Cohort {
     std::vector<std::string> ids;             // filled only when an id column was given
     std::vector<CategoricalColumn> groups;
     std::optional<DateColumn> period;         // the date texts, dictionary-coded, and their dates as written
+    std::optional<CategoricalColumn> cluster;   // the site of each row (--cluster), "(missing)" a level
     std::vector<std::uint32_t> sourceLines;   // line of each row in the cohort file
 
     std::size_t rows() const { return outcome.size(); }
