@@ -78,6 +78,8 @@ std::expected<AnalysisFile, InputError> AnalysisOptions::resolved(const CLI::App
         if (given("--decision-range")) { p.decisionFrom = panelGiven->decisionFrom; p.decisionTo = panelGiven->decisionTo; p.decisionStep = panelGiven->decisionStep; }
         if (given("--period-unit")) p.periodUnit = panelGiven->periodUnit;
         if (given("--date-format")) p.dateFormat = panelGiven->dateFormat;
+        if (given("--cusum-odds")) { p.monitoring.worseOdds = panelGiven->monitoring.worseOdds; p.monitoring.betterOdds = panelGiven->monitoring.betterOdds; }
+        if (given("--cusum-years")) p.monitoring.targetYears = panelGiven->monitoring.targetYears;
         BootstrapSettings& b = out.bootstrap;
         if (given("--bootstrap")) b.replicates = bootstrapGiven.replicates;
         if (given("--seed")) b.seed = bootstrapGiven.seed;

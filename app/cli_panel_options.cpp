@@ -17,6 +17,8 @@ PanelOptions::PanelOptions()
     decisionRange = riskListText({d.decisionFrom, d.decisionTo, d.decisionStep}, ",");
     periodUnit = d.periodUnit == PeriodUnit::Quarter ? "quarter" : "month";
     dateFormat = !d.dateFormat ? "iso" : *d.dateFormat == DateFormat::DayFirst ? "dmy" : "mdy";
+    cusumOdds = riskListText({d.monitoring.worseOdds, d.monitoring.betterOdds}, ",");
+    cusumYears = d.monitoring.targetYears;
 }
 
 void PanelOptions::addTo(CLI::App& command)
@@ -36,6 +38,8 @@ void PanelOptions::addTo(CLI::App& command)
     command.add_option("--period-unit", periodUnit, "Periods of --period: month or quarter")->check(CLI::IsMember({"month", "quarter"}));
     command.add_option("--date-format", dateFormat, "Dates of --period: iso (YYYY-MM-DD), dmy (DD/MM/YYYY) or mdy (MM/DD/YYYY)")
         ->check(CLI::IsMember({"iso", "dmy", "mdy"}));
+    command.add_option("--cusum-odds", cusumOdds, "Monitoring with --period: odds ratios the two CUSUMs watch for, worse,better (default 2,0.5)");
+    command.add_option("--cusum-years", cusumYears, "Monitoring with --period: in-control run length of the CUSUMs in years of this volume (default 5)");
 }
 
 std::expected<PanelSettings, InputError> PanelOptions::resolved() const
@@ -65,6 +69,12 @@ std::expected<PanelSettings, InputError> PanelOptions::resolved() const
         settings.dateFormat = DateFormat::DayFirst;
     else if (dateFormat == "mdy")
         settings.dateFormat = DateFormat::MonthFirst;
+    const auto odds = parseOddsRatioPair(cusumOdds, "--cusum-odds");
+    if (!odds)
+        return std::unexpected(odds.error());
+    settings.monitoring.worseOdds = odds->worse;
+    settings.monitoring.betterOdds = odds->better;
+    settings.monitoring.targetYears = cusumYears;
     return settings;
 }
 

@@ -26,6 +26,8 @@ struct PanelOptions {
     std::string decisionRange;
     std::string periodUnit;
     std::string dateFormat;
+    std::string cusumOdds;
+    double cusumYears;
 
     void addTo(CLI::App& command);
     std::expected<PanelSettings, InputError> resolved() const;

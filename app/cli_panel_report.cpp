@@ -1,5 +1,7 @@
 #include "cli_panel_report.hpp"
 
+#include "cli_monitoring_report.hpp"
+
 #include "metrics/metric_reading.hpp"
 #include "reporting/value_text.hpp"
 
@@ -247,6 +249,7 @@ void printPanel(std::ostream& out, const ValidationResult& result)
     printDecisionCurves(out, result);
     printSubgroups(out, result);
     printPeriods(out, result);
+    printMonitoring(out, result);
     printPrecision(out, result);
     if (!result.warnings.empty()) {
         out << "\nWarnings:\n";

@@ -1,5 +1,6 @@
 #include "files/validation_json.hpp"
 
+#include "files/monitoring_json.hpp"
 #include "resampling/interval_choice.hpp"
 
 #include <algorithm>
@@ -268,6 +269,7 @@ void addUsefulnessFairnessDriftJson(Json& json, const ValidationResult& result)
         json["periods"] = Json::array();
         json["period_reference"] = nullptr;
     }
+    json["monitoring"] = result.monitoring ? monitoringJson(*result.monitoring) : Json(nullptr);
     Json precision = Json::array();
     for (const auto& p : result.precision)
         precision.push_back({{"model", p.model}, {"metric", p.metric}, {"interval_width", p.width}, {"common_target", p.target},
