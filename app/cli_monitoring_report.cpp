@@ -34,11 +34,11 @@ void printMonitoring(std::ostream& out, const ValidationResult& result)
             out << "    CUSUM " << cusumDirectionKey(chart.direction) << " (OR " << fixed(chart.oddsRatio, 2) << "): h " << fixed(chart.limit.limit, 2)
                 << ", in-control run length " << fixed(chart.limit.averageRunLength, 0) << " ± " << fixed(chart.limit.standardError, 0)
                 << " patients (target " << fixed(chart.targetRunLength, 0) << ", " << chart.limit.runs << " runs, seed " << chart.seed << ")"
-                << (chart.limit.reached ? "" : " [target not reached]") << "; " << chart.signals.size() << " signal"
-                << (chart.signals.size() == 1 ? "" : "s");
-            if (!chart.signals.empty())
-                out << ", last on " << chart.signals.back().date
-                    << (chart.signals.back().site.empty() || !scope.site.empty() ? "" : " at " + chart.signals.back().site);
+                << (chart.limit.reached ? "" : " [target not reached]") << "; " << chart.signalList.size() << " signal"
+                << (chart.signalList.size() == 1 ? "" : "s");
+            if (!chart.signalList.empty())
+                out << ", last on " << chart.signalList.back().date
+                    << (chart.signalList.back().site.empty() || !scope.site.empty() ? "" : " at " + chart.signalList.back().site);
             out << '\n';
         }
         if (scope.latestYearPsi)

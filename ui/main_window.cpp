@@ -17,6 +17,7 @@
 #include "intake/option_lists.hpp"
 #include "panels/overview_panel.hpp"
 #include "panels/period_panel.hpp"
+#include "panels/monitoring_panel.hpp"
 #include "dialogs/planner_dialog.hpp"
 #include "charts/roc_chart_view.hpp"
 #include "panels/risk_groups_panel.hpp"
@@ -74,6 +75,7 @@ MainWindow::MainWindow(QWidget* parent)
     , m_decision(new DecisionCurveView)
     , m_subgroups(new SubgroupPanel)
     , m_periods(new PeriodPanel)
+    , m_monitoring(new MonitoringPanel)
     , m_settings(new SettingsPanel)
     , m_tabs(new QTabWidget)
     , m_toggles(new QHBoxLayout)
@@ -228,6 +230,7 @@ QWidget* MainWindow::buildCentralArea()
     m_tabs->addTab(m_decision, tr("&Net benefit"));
     m_tabs->addTab(m_subgroups, tr("Su&bgroups"));
     m_tabs->addTab(m_periods, tr("Over &time"));
+    m_tabs->addTab(m_monitoring, tr("Mon&itoring"));
     m_tabs->addTab(m_updating, tr("&Updating"));
     m_tabs->addTab(m_cohort, tr("C&ohort"));
     m_tabs->addTab(m_settings, tr("&Settings"));
@@ -297,6 +300,7 @@ void MainWindow::resetLayout()
     m_riskGroups->resetLayout();
     m_subgroups->resetLayout();
     m_periods->resetLayout();
+    m_monitoring->resetLayout();
     m_tabs->setCurrentIndex(0);
 }
 
@@ -357,6 +361,7 @@ void MainWindow::showSnapshot(SnapshotPointer snapshot, bool complete)
         [this] { m_decision->setSnapshot(m_snapshot); },
         [this] { m_subgroups->setSnapshot(m_snapshot); },
         [this] { m_periods->setSnapshot(m_snapshot); },
+        [this] { m_monitoring->setSnapshot(m_snapshot); },
         [this] {
             rebuildModelToggles();
             setThreshold(m_threshold->threshold());

@@ -28,6 +28,7 @@ class ExportableChartView;
 class MetricTableModel;
 class OverviewPanel;
 class PeriodPanel;
+class MonitoringPanel;
 class RiskDistributionView;
 class RiskGroupTableModel;
 class RiskGroupsPanel;
@@ -90,6 +91,7 @@ public:
     DecisionCurveView* decisionCurveView() const { return m_decision; }
     SubgroupPanel* subgroupPanel() const { return m_subgroups; }
     PeriodPanel* periodPanel() const { return m_periods; }
+    MonitoringPanel* monitoringPanel() const { return m_monitoring; }
     UpdatingPanel* updatingPanel() const { return m_updating; }
     SettingsPanel* settingsPanel() const { return m_settings; }
     QCheckBox* modelToggle(int model) const;
@@ -138,6 +140,7 @@ private:
     DecisionCurveView* m_decision;
     SubgroupPanel* m_subgroups;
     PeriodPanel* m_periods;
+    MonitoringPanel* m_monitoring;
     SettingsPanel* m_settings;
     QTabWidget* m_tabs;
     QHBoxLayout* m_toggles;

@@ -120,7 +120,7 @@ CusumChart cusumChart(CusumDirection direction, double oddsRatio, const std::vec
     const CusumRun run = runCusum(p, y, oddsRatio, chart.limit.limit);
     chart.path = thinPath(run.values, settings.chartPoints);
     for (std::size_t k = 0; k < run.signals.size(); ++k)
-        chart.signals.push_back({run.signals[k] + 1, {}, {}, direction, run.sinceReset[k]});
+        chart.signalList.push_back({run.signals[k] + 1, {}, {}, direction, run.sinceReset[k]});
     return chart;
 }
 
@@ -205,7 +205,7 @@ MonitoringAnalysis analyseMonitoring(const Cohort& cohort, const DateColumn& dat
         scope.charts.push_back(cusumChart(CusumDirection::Worse, settings.worseOdds, p, y, target, settings));
         scope.charts.push_back(cusumChart(CusumDirection::Better, settings.betterOdds, p, y, target, settings));
         for (auto& chart : scope.charts)
-            for (auto& signal : chart.signals) {
+            for (auto& signal : chart.signalList) {
                 const std::uint32_t row = rows[signal.patient - 1];
                 signal.date = isoDate(input.sequence.days[signal.patient - 1]);
                 if (cohort.cluster)

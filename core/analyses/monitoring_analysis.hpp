@@ -37,7 +37,7 @@ struct CusumChart {
     std::uint64_t seed = 0;
     ControlLimit limit;
     std::vector<PathPoint> path;       // thinned S_t
-    std::vector<CusumSignal> signals;
+    std::vector<CusumSignal> signalList; // not "signals": a Qt keyword in the window
 };
 
 struct CaseMixRow {

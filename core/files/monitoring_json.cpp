@@ -26,7 +26,7 @@ Json riskAndRateJson(const RiskAndRate& r)
 Json chartJson(const CusumChart& chart)
 {
     Json signals = Json::array();
-    for (const auto& s : chart.signals)
+    for (const auto& s : chart.signalList)
         signals.push_back({{"patient", s.patient}, {"date", s.date}, {"site", s.site.empty() ? Json(nullptr) : Json(s.site)},
                            {"patients_since_reset", s.patientsSinceReset}});
     return {{"chart", cusumDirectionKey(chart.direction)},

@@ -151,17 +151,17 @@ TEST_CASE("Monitoring's charts are the recursions on the dated sequence, per sit
             s = std::max(0.0, s + y[i] * std::log(chart.oddsRatio) - std::log(1.0 - p[i] + chart.oddsRatio * p[i]));
             ++since;
             if (s >= chart.limit.limit) {
-                REQUIRE(k < chart.signals.size());
-                CHECK(chart.signals[k].patient == i + 1);
-                CHECK(chart.signals[k].patientsSinceReset == since);
-                CHECK(chart.signals[k].date == isoDate(19723 + day[i]));
-                CHECK(chart.signals[k].site == site[i]);
+                REQUIRE(k < chart.signalList.size());
+                CHECK(chart.signalList[k].patient == i + 1);
+                CHECK(chart.signalList[k].patientsSinceReset == since);
+                CHECK(chart.signalList[k].date == isoDate(19723 + day[i]));
+                CHECK(chart.signalList[k].site == site[i]);
                 ++k;
                 s = 0.0;
                 since = 0;
             }
         }
-        CHECK(k == chart.signals.size());
+        CHECK(k == chart.signalList.size());
     }
     CHECK(all.charts[0].direction == CusumDirection::Worse);
     CHECK(all.charts[0].oddsRatio == 2.0);
@@ -182,7 +182,7 @@ TEST_CASE("Monitoring's charts are the recursions on the dated sequence, per sit
     for (std::size_t i = 0; i < p.size(); i += 2)
         vn += p[i] - y[i];
     CHECK_THAT(north.finalExpectedMinusObserved, WithinAbs(vn, 1e-9));
-    for (const auto& signal : north.charts[0].signals)
+    for (const auto& signal : north.charts[0].signalList)
         CHECK(signal.site == "North");
 }
 
@@ -213,7 +213,7 @@ TEST_CASE("A deterioration of odds ratio 2 from a date is signalled after it and
         const Cohort cohort = simulatedCohort(s, 1000 + series);
         settings.seed = 500 + series;
         const MonitoringAnalysis m = analyseMonitoring(cohort, *cohort.period, DateFormat::Iso, PeriodUnit::Month, 0.95, 11, settings);
-        const auto& signals = m.scopes.at(0).charts.at(0).signals;
+        const auto& signals = m.scopes.at(0).charts.at(0).signalList;
         const bool before = std::any_of(signals.begin(), signals.end(), [](const CusumSignal& x) { return x.date < "2024-12-31"; });
         const bool after = std::any_of(signals.begin(), signals.end(), [](const CusumSignal& x) { return x.date >= "2024-12-31"; });
         falseBefore += before ? 1 : 0;
