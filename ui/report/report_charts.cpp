@@ -5,7 +5,9 @@
 #include "charts/funnel_chart_view.hpp"
 #include "charts/forest_chart_view.hpp"
 #include "charts/level_calibration_view.hpp"
+#include "charts/monitoring_path_view.hpp"
 #include "charts/period_chart_view.hpp"
+#include "panels/monitoring_panel.hpp"
 #include "panels/period_panel.hpp"
 #include "panels/subgroup_panel.hpp"
 #include "charts/roc_chart_view.hpp"
@@ -26,12 +28,14 @@ ReportCharts::ReportCharts(const SnapshotPointer& snapshot, std::optional<double
     , m_decision(std::make_unique<DecisionCurveView>())
     , m_subgroups(std::make_unique<SubgroupPanel>())
     , m_periods(std::make_unique<PeriodPanel>())
+    , m_monitoring(std::make_unique<MonitoringPanel>())
 {
     m_roc->setSnapshot(snapshot);
     m_calibration->setSnapshot(snapshot);
     m_decision->setSnapshot(snapshot);
     m_subgroups->setSnapshot(snapshot);
     m_periods->setSnapshot(snapshot);
+    m_monitoring->setSnapshot(snapshot);
     m_threshold = threshold.value_or(snapshot ? snapshot->request.panel.decisionThreshold : PanelSettings{}.decisionThreshold);
     m_roc->setThreshold(m_threshold);
     m_calibration->setThreshold(m_threshold);
@@ -54,6 +58,11 @@ ExportableChartView* ReportCharts::view(const ReportChartRef& chart) const
         m_periods->modelPicker()->setCurrentIndex(chart.choice);
         return settled(v);
     };
+    auto monitoring = [&](auto* v) -> ExportableChartView* {
+        m_monitoring->scopePicker()->setCurrentIndex(0); // the whole cohort
+        m_monitoring->modelPicker()->setCurrentIndex(chart.choice);
+        return settled(v);
+    };
     switch (chart.kind) {
     case ReportChart::Roc: return m_roc.get();
     case ReportChart::Calibration: return m_calibration.get();
@@ -65,6 +74,9 @@ ExportableChartView* ReportCharts::view(const ReportChartRef& chart) const
     case ReportChart::SubgroupFunnel: return subgroup(m_subgroups->funnelChart());
     case ReportChart::OverTimeC: return overTime(m_periods->cChart());
     case ReportChart::OverTimeOe: return overTime(m_periods->oeChart());
+    case ReportChart::MonitoringExpectedMinusObserved: return monitoring(m_monitoring->expectedMinusObservedChart());
+    case ReportChart::MonitoringWorse: return monitoring(m_monitoring->worseChart());
+    case ReportChart::MonitoringBetter: return monitoring(m_monitoring->betterChart());
     }
     return m_roc.get();
 }
@@ -107,6 +119,15 @@ QString ReportCharts::caption(const ReportChartRef& chart) const
     case ReportChart::OverTimeOe:
         return QStringLiteral("O/E by period for %1, oldest first; the band is the first year's interval. Periods whose counts "
                               "are suppressed are drawn without a value.").arg(model);
+    case ReportChart::MonitoringExpectedMinusObserved:
+        return QStringLiteral("Cumulative expected minus observed events for %1, all patients in date order; above zero, fewer "
+                              "events than predicted.").arg(model);
+    case ReportChart::MonitoringWorse:
+        return QStringLiteral("CUSUM watching for worse outcomes than %1 predicts (odds ratio above 1), all patients; the dashed "
+                              "line is the control limit h, squares mark signals, after which the chart restarts.").arg(model);
+    case ReportChart::MonitoringBetter:
+        return QStringLiteral("CUSUM watching for better outcomes than %1 predicts (odds ratio below 1), all patients; the dashed "
+                              "line is the control limit h, squares mark signals, after which the chart restarts.").arg(model);
     }
     return {};
 }

@@ -19,6 +19,7 @@ class CalibrationChartView;
 class DecisionCurveView;
 class ExportableChartView;
 class PeriodPanel;
+class MonitoringPanel;
 class RocChartView;
 class SubgroupPanel;
 
@@ -54,6 +55,7 @@ private:
     std::unique_ptr<DecisionCurveView> m_decision;
     std::unique_ptr<SubgroupPanel> m_subgroups;
     std::unique_ptr<PeriodPanel> m_periods;
+    std::unique_ptr<MonitoringPanel> m_monitoring;
 };
 
 } // namespace plumbline

@@ -53,7 +53,8 @@ ReportTable dataColumns(const ReportTable& table);
 enum class ReportChart {
     Roc, Calibration, DecisionCurve,
     SubgroupC, SubgroupOe, SubgroupSlope, SubgroupCalibration, SubgroupFunnel, // per subgroup column and model
-    OverTimeC, OverTimeOe                                                      // per model
+    OverTimeC, OverTimeOe,                                                     // per model
+    MonitoringExpectedMinusObserved, MonitoringWorse, MonitoringBetter         // per model, the whole cohort
 };
 
 // One chart of a report: its kind and, for the subgroup charts, which column and model (the
