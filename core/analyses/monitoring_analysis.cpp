@@ -117,8 +117,9 @@ CusumChart cusumChart(CusumDirection direction, double oddsRatio, const std::vec
     chart.targetRunLength = std::min(target, largest);
     simulation.targetRunLength = chart.targetRunLength;
     chart.limit = chooseControlLimit(p, simulation);
-    const CusumRun run = runCusum(p, y, oddsRatio, chart.limit.limit);
-    chart.path = thinPath(run.values, settings.chartPoints);
+    PathThinner path(p.size(), settings.chartPoints);
+    const CusumRun run = runCusum(p, y, oddsRatio, chart.limit.limit, [&](double s) { path.add(s); });
+    chart.path = path.points();
     for (std::size_t k = 0; k < run.signals.size(); ++k)
         chart.signalList.push_back({run.signals[k] + 1, {}, {}, direction, run.sinceReset[k]});
     return chart;
@@ -198,9 +199,9 @@ MonitoringAnalysis analyseMonitoring(const Cohort& cohort, const DateColumn& dat
         // that a cohort of a single day does not ask for an endless simulation.
         const double span = std::max(double(input.sequence.days.back() - input.sequence.days.front() + 1), daysPerYear / 12.0);
         scope.patientsPerYear = double(rows.size()) / (span / daysPerYear);
-        const std::vector<double> vlad = cumulativeExpectedMinusObserved(p, y);
-        scope.finalExpectedMinusObserved = vlad.back();
-        scope.expectedMinusObserved = thinPath(vlad, settings.chartPoints);
+        PathThinner vlad(p.size(), settings.chartPoints);
+        scope.finalExpectedMinusObserved = cumulativeExpectedMinusObserved(p, y, [&](double v) { vlad.add(v); });
+        scope.expectedMinusObserved = vlad.points();
         const double target = settings.targetYears * scope.patientsPerYear;
         scope.charts.push_back(cusumChart(CusumDirection::Worse, settings.worseOdds, p, y, target, settings));
         scope.charts.push_back(cusumChart(CusumDirection::Better, settings.betterOdds, p, y, target, settings));

@@ -75,7 +75,7 @@ struct MonitoringAnalysis {
 
 // Most simulated patients per control limit: the runs are reduced (to no fewer than 50) and then
 // the target capped so that one limit costs at most this many simulated patients.
-constexpr double monitoringSimulationBudget = 4.0e7;
+constexpr double monitoringSimulationBudget = 1.5e7;
 constexpr std::size_t monitoringMinimumRuns = 50;
 
 // `format`: how the dates are written (Iso when none was named). Sites with fewer dated rows

@@ -12,14 +12,23 @@ double cusumWeight(double risk, bool event, double oddsRatio)
 
 CusumRun runCusum(const std::vector<double>& risks, const std::vector<std::uint8_t>& outcomes, double oddsRatio, double limit)
 {
+    std::vector<double> values;
+    values.reserve(risks.size());
+    CusumRun run = runCusum(risks, outcomes, oddsRatio, limit, [&](double v) { values.push_back(v); });
+    run.values = std::move(values);
+    return run;
+}
+
+CusumRun runCusum(const std::vector<double>& risks, const std::vector<std::uint8_t>& outcomes, double oddsRatio, double limit,
+                  const std::function<void(double)>& sink)
+{
     CusumRun run;
-    run.values.resize(risks.size());
     double s = 0.0;
     std::size_t since = 0;
     for (std::size_t i = 0; i < risks.size(); ++i) {
         s = std::max(0.0, s + cusumWeight(risks[i], outcomes[i] != 0, oddsRatio));
         ++since;
-        run.values[i] = s;
+        sink(s);
         if (s >= limit) {
             run.signals.push_back(i);
             run.sinceReset.push_back(since);

@@ -2,6 +2,7 @@
 
 #include <cstddef>
 #include <cstdint>
+#include <functional>
 #include <vector>
 
 namespace plumbline {
@@ -21,5 +22,8 @@ struct CusumRun {
 };
 
 CusumRun runCusum(const std::vector<double>& risks, const std::vector<std::uint8_t>& outcomes, double oddsRatio, double limit);
+// The same with each S_t handed to `sink` instead of kept (`values` stays empty).
+CusumRun runCusum(const std::vector<double>& risks, const std::vector<std::uint8_t>& outcomes, double oddsRatio, double limit,
+                  const std::function<void(double)>& sink);
 
 } // namespace plumbline

@@ -4,36 +4,75 @@
 
 namespace plumbline {
 
+PathThinner::PathThinner(std::size_t patients, std::size_t maxPoints)
+    : m_patients(patients)
+    , m_whole(patients <= std::max<std::size_t>(maxPoints, 4))
+{
+    if (!m_whole)
+        m_blocks = std::max<std::size_t>(1, (maxPoints - 2) / 2);
+}
+
+void PathThinner::closeBlock()
+{
+    if (!m_open)
+        return;
+    if (m_low == m_high) {
+        m_points.push_back({m_low + 1, m_lowValue});
+    } else if (m_low < m_high) {
+        m_points.push_back({m_low + 1, m_lowValue});
+        m_points.push_back({m_high + 1, m_highValue});
+    } else {
+        m_points.push_back({m_high + 1, m_highValue});
+        m_points.push_back({m_low + 1, m_lowValue});
+    }
+    m_open = false;
+}
+
+void PathThinner::add(double value)
+{
+    const std::size_t i = m_seen++;
+    m_last = {i + 1, value};
+    if (m_whole || i == 0) {
+        m_points.push_back(m_last);
+        return;
+    }
+    if (i == m_patients - 1) {
+        closeBlock();
+        m_points.push_back(m_last);
+        return;
+    }
+    // Block b holds patients [1 + b(n−2)/blocks, 1 + (b+1)(n−2)/blocks) (0-based).
+    while (i >= 1 + (m_block + 1) * (m_patients - 2) / m_blocks) {
+        closeBlock();
+        ++m_block;
+    }
+    if (!m_open) {
+        m_open = true;
+        m_low = m_high = i;
+        m_lowValue = m_highValue = value;
+        return;
+    }
+    if (value < m_lowValue) {
+        m_low = i;
+        m_lowValue = value;
+    }
+    if (value > m_highValue) {
+        m_high = i;
+        m_highValue = value;
+    }
+}
+
+std::vector<PathPoint> PathThinner::points() const
+{
+    return m_points;
+}
+
 std::vector<PathPoint> thinPath(const std::vector<double>& values, std::size_t maxPoints)
 {
-    std::vector<PathPoint> out;
-    const std::size_t n = values.size();
-    if (n <= std::max<std::size_t>(maxPoints, 4)) {
-        for (std::size_t i = 0; i < n; ++i)
-            out.push_back({i + 1, values[i]});
-        return out;
-    }
-    const std::size_t blocks = std::max<std::size_t>(1, (maxPoints - 2) / 2);
-    out.push_back({1, values.front()});
-    for (std::size_t b = 0; b < blocks; ++b) {
-        // Block b holds patients [from, to) of the ones between the first and the last.
-        const std::size_t from = 1 + b * (n - 2) / blocks, to = 1 + (b + 1) * (n - 2) / blocks;
-        if (from >= to)
-            continue;
-        std::size_t low = from, high = from;
-        for (std::size_t i = from; i < to; ++i) {
-            if (values[i] < values[low])
-                low = i;
-            if (values[i] > values[high])
-                high = i;
-        }
-        const std::size_t first = std::min(low, high), second = std::max(low, high);
-        out.push_back({first + 1, values[first]});
-        if (second != first)
-            out.push_back({second + 1, values[second]});
-    }
-    out.push_back({n, values.back()});
-    return out;
+    PathThinner thinner(values.size(), maxPoints);
+    for (const double v : values)
+        thinner.add(v);
+    return thinner.points();
 }
 
 } // namespace plumbline
