@@ -55,6 +55,8 @@ private:
     QSpinBox* m_minimumCell;
     QComboBox* m_periodUnit;
     QComboBox* m_dateFormat;
+    QLineEdit* m_cusumOdds;
+    QDoubleSpinBox* m_cusumYears;
     QLabel* m_problem;
 };
 

@@ -5,11 +5,14 @@
 #include "charts/case_mix_view.hpp"
 #include "charts/monitoring_path_view.hpp"
 #include "panels/monitoring_panel.hpp"
+#include "panels/settings_panel.hpp"
 #include "resampling/random_stream.hpp"
 #include "support/fresh_settings_main.hpp"
 
 #include <QChart>
 #include <QComboBox>
+#include <QDoubleSpinBox>
+#include <QLineEdit>
 #include <QLineSeries>
 #include <QScatterSeries>
 #include <QTest>
@@ -116,6 +119,33 @@ private slots:
         panel.setSnapshot(nullptr);
         QVERIFY(panel.noteText().contains(QStringLiteral("needs a date column")));
         QVERIFY(panel.worseChart()->chart()->series().isEmpty());
+    }
+
+    void theSettingsTabTakesTheCusumOptionsAndRefusesBadOnes()
+    {
+        SettingsPanel settings;
+        settings.setRequest(AnalysisRequest{});
+        settings.show();
+        QLineEdit* odds = nullptr;
+        for (QLineEdit* edit : settings.findChildren<QLineEdit*>())
+            if (edit->placeholderText().startsWith(QStringLiteral("worse, better")))
+                odds = edit;
+        QVERIFY(odds);
+        QCOMPARE(odds->text(), QStringLiteral("2, 0.5"));
+        odds->setFocus();
+        odds->selectAll();
+        QTest::keyClicks(odds, QStringLiteral("1.5, 0.4"));
+        auto request = settings.request();
+        QVERIFY(request);
+        QCOMPARE(request->panel.monitoring.worseOdds, 1.5);
+        QCOMPARE(request->panel.monitoring.betterOdds, 0.4);
+        QCOMPARE(request->panel.monitoring.targetYears, 5.0);
+        odds->selectAll();
+        QTest::keyClicks(odds, QStringLiteral("0.5, 2"));
+        QVERIFY(!settings.request());
+        odds->selectAll();
+        QTest::keyClicks(odds, QStringLiteral("two"));
+        QVERIFY(!settings.request());
     }
 };
 
