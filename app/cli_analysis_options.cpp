@@ -81,6 +81,8 @@ std::expected<AnalysisFile, InputError> AnalysisOptions::resolved(const CLI::App
         if (given("--date-format")) p.dateFormat = panelGiven->dateFormat;
         if (given("--capacity")) p.capacity = panelGiven->capacity;
         if (given("--acceptable")) p.acceptable = panelGiven->acceptable;
+        if (given("--cusum-odds")) { p.monitoring.worseOdds = panelGiven->monitoring.worseOdds; p.monitoring.betterOdds = panelGiven->monitoring.betterOdds; }
+        if (given("--cusum-years")) p.monitoring.targetYears = panelGiven->monitoring.targetYears;
         BootstrapSettings& b = out.bootstrap;
         if (given("--bootstrap")) b.replicates = bootstrapGiven.replicates;
         if (given("--seed")) b.seed = bootstrapGiven.seed;

@@ -18,6 +18,8 @@ PanelOptions::PanelOptions()
     periodUnit = d.periodUnit == PeriodUnit::Quarter ? "quarter" : "month";
     dateFormat = !d.dateFormat ? "iso" : *d.dateFormat == DateFormat::DayFirst ? "dmy" : "mdy";
     acceptable = acceptableCriteriaText(d.acceptable);
+    cusumOdds = riskListText({d.monitoring.worseOdds, d.monitoring.betterOdds}, ",");
+    cusumYears = d.monitoring.targetYears;
 }
 
 void PanelOptions::addTo(CLI::App& command)
@@ -42,6 +44,8 @@ void PanelOptions::addTo(CLI::App& command)
     command.add_option("--capacity", capacity,
                        "Patients the team can act on: a share (10%) or a number per day, week or month (40/week, needs --period); "
                        "gives the threshold that flags that many");
+    command.add_option("--cusum-odds", cusumOdds, "Monitoring with --period: odds ratios the two CUSUMs watch for, worse,better (default 2,0.5)");
+    command.add_option("--cusum-years", cusumYears, "Monitoring with --period: in-control run length of the CUSUMs in years of this volume (default 5)");
 }
 
 std::expected<PanelSettings, InputError> PanelOptions::resolved() const
@@ -81,6 +85,12 @@ std::expected<PanelSettings, InputError> PanelOptions::resolved() const
             return std::unexpected(spec.error());
         settings.capacity = *spec;
     }
+    const auto odds = parseOddsRatioPair(cusumOdds, "--cusum-odds");
+    if (!odds)
+        return std::unexpected(odds.error());
+    settings.monitoring.worseOdds = odds->worse;
+    settings.monitoring.betterOdds = odds->better;
+    settings.monitoring.targetYears = cusumYears;
     return settings;
 }
 

@@ -28,6 +28,8 @@ struct PanelOptions {
     std::string dateFormat;
     std::string capacity; // empty: no capacity
     std::string acceptable;
+    std::string cusumOdds;
+    double cusumYears;
 
     void addTo(CLI::App& command);
     std::expected<PanelSettings, InputError> resolved() const;

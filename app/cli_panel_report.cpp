@@ -2,6 +2,8 @@
 #include "cli_capacity_report.hpp"
 
 #include "cli_site_pooling_report.hpp"
+#include "cli_monitoring_report.hpp"
+
 #include "metrics/metric_reading.hpp"
 #include "reporting/value_text.hpp"
 
@@ -251,6 +253,7 @@ void printPanel(std::ostream& out, const ValidationResult& result)
     printPeriods(out, result);
     printCapacity(out, result);
     printSitePooling(out, result);
+    printMonitoring(out, result);
     printPrecision(out, result);
     if (!result.warnings.empty()) {
         out << "\nWarnings:\n";

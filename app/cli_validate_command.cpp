@@ -189,7 +189,10 @@ int runValidate(const ValidateOptions& options, const CLI::App& command)
     snapshot->request.inputWarnings = settingsWarnings;
     // Each model updated for the local population enters as one more model, "<name>_updated".
     snapshot->updates = addUpdatedModels(result->cohort, analysis->addUpdated);
-    snapshot->validation = runValidation(result->cohort, analysis->panel);
+    // The CUSUM limits are simulated with the run's one seed (--seed), like the bootstrap.
+    PanelSettings panel = analysis->panel;
+    panel.monitoring.seed = analysis->bootstrap.seed;
+    snapshot->validation = runValidation(result->cohort, panel);
     for (const auto& update : snapshot->updates)
         snapshot->validation.warnings.push_back("Model '" + update.model + "_updated' was fitted on these patients (" + update.fit.formula()
                                                 + "): its performance here is optimistic; see the optimism-corrected values in 'updates'.");

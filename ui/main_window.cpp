@@ -18,6 +18,7 @@
 #include "panels/overview_panel.hpp"
 #include "panels/period_panel.hpp"
 #include "panels/site_pooling_panel.hpp"
+#include "panels/monitoring_panel.hpp"
 #include "dialogs/planner_dialog.hpp"
 #include "charts/roc_chart_view.hpp"
 #include "panels/risk_groups_panel.hpp"
@@ -76,6 +77,7 @@ MainWindow::MainWindow(QWidget* parent)
     , m_subgroups(new SubgroupPanel)
     , m_periods(new PeriodPanel)
     , m_sites(new SitePoolingPanel)
+    , m_monitoring(new MonitoringPanel)
     , m_settings(new SettingsPanel)
     , m_tabs(new QTabWidget)
     , m_toggles(new QHBoxLayout)
@@ -231,6 +233,7 @@ QWidget* MainWindow::buildCentralArea()
     m_tabs->addTab(m_subgroups, tr("Su&bgroups"));
     m_tabs->addTab(m_periods, tr("Over &time"));
     m_tabs->addTab(m_sites, tr("S&ites"));
+    m_tabs->addTab(m_monitoring, tr("Mon&itoring"));
     m_tabs->addTab(m_updating, tr("&Updating"));
     m_tabs->addTab(m_cohort, tr("C&ohort"));
     m_tabs->addTab(m_settings, tr("&Settings"));
@@ -301,6 +304,7 @@ void MainWindow::resetLayout()
     m_subgroups->resetLayout();
     m_periods->resetLayout();
     m_sites->resetLayout();
+    m_monitoring->resetLayout();
     m_tabs->setCurrentIndex(0);
 }
 
@@ -362,6 +366,7 @@ void MainWindow::showSnapshot(SnapshotPointer snapshot, bool complete)
         [this] { m_subgroups->setSnapshot(m_snapshot); },
         [this] { m_periods->setSnapshot(m_snapshot); },
         [this] { m_sites->setSnapshot(m_snapshot); },
+        [this] { m_monitoring->setSnapshot(m_snapshot); },
         [this] {
             rebuildModelToggles();
             m_threshold->setSnapshot(m_snapshot);

@@ -29,6 +29,7 @@ class MetricTableModel;
 class OverviewPanel;
 class PeriodPanel;
 class SitePoolingPanel;
+class MonitoringPanel;
 class RiskDistributionView;
 class RiskGroupTableModel;
 class RiskGroupsPanel;
@@ -92,6 +93,7 @@ public:
     SubgroupPanel* subgroupPanel() const { return m_subgroups; }
     PeriodPanel* periodPanel() const { return m_periods; }
     SitePoolingPanel* sitePoolingPanel() const { return m_sites; }
+    MonitoringPanel* monitoringPanel() const { return m_monitoring; }
     UpdatingPanel* updatingPanel() const { return m_updating; }
     SettingsPanel* settingsPanel() const { return m_settings; }
     QCheckBox* modelToggle(int model) const;
@@ -141,6 +143,7 @@ private:
     SubgroupPanel* m_subgroups;
     PeriodPanel* m_periods;
     SitePoolingPanel* m_sites;
+    MonitoringPanel* m_monitoring;
     SettingsPanel* m_settings;
     QTabWidget* m_tabs;
     QHBoxLayout* m_toggles;

@@ -5,6 +5,7 @@
 #include "metrics/estimate.hpp"
 #include "analyses/period_analysis.hpp"
 #include "analyses/capacity_spec.hpp"
+#include "analyses/monitoring_settings.hpp"
 
 #include <cstddef>
 #include <cstdint>
@@ -31,6 +32,7 @@ struct PanelSettings {
     std::optional<CapacitySpec> capacity;          // --capacity: the threshold that flags that many (capacity_analysis)
     AcceptableCriteria acceptable;                 // --acceptable: performance acceptable in a new site
     std::uint64_t simulationSeed = 20240101;       // the bootstrap's seed (BootstrapSettings::seed), copied by each entry point
+    MonitoringSettings monitoring;                 // CUSUM and case-mix options over time (with a period column)
 
     const std::vector<double>& cutPoints() const { return nriCutPoints.empty() ? thresholds : nriCutPoints; }
 };

@@ -1,5 +1,6 @@
 #include "analyses/period_analysis.hpp"
 
+#include "analyses/dated_sequence.hpp"
 #include "analyses/row_subsets.hpp"
 #include "analyses/two_threads.hpp"
 
@@ -25,15 +26,6 @@ struct ModelPeriods {
     std::optional<std::string> warning;
 };
 
-bool realDate(int year, int month, int day)
-{
-    static const int lengths[] = {31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31};
-    if (month < 1 || month > 12 || day < 1 || year < 1800 || year > 2200)
-        return false;
-    const bool leap = (year % 4 == 0 && year % 100 != 0) || year % 400 == 0;
-    return day <= lengths[month - 1] + (month == 2 && leap ? 1 : 0);
-}
-
 struct YearMonth {
     int year = 0;
     int month = 0;
@@ -43,21 +35,10 @@ struct YearMonth {
 // written that way or is not a real date (2025-02-30).
 std::optional<YearMonth> yearMonth(const WrittenDate& date, DateFormat format)
 {
-    int month = 0, day = 0;
-    if (format == DateFormat::Iso) {
-        if (date.shape != WrittenDate::Shape::Iso)
-            return std::nullopt;
-        month = date.first;
-        day = date.second;
-    } else {
-        if (date.shape != WrittenDate::Shape::Slashed)
-            return std::nullopt;
-        day = format == DateFormat::DayFirst ? date.first : date.second;
-        month = format == DateFormat::DayFirst ? date.second : date.first;
-    }
-    if (!realDate(date.year, month, day))
+    const auto civil = civilDate(date, format);
+    if (!civil)
         return std::nullopt;
-    return YearMonth{date.year, month};
+    return YearMonth{civil->year, civil->month};
 }
 
 std::string periodText(int year, int month, PeriodUnit unit)

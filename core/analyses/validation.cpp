@@ -99,6 +99,10 @@ ValidationResult runValidation(const Cohort& cohort, const PanelSettings& settin
     }
     if (cohort.cluster)
         result.sites = analyseSites(cohort, *cohort.cluster, settings);
+    // Monitoring reads the same dates, so it runs only when the view over time could read them.
+    if (result.periods)
+        result.monitoring = analyseMonitoring(cohort, *cohort.period, settings.dateFormat.value_or(DateFormat::Iso), settings.periodUnit,
+                                              settings.confidence, settings.minimumCell, settings.monitoring);
     // Achieved precision beside the widths commonly aimed at (Riley et al. 2021 examples; from memory).
     for (const auto& model : result.models)
         for (const auto& [metric, target] : {std::pair<PanelMetric, double>{CStatistic, 0.1}, {OeRatio, 0.2}, {CalibrationSlope, 0.2}}) {

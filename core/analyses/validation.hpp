@@ -7,6 +7,7 @@
 #include "analyses/subgroup_results.hpp"
 #include "analyses/panel_settings.hpp"
 #include "analyses/site_pooling.hpp"
+#include "analyses/monitoring_analysis.hpp"
 #include "metrics/score_order.hpp"
 
 #include <optional>
@@ -26,6 +27,7 @@ struct ValidationResult {
     std::optional<PeriodAnalysis> periods;     // when the cohort has a period column
     std::optional<CapacityAnalysis> capacity;  // when settings.capacity is given
     std::optional<SitePooling> sites;          // when the cohort has a cluster (site) column
+    std::optional<MonitoringAnalysis> monitoring; // with a period column whose dates read
     struct PrecisionRow {
         std::string model, metric;
         double width = 0.0, target = 0.0; // achieved interval width against a common target

@@ -92,6 +92,8 @@ std::expected<void, InputError> saveAnalysisFile(const std::string& path, const 
                        {"acceptable", acceptableCriteriaText(a.panel.acceptable)},
                        {"period_unit", a.panel.periodUnit == PeriodUnit::Quarter ? "quarter" : "month"},
                        {"date_format", !a.panel.dateFormat ? "iso" : *a.panel.dateFormat == DateFormat::DayFirst ? "dmy" : "mdy"},
+                       {"cusum_odds", {a.panel.monitoring.worseOdds, a.panel.monitoring.betterOdds}},
+                       {"cusum_years", a.panel.monitoring.targetYears},
                        {"c_statistic_interval", a.panel.cStatisticScale == CStatisticScale::Logit ? "logit" : "plain"},
                        {"binomial_interval", a.panel.binomialInterval == CiMethod::ClopperPearson ? "clopper-pearson" : "wilson"},
                        {"bootstrap", a.bootstrap.replicates},
@@ -365,6 +367,12 @@ AnalysisFile readAnalysis(const Json& json, const std::string& path, std::vector
     const std::string dates = o.choice("date_format", "iso", {"iso", "dmy", "mdy"});
     if (dates != "iso")
         a.panel.dateFormat = dates == "dmy" ? DateFormat::DayFirst : DateFormat::MonthFirst;
+    const auto odds = o.numbers("cusum_odds", {a.panel.monitoring.worseOdds, a.panel.monitoring.betterOdds});
+    if (odds.size() != 2)
+        o.refuse("cusum_odds", std::to_string(odds.size()) + " numbers", "must hold two odds ratios: the worse chart's (above 1) and the better chart's (below 1).");
+    a.panel.monitoring.worseOdds = odds[0];
+    a.panel.monitoring.betterOdds = odds[1];
+    a.panel.monitoring.targetYears = o.number("cusum_years", a.panel.monitoring.targetYears);
     a.panel.cStatisticScale = o.choice("c_statistic_interval", "logit", {"logit", "plain"}) == "plain" ? CStatisticScale::Plain : CStatisticScale::Logit;
     a.panel.binomialInterval = o.choice("binomial_interval", "wilson", {"wilson", "clopper-pearson"}) == "clopper-pearson" ? CiMethod::ClopperPearson
                                                                                                                              : CiMethod::Wilson;

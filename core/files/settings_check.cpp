@@ -9,7 +9,8 @@ namespace plumbline {
 namespace {
 
 enum class Setting { Confidence, RiskGroups, Thresholds, NriCuts, DecisionRange, DecisionThreshold, Replicates, MinimumCell,
-                     AddUpdated, Threads, MaxLineBytes, Capacity, Cluster, Acceptable };
+                     AddUpdated, Threads, MaxLineBytes, Capacity, Cluster, Acceptable,
+                     CusumOdds, CusumYears };
 
 struct SettingName {
     const char* commandLine;
@@ -34,6 +35,8 @@ SettingName nameOf(Setting setting)
     case Setting::Capacity: return {"--capacity", "options.capacity", "Capacity"};
     case Setting::Cluster: return {"--cluster", "columns.cluster", "Site column"};
     case Setting::Acceptable: return {"--acceptable", "options.acceptable", "Acceptable in a new site"};
+    case Setting::CusumOdds: return {"--cusum-odds", "options.cusum_odds", "CUSUM odds ratios"};
+    case Setting::CusumYears: return {"--cusum-years", "options.cusum_years", "CUSUM run length in years"};
     }
     return {"", "", ""};
 }
@@ -119,6 +122,16 @@ std::expected<void, InputError> checkPanel(const Checker& check, const PanelSett
         return check.refuse(Setting::Acceptable, acceptableCriteriaText(p.acceptable), problem, "e.g. c=0.70,oe=0.8:1.2,slope=0.8:1.2.");
     if (!(std::isfinite(p.decisionThreshold) && p.decisionThreshold >= 0.0 && p.decisionThreshold <= 1.0))
         return check.refuse(Setting::DecisionThreshold, numberText(p.decisionThreshold), "must lie between 0 and 1.", "give e.g. 0.2.");
+    // The CUSUMs: one odds ratio above 1 (worse) and one below (better), neither so extreme that
+    // a single patient signals; an in-control run length of a tenth of a year to 50 years of volume.
+    const MonitoringSettings& m = p.monitoring;
+    if (!(std::isfinite(m.worseOdds) && std::isfinite(m.betterOdds) && m.worseOdds > 1.0 && m.worseOdds <= L::maxCusumOdds
+          && m.betterOdds < 1.0 && m.betterOdds >= 1.0 / L::maxCusumOdds))
+        return check.refuse(Setting::CusumOdds, numberText(m.worseOdds) + "," + numberText(m.betterOdds),
+                            "takes two odds ratios: the first above 1 and at most 20 (worse outcomes), the second below 1 and at least 0.05 (better).",
+                            "e.g. 2,0.5.");
+    if (!(std::isfinite(m.targetYears) && m.targetYears >= L::minCusumYears && m.targetYears <= L::maxCusumYears))
+        return check.refuse(Setting::CusumYears, numberText(m.targetYears), "must lie between 0.1 and 50 years.", "give e.g. 5.");
     return {};
 }
 

@@ -22,6 +22,7 @@ struct SettingLimits {
     static constexpr std::size_t minMinimumCell = 1, maxMinimumCell = 1000;
     static constexpr unsigned minThreads = 1, maxThreads = 256;
     static constexpr std::size_t minLineBytes = 1024, maxLineBytes = std::size_t{1} << 30;
+    static constexpr double maxCusumOdds = 20.0, minCusumYears = 0.1, maxCusumYears = 50.0;
 };
 
 // Where the settings were given: the message names each setting as the user wrote it there

@@ -2,6 +2,7 @@
 #include "files/capacity_json.hpp"
 
 #include "files/site_pooling_json.hpp"
+#include "files/monitoring_json.hpp"
 #include "resampling/interval_choice.hpp"
 
 #include <algorithm>
@@ -270,6 +271,7 @@ void addUsefulnessFairnessDriftJson(Json& json, const ValidationResult& result)
         json["periods"] = Json::array();
         json["period_reference"] = nullptr;
     }
+    json["monitoring"] = result.monitoring ? monitoringJson(*result.monitoring) : Json(nullptr);
     Json precision = Json::array();
     for (const auto& p : result.precision)
         precision.push_back({{"model", p.model}, {"metric", p.metric}, {"interval_width", p.width}, {"common_target", p.target},

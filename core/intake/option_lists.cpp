@@ -63,6 +63,27 @@ std::expected<DecisionRange, InputError> parseDecisionRange(std::string_view tex
     return DecisionRange{range[0], range[1], range[2]};
 }
 
+std::expected<OddsRatioPair, InputError> parseOddsRatioPair(std::string_view text, std::string_view name)
+{
+    std::vector<double> odds;
+    for (const std::string& item : items(text)) {
+        const auto value = parseNumber(item, false);
+        if (!value || !(*value > 0.0)) {
+            odds.clear();
+            break;
+        }
+        odds.push_back(*value);
+    }
+    if (odds.size() != 2) {
+        InputError error;
+        error.value = std::string(text);
+        error.problem = std::string(name) + " takes two odds ratios above 0: the worse chart's (above 1) and the better chart's (below 1).";
+        error.remedy = "e.g. 2,0.5.";
+        return std::unexpected(error);
+    }
+    return OddsRatioPair{odds[0], odds[1]};
+}
+
 std::string riskListText(const std::vector<double>& values, std::string_view separator)
 {
     std::string out;

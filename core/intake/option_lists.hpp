@@ -22,6 +22,13 @@ struct DecisionRange {
 };
 std::expected<DecisionRange, InputError> parseDecisionRange(std::string_view text, std::string_view name);
 
+// The two CUSUMs' odds ratios as typed ("2,0.5"): two positive numbers; their bounds (worse
+// above 1, better below) are the settings check's.
+struct OddsRatioPair {
+    double worse = 0.0, better = 0.0;
+};
+std::expected<OddsRatioPair, InputError> parseOddsRatioPair(std::string_view text, std::string_view name);
+
 // A list as it is typed: "0.1, 0.2, 0.3" (shortest exact form of each number).
 std::string riskListText(const std::vector<double>& values, std::string_view separator = ", ");
 

@@ -160,8 +160,9 @@ if [[ -s $work/both.pdf && -s $work/both.html ]]; then
     || { echo "FAIL: the PDF and the HTML differ in time ($stamp)"; failures=$((failures+1)); }
   svgs=$(grep -o '<svg' "$work/both.html" | wc -l)
   # ROC, calibration, decision curve; for the one subgroup column and model the forests of C, O/E
-  # and slope, the curves by level and the funnel; O/E and C over time.
-  [[ $svgs -eq 10 ]] && echo "ok: ten inline charts" || { echo "FAIL: $svgs inline charts, wanted 10"; failures=$((failures+1)); }
+  # and slope, the curves by level and the funnel; O/E and C over time; monitoring's expected minus
+  # observed and its two CUSUMs.
+  [[ $svgs -eq 13 ]] && echo "ok: thirteen inline charts" || { echo "FAIL: $svgs inline charts, wanted 13"; failures=$((failures+1)); }
   # Bookmarks as a PDF reader sees them (poppler's outline), one per section, and page numbers.
   outline=$(pdftohtml -xml -i -q -stdout "$work/both.pdf" | sed -n '/<outline>/,/<\/outline>/p')
   items=$(grep -c '<item page=' <<<"$outline")

@@ -1,6 +1,7 @@
 #include "charts/chart_style.hpp"
 
 #include <QAreaSeries>
+#include <QCategoryAxis>
 #include <QChart>
 #include <QFont>
 #include <QLegend>
@@ -125,6 +126,25 @@ QPen thresholdPen()
 QString thresholdName(double threshold)
 {
     return QObject::tr("Threshold %1").arg(threshold, 0, 'f', 3);
+}
+
+QCategoryAxis* periodAxis(const std::vector<std::string>& periods)
+{
+    auto* x = new QCategoryAxis;
+    x->setLabelsPosition(QCategoryAxis::AxisLabelsPositionOnValue);
+    x->setLabelsFont(QFont(QStringLiteral("DejaVu Sans"), 8));
+    x->setTitleFont(QFont(QStringLiteral("DejaVu Sans"), 9));
+    x->setTitleText(QObject::tr("Period"));
+    x->setRange(-0.5, double(periods.size()) - 0.5);
+    std::size_t step = 12;
+    for (const std::size_t candidate : {1, 2, 3, 6, 12})
+        if (periods.size() <= candidate * 5) {
+            step = candidate;
+            break;
+        }
+    for (std::size_t k = 0; k < periods.size(); k += step)
+        x->append(QString::fromStdString(periods[k]), double(k));
+    return x;
 }
 
 } // namespace plumbline

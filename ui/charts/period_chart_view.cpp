@@ -52,21 +52,10 @@ void PeriodChartView::setPoints(const std::vector<PeriodPoint>& points, const Es
     if (!std::isfinite(low) || !std::isfinite(high))
         return;
     const double count = double(points.size());
-    auto* x = new QCategoryAxis;
-    x->setLabelsPosition(QCategoryAxis::AxisLabelsPositionOnValue);
-    x->setLabelsFont(QFont(QStringLiteral("DejaVu Sans"), 8));
-    x->setTitleFont(QFont(QStringLiteral("DejaVu Sans"), 9));
-    x->setTitleText(tr("Period"));
-    x->setRange(-0.5, count - 0.5);
-    // A few labels at regular steps (every 1, 2, 3, 6 or 12 periods), so that none is elided.
-    std::size_t step = 12;
-    for (const std::size_t candidate : {1, 2, 3, 6, 12})
-        if (points.size() <= candidate * 5) {
-            step = candidate;
-            break;
-        }
-    for (std::size_t k = 0; k < points.size(); k += step)
-        x->append(QString::fromStdString(points[k].period), double(k));
+    std::vector<std::string> names;
+    for (const auto& p : points)
+        names.push_back(p.period);
+    auto* x = periodAxis(names);
     auto* y = roundAxis(m_axisTitle, low, high, 5);
     c->addAxis(x, Qt::AlignBottom);
     c->addAxis(y, Qt::AlignLeft);

@@ -66,6 +66,8 @@ SettingsPanel::SettingsPanel(QWidget* parent)
     , m_periodUnit(new QComboBox)
     , m_dateFormat(new QComboBox)
     , m_capacity(textField(24))
+    , m_cusumOdds(textField(24))
+    , m_cusumYears(new QDoubleSpinBox)
     , m_problem(new QLabel)
 {
     auto* boxes = new QWidget;
@@ -120,6 +122,10 @@ QWidget* SettingsPanel::buildAnalysisBox()
     m_dateFormat->addItem(tr("YYYY-MM-DD only"), -1);
     m_dateFormat->addItem(tr("DD/MM/YYYY"), int(DateFormat::DayFirst));
     m_dateFormat->addItem(tr("MM/DD/YYYY"), int(DateFormat::MonthFirst));
+    m_cusumOdds->setPlaceholderText(tr("worse, better: 2, 0.5"));
+    m_cusumYears->setRange(0.1, 50.0);
+    m_cusumYears->setDecimals(1);
+    m_cusumYears->setSuffix(tr(" years"));
     auto* box = new QGroupBox(tr("Analysis"));
     QFormLayout* form = naturalForm(box);
     form->addRow(tr("Bootstrap &replicates:"), m_replicates);
@@ -138,6 +144,8 @@ QWidget* SettingsPanel::buildAnalysisBox()
     m_capacity->setPlaceholderText(tr("e.g. 10% or 40/week (needs a period column); empty: none"));
     m_capacity->setToolTip(tr("The patients the team can act on: the run adds the threshold that flags that many, per model and period"));
     form->addRow(tr("Capacit&y:"), m_capacity);
+    form->addRow(tr("CUSUM &odds ratios:"), m_cusumOdds);
+    form->addRow(tr("CUSUM run length (in control):"), m_cusumYears);
     form->addRow(tr("Suppress counts &below:"), m_minimumCell);
     return box;
 }
@@ -182,6 +190,8 @@ void SettingsPanel::setRequest(const AnalysisRequest& request)
     m_periodUnit->setCurrentIndex(m_periodUnit->findData(int(request.panel.periodUnit)));
     m_dateFormat->setCurrentIndex(m_dateFormat->findData(request.panel.dateFormat ? int(*request.panel.dateFormat) : -1));
     m_capacity->setText(request.panel.capacity ? QString::fromStdString(capacityText(*request.panel.capacity)) : QString());
+    m_cusumOdds->setText(QString::fromStdString(riskListText({request.panel.monitoring.worseOdds, request.panel.monitoring.betterOdds})));
+    m_cusumYears->setValue(request.panel.monitoring.targetYears);
     m_problem->clear();
 }
 
@@ -213,6 +223,14 @@ std::optional<AnalysisRequest> SettingsPanel::request() const
                                      : QString::fromStdString((!thresholds ? thresholds.error() : !cuts ? cuts.error() : range.error()).message()));
         return std::nullopt;
     }
+    const auto odds = parseOddsRatioPair(m_cusumOdds->text().toStdString(), "CUSUM odds ratios");
+    if (!odds) {
+        m_problem->setText(QString::fromStdString(odds.error().message()));
+        return std::nullopt;
+    }
+    out.panel.monitoring.worseOdds = odds->worse;
+    out.panel.monitoring.betterOdds = odds->better;
+    out.panel.monitoring.targetYears = m_cusumYears->value();
     out.panel.thresholds = *thresholds;
     out.panel.nriCutPoints = *cuts;
     out.panel.decisionFrom = range->from;

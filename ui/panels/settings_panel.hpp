@@ -56,6 +56,8 @@ private:
     QComboBox* m_periodUnit;
     QComboBox* m_dateFormat;
     QLineEdit* m_capacity; // --capacity: empty for none
+    QLineEdit* m_cusumOdds;
+    QDoubleSpinBox* m_cusumYears;
     QLabel* m_problem;
 };
 

@@ -5,7 +5,9 @@
 #include "charts/funnel_chart_view.hpp"
 #include "charts/forest_chart_view.hpp"
 #include "charts/level_calibration_view.hpp"
+#include "charts/monitoring_path_view.hpp"
 #include "charts/period_chart_view.hpp"
+#include "panels/monitoring_panel.hpp"
 #include "panels/period_panel.hpp"
 #include "panels/site_pooling_panel.hpp"
 #include "charts/site_forest_view.hpp"
@@ -29,6 +31,7 @@ ReportCharts::ReportCharts(const SnapshotPointer& snapshot, std::optional<double
     , m_subgroups(std::make_unique<SubgroupPanel>())
     , m_periods(std::make_unique<PeriodPanel>())
     , m_sites(std::make_unique<SitePoolingPanel>())
+    , m_monitoring(std::make_unique<MonitoringPanel>())
 {
     m_roc->setSnapshot(snapshot);
     m_calibration->setSnapshot(snapshot);
@@ -36,6 +39,7 @@ ReportCharts::ReportCharts(const SnapshotPointer& snapshot, std::optional<double
     m_subgroups->setSnapshot(snapshot);
     m_periods->setSnapshot(snapshot);
     m_sites->setSnapshot(snapshot);
+    m_monitoring->setSnapshot(snapshot);
     m_threshold = threshold.value_or(snapshot ? snapshot->request.panel.decisionThreshold : PanelSettings{}.decisionThreshold);
     m_roc->setThreshold(m_threshold);
     m_calibration->setThreshold(m_threshold);
@@ -60,6 +64,9 @@ ExportableChartView* ReportCharts::view(const ReportChartRef& chart) const
     };
     auto sites = [&](auto* v) -> ExportableChartView* {
         m_sites->modelPicker()->setCurrentIndex(chart.choice);
+    auto monitoring = [&](auto* v) -> ExportableChartView* {
+        m_monitoring->scopePicker()->setCurrentIndex(0); // the whole cohort
+        m_monitoring->modelPicker()->setCurrentIndex(chart.choice);
         return settled(v);
     };
     switch (chart.kind) {
@@ -76,6 +83,9 @@ ExportableChartView* ReportCharts::view(const ReportChartRef& chart) const
     case ReportChart::SiteC: return sites(m_sites->cChart());
     case ReportChart::SiteOe: return sites(m_sites->oeChart());
     case ReportChart::SiteSlope: return sites(m_sites->slopeChart());
+    case ReportChart::MonitoringExpectedMinusObserved: return monitoring(m_monitoring->expectedMinusObservedChart());
+    case ReportChart::MonitoringWorse: return monitoring(m_monitoring->worseChart());
+    case ReportChart::MonitoringBetter: return monitoring(m_monitoring->betterChart());
     }
     return m_roc.get();
 }
@@ -130,6 +140,15 @@ QString ReportCharts::caption(const ReportChartRef& chart) const
                               "beneath it the prediction interval for a new site. Sites below the small-cell rule are not drawn.")
             .arg(measure, siteModel);
     }
+    case ReportChart::MonitoringExpectedMinusObserved:
+        return QStringLiteral("Cumulative expected minus observed events for %1, all patients in date order; above zero, fewer "
+                              "events than predicted.").arg(model);
+    case ReportChart::MonitoringWorse:
+        return QStringLiteral("CUSUM watching for worse outcomes than %1 predicts (odds ratio above 1), all patients; the dashed "
+                              "line is the control limit h, squares mark signals, after which the chart restarts.").arg(model);
+    case ReportChart::MonitoringBetter:
+        return QStringLiteral("CUSUM watching for better outcomes than %1 predicts (odds ratio below 1), all patients; the dashed "
+                              "line is the control limit h, squares mark signals, after which the chart restarts.").arg(model);
     }
     return {};
 }

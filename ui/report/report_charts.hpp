@@ -20,6 +20,7 @@ class DecisionCurveView;
 class ExportableChartView;
 class PeriodPanel;
 class SitePoolingPanel;
+class MonitoringPanel;
 class RocChartView;
 class SubgroupPanel;
 
@@ -56,6 +57,7 @@ private:
     std::unique_ptr<SubgroupPanel> m_subgroups;
     std::unique_ptr<PeriodPanel> m_periods;
     std::unique_ptr<SitePoolingPanel> m_sites;
+    std::unique_ptr<MonitoringPanel> m_monitoring;
 };
 
 } // namespace plumbline

@@ -2,6 +2,8 @@
 #include "report/capacity_report_table.hpp"
 #include "report/site_pooling_report.hpp"
 
+#include "report/monitoring_section.hpp"
+
 #include "reporting/cautions.hpp"
 #include "reporting/decision_summary.hpp"
 #include "reporting/disclosure_plan.hpp"
@@ -530,6 +532,7 @@ ReportSection subgroupSection(const AnalysisSnapshot& s, const ValidationResult&
         section.tables.push_back(reference);
         section.tables.push_back(periods);
     }
+    addMonitoring(section, v, minimumCell);
     ReportTable precision{"precision", "Precision achieved", {"Model", "Metric", "Interval width", "Common target", "Met"}, {}, {}, {}};
     for (const auto& p : v.precision)
         precision.rows.push_back({textCell(p.model), textCell(metricLabel(p.metric)), numberCell(p.width, 3), numberCell(p.target, 2),

@@ -54,7 +54,8 @@ enum class ReportChart {
     Roc, Calibration, DecisionCurve,
     SubgroupC, SubgroupOe, SubgroupSlope, SubgroupCalibration, SubgroupFunnel, // per subgroup column and model
     OverTimeC, OverTimeOe,                                                     // per model
-    SiteC, SiteOe, SiteSlope                                                   // per model, across sites (--cluster)
+    SiteC, SiteOe, SiteSlope,                                                  // per model, across sites (--cluster)
+    MonitoringExpectedMinusObserved, MonitoringWorse, MonitoringBetter         // per model, the whole cohort
 };
 
 // One chart of a report: its kind and, for the subgroup charts, which column and model (the

@@ -72,7 +72,10 @@ void ValidationTask::run(AnalysisRequest request, std::stop_token stop, unsigned
         auto snapshot = std::make_shared<AnalysisSnapshot>();
         snapshot->request = request;
         snapshot->updates = addUpdatedModels(intake->cohort, request.addUpdated);
-        snapshot->validation = runValidation(intake->cohort, request.panel);
+        // The CUSUM limits are simulated with the run's one seed, like the bootstrap.
+        PanelSettings panel = request.panel;
+        panel.monitoring.seed = request.bootstrap.seed;
+        snapshot->validation = runValidation(intake->cohort, panel);
         snapshot->capacity = capacityLookup(snapshot->validation, intake->cohort, request.panel.dateFormat);
         snapshot->audit = intake->audit;
         snapshot->audit.warnings.insert(snapshot->audit.warnings.begin(), request.inputWarnings.begin(), request.inputWarnings.end());

@@ -42,6 +42,9 @@ TEST_CASE("An analysis file keeps every setting and finds its inputs relative to
     a.bootstrap.method = BootstrapCi::Percentile;
     a.addUpdated = "logistic";
     a.minimumCell = 5;
+    a.panel.monitoring.worseOdds = 1.5;
+    a.panel.monitoring.betterOdds = 0.25;
+    a.panel.monitoring.targetYears = 2.5;
     a.report.title = "Title <with> \"quotes\"";
     REQUIRE(saveAnalysisFile((dir / "a.plumbline.json").string(), a));
     // Moving the folder keeps the analysis working: paths are relative.
@@ -64,6 +67,9 @@ TEST_CASE("An analysis file keeps every setting and finds its inputs relative to
     CHECK(b->bootstrap.method == BootstrapCi::Percentile);
     CHECK(b->addUpdated == "logistic");
     CHECK(b->minimumCell == 5);
+    CHECK(b->panel.monitoring.worseOdds == 1.5);
+    CHECK(b->panel.monitoring.betterOdds == 0.25);
+    CHECK(b->panel.monitoring.targetYears == 2.5);
     CHECK(b->report.title == a.report.title);
     fs::remove_all(moved);
 }

@@ -52,6 +52,23 @@ TEST_CASE("Every setting out of its range is refused naming it where it was give
     a = {};
     a.addUpdated = "bogus";
     CHECK(refusal(a).find("--add-updated") != std::string::npos);
+    // The CUSUMs: worse above 1 and at most 20, better below 1 and at least 0.05; 0.1 to 50 years.
+    for (const auto& [worse, better] : {std::pair{0.5, 2.0}, {1.0, 0.5}, {2.0, 1.0}, {21.0, 0.5}, {2.0, 0.04}, {1e308, 0.5}}) {
+        a = {};
+        a.panel.monitoring.worseOdds = worse;
+        a.panel.monitoring.betterOdds = better;
+        CHECK(refusal(a).find("--cusum-odds takes two odds ratios") != std::string::npos);
+        CHECK(refusal(a, SettingsSource::AnalysisFile).find("key 'options.cusum_odds'") != std::string::npos);
+    }
+    a = {};
+    a.panel.monitoring.worseOdds = 20.0;
+    a.panel.monitoring.betterOdds = 0.05;
+    CHECK(refusal(a).empty());
+    for (const double years : {0.0, 0.09, 50.5, -5.0}) {
+        a = {};
+        a.panel.monitoring.targetYears = years;
+        CHECK(refusal(a).find("--cusum-years must lie between 0.1 and 50") != std::string::npos);
+    }
 }
 
 TEST_CASE("A site column that is empty or the outcome or a score is refused", "[settings][cluster]")

@@ -48,6 +48,20 @@ SnapshotPointer snapshotOf(std::size_t rows, std::size_t groups)
     return snapshot;
 }
 
+// "MM-DD" of day `d` (0-based) of a leap year or not.
+std::string monthDay(int d, bool leap)
+{
+    const int lengths[] = {31, leap ? 29 : 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31};
+    int month = 0;
+    while (d >= lengths[month]) {
+        d -= lengths[month];
+        ++month;
+    }
+    char text[8];
+    std::snprintf(text, sizeof text, "%02d-%02d", month + 1, d + 1);
+    return text;
+}
+
 QByteArray slurp(const QString& path)
 {
     QFile file(path);
@@ -256,6 +270,62 @@ private slots:
         QVERIFY(!document.documentId.empty());
         QCOMPARE(int(content.count(QString::fromStdString(document.documentId))), pages + 1); // header of pages 2..M, title block, settings
         QVERIFY(content.contains(QStringLiteral("Reviewed by")));
+    }
+
+    void monitoringIsInTheReportByMonthWithTheCoresLimits()
+    {
+        // Two years of dated patients, 3 a day, the sites filled by hand (as --cluster would).
+        std::string csv = "y,p,day\n";
+        for (int d = 0; d < 730; ++d)
+            for (int k = 0; k < 3; ++k) {
+                const double p = 0.05 + 0.5 * double((d * 7 + k * 13) % 29) / 29.0;
+                const int y = double((d * 31 + k * 17) % 97) / 97.0 < p ? 1 : 0;
+                char line[64];
+                std::snprintf(line, sizeof line, "%d,%.4f,%s\n", y, p, d < 366 ? ("2024-" + monthDay(d, true)).c_str()
+                                                                               : ("2025-" + monthDay(d - 366, false)).c_str());
+                csv += line;
+            }
+        IntakeSettings intake;
+        intake.cohortFile = "dated.csv";
+        intake.outcomeColumn = "y";
+        intake.scoreColumns = {"p"};
+        intake.periodColumn = "day";
+        auto result = runIntake(intake, *TextFile::fromBytes("dated.csv", csv), std::nullopt);
+        QVERIFY(result.has_value());
+        CategoricalColumn sites{"hospital", {"North", "South"}, {}};
+        for (std::size_t i = 0; i < result->cohort.rows(); ++i)
+            sites.codes.push_back(i % 3 == 0 ? 0u : 1u);
+        result->cohort.cluster = sites;
+        auto snapshot = std::make_shared<AnalysisSnapshot>();
+        snapshot->request.intake = intake;
+        snapshot->request.panel.monitoring.simulatedRuns = 50;
+        snapshot->validation = runValidation(result->cohort, snapshot->request.panel);
+        snapshot->audit = result->audit;
+        snapshot->inputs = result->inputs;
+        snapshot->cohort = std::make_shared<const Cohort>(std::move(result->cohort));
+        QVERIFY(snapshot->validation.monitoring);
+        const ReportDocument document = buildReport(*snapshot, {}, 11, "2026-01-01T00:00:00Z");
+        const ReportTable* summary = nullptr;
+        const ReportTable* signalTable = nullptr;
+        const ReportTable* caseMix = nullptr;
+        for (const ReportTable* t : document.tables()) {
+            summary = t->id == "monitoring" ? t : summary;
+            signalTable = t->id == "monitoring_signals" ? t : signalTable;
+            caseMix = t->id == "monitoring_case_mix" ? t : caseMix;
+        }
+        QVERIFY(summary && caseMix);
+        const auto& scopes = snapshot->validation.monitoring->scopes;
+        QCOMPARE(summary->rows.size(), scopes.size() * 2); // whole cohort, North, South; two charts each
+        QCOMPARE(summary->rows[0][6].text, fixedText(scopes[0].charts[0].limit.limit, 2));
+        QCOMPARE(summary->rows[2][1].text, std::string("North"));
+        QCOMPARE(caseMix->rows.size(), std::size_t(3 * 24));
+        // Signals by month only: no day of a patient reaches the report.
+        if (signalTable)
+            for (const auto& row : signalTable->rows)
+                QVERIFY(std::regex_match(row[3].text, std::regex("\\d{4}-\\d{2}")));
+        const QString content = pdfText(snapshot, document, {});
+        QVERIFY(content.contains(QStringLiteral("CUSUM watching for worse outcomes")));
+        QVERIFY(content.contains(QStringLiteral("Monitoring: expected minus observed and the CUSUMs")));
     }
 
     void pageOneIsADecisionSummaryWithTheKeyNumbersAndEveryWarning()
