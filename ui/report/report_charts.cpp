@@ -64,6 +64,8 @@ ExportableChartView* ReportCharts::view(const ReportChartRef& chart) const
     };
     auto sites = [&](auto* v) -> ExportableChartView* {
         m_sites->modelPicker()->setCurrentIndex(chart.choice);
+        return settled(v);
+    };
     auto monitoring = [&](auto* v) -> ExportableChartView* {
         m_monitoring->scopePicker()->setCurrentIndex(0); // the whole cohort
         m_monitoring->modelPicker()->setCurrentIndex(chart.choice);
