@@ -73,8 +73,8 @@ edit many 'a["options"]["thresholds"] = [0.2] * 5000000'
 expect 2 "" -- "$cli" validate --settings "$work/inputs/many.plumbline.json"
 for case in 'confidence=0' 'confidence=-0.95' 'confidence=2' 'risk_groups=-5' 'risk_groups=0' 'thresholds=[-1]' \
             'thresholds=[2]' 'thresholds=[1e308]' 'bootstrap=2.5' 'bootstrap=-1' 'ci_method="bogus"' \
-            'minimum_cell=0' 'decision_threshold=7' 'capacity="101%"' 'capacity="40/fortnight"' 'capacity=7' 'capacity="-5/week"'; do
-            'minimum_cell=0' 'decision_threshold=7' 'cusum_odds=[0.5,2]' 'cusum_odds=[2]' 'cusum_odds=[1e308,0.5]' \
+            'minimum_cell=0' 'decision_threshold=7' 'capacity="101%"' 'capacity="40/fortnight"' 'capacity=7' 'capacity="-5/week"' \
+            'cusum_odds=[0.5,2]' 'cusum_odds=[2]' 'cusum_odds=[1e308,0.5]' \
             'cusum_years=0' 'cusum_years=1e9'; do
   key=${case%%=*}; value=${case#*=}
   edit bad "a['options']['$key'] = $value"
