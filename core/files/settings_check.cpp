@@ -125,10 +125,11 @@ std::expected<void, InputError> checkPanel(const Checker& check, const PanelSett
     // The CUSUMs: one odds ratio above 1 (worse) and one below (better), neither so extreme that
     // a single patient signals; an in-control run length of a tenth of a year to 50 years of volume.
     const MonitoringSettings& m = p.monitoring;
-    if (!(std::isfinite(m.worseOdds) && std::isfinite(m.betterOdds) && m.worseOdds > 1.0 && m.worseOdds <= L::maxCusumOdds
-          && m.betterOdds < 1.0 && m.betterOdds >= 1.0 / L::maxCusumOdds))
+    if (!(std::isfinite(m.worseOdds) && std::isfinite(m.betterOdds) && m.worseOdds >= L::minCusumWorseOdds && m.worseOdds <= L::maxCusumOdds
+          && m.betterOdds <= L::maxCusumBetterOdds && m.betterOdds >= 1.0 / L::maxCusumOdds))
         return check.refuse(Setting::CusumOdds, numberText(m.worseOdds) + "," + numberText(m.betterOdds),
-                            "takes two odds ratios: the first above 1 and at most 20 (worse outcomes), the second below 1 and at least 0.05 (better).",
+                            "takes two odds ratios: the first from 1.1 to 20 (worse outcomes), the second from 0.05 to 0.9 (better); "
+                            "nearer 1 a chart cannot signal.",
                             "e.g. 2,0.5.");
     if (!(std::isfinite(m.targetYears) && m.targetYears >= L::minCusumYears && m.targetYears <= L::maxCusumYears))
         return check.refuse(Setting::CusumYears, numberText(m.targetYears), "must lie between 0.1 and 50 years.", "give e.g. 5.");

@@ -23,6 +23,10 @@ struct SettingLimits {
     static constexpr unsigned minThreads = 1, maxThreads = 256;
     static constexpr std::size_t minLineBytes = 1024, maxLineBytes = std::size_t{1} << 30;
     static constexpr double maxCusumOdds = 20.0, minCusumYears = 0.1, maxCusumYears = 50.0;
+    // Odds ratios nearer 1 give a chart whose in-control and shifted drifts hardly differ: its
+    // simulated limit cannot reach the target run length, and it can never usefully signal
+    // (our choice, docs/methods.md §21a).
+    static constexpr double minCusumWorseOdds = 1.1, maxCusumBetterOdds = 0.9;
 };
 
 // Where the settings were given: the message names each setting as the user wrote it there

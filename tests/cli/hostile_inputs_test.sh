@@ -74,7 +74,7 @@ expect 2 "" -- "$cli" validate --settings "$work/inputs/many.plumbline.json"
 for case in 'confidence=0' 'confidence=-0.95' 'confidence=2' 'risk_groups=-5' 'risk_groups=0' 'thresholds=[-1]' \
             'thresholds=[2]' 'thresholds=[1e308]' 'bootstrap=2.5' 'bootstrap=-1' 'ci_method="bogus"' \
             'minimum_cell=0' 'decision_threshold=7' 'capacity="101%"' 'capacity="40/fortnight"' 'capacity=7' 'capacity="-5/week"' \
-            'cusum_odds=[0.5,2]' 'cusum_odds=[2]' 'cusum_odds=[1e308,0.5]' \
+            'cusum_odds=[0.5,2]' 'cusum_odds=[2]' 'cusum_odds=[1e308,0.5]' 'cusum_odds=[1.0001,0.9999]' \
             'cusum_years=0' 'cusum_years=1e9'; do
   key=${case%%=*}; value=${case#*=}
   edit bad "a['options']['$key'] = $value"
@@ -91,7 +91,9 @@ expect 2 "not valid JSON" -- "$cli" validate --settings "$work/inputs/huge.plumb
 expect 2 "--seed" -- "$cli" validate "$x" "${columns[@]}" --seed -5
 expect 2 "--cusum-odds takes two odds ratios" -- "$cli" validate "$x" "${columns[@]}" --cusum-odds 2
 expect 2 "--cusum-odds takes two odds ratios" -- "$cli" validate "$x" "${columns[@]}" --cusum-odds 2,abc
-expect 2 "--cusum-odds takes two odds ratios: the first above 1" -- "$cli" validate "$x" "${columns[@]}" --cusum-odds 0.5,2
+expect 2 "--cusum-odds takes two odds ratios: the first from 1.1 to 20" -- "$cli" validate "$x" "${columns[@]}" --cusum-odds 0.5,2
+# Odds ratios so near 1 that a chart could never signal are refused.
+expect 2 "nearer 1 a chart cannot signal" -- "$cli" validate "$x" "${columns[@]}" --cusum-odds 1.0001,0.9999
 expect 2 "--cusum-years must lie between 0.1 and 50" -- "$cli" validate "$x" "${columns[@]}" --cusum-years 1000000
 
 echo "== 6. a changed or unfingerprinted input is a warning of the result"

@@ -52,8 +52,9 @@ TEST_CASE("Every setting out of its range is refused naming it where it was give
     a = {};
     a.addUpdated = "bogus";
     CHECK(refusal(a).find("--add-updated") != std::string::npos);
-    // The CUSUMs: worse above 1 and at most 20, better below 1 and at least 0.05; 0.1 to 50 years.
-    for (const auto& [worse, better] : {std::pair{0.5, 2.0}, {1.0, 0.5}, {2.0, 1.0}, {21.0, 0.5}, {2.0, 0.04}, {1e308, 0.5}}) {
+    // The CUSUMs: worse from 1.1 to 20, better from 0.05 to 0.9 (nearer 1 a chart cannot signal); 0.1 to 50 years.
+    for (const auto& [worse, better] : {std::pair{0.5, 2.0}, {1.0, 0.5}, {2.0, 1.0}, {21.0, 0.5}, {2.0, 0.04}, {1e308, 0.5},
+                                        {1.0001, 0.9999}, {1.09, 0.5}, {2.0, 0.91}}) {
         a = {};
         a.panel.monitoring.worseOdds = worse;
         a.panel.monitoring.betterOdds = better;
@@ -63,6 +64,9 @@ TEST_CASE("Every setting out of its range is refused naming it where it was give
     a = {};
     a.panel.monitoring.worseOdds = 20.0;
     a.panel.monitoring.betterOdds = 0.05;
+    CHECK(refusal(a).empty());
+    a.panel.monitoring.worseOdds = 1.1;
+    a.panel.monitoring.betterOdds = 0.9;
     CHECK(refusal(a).empty());
     for (const double years : {0.0, 0.09, 50.5, -5.0}) {
         a = {};
