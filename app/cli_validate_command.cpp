@@ -4,6 +4,7 @@
 #include "files/atomic_file.hpp"
 #include "cli_analysis_options.hpp"
 #include "cli_exit.hpp"
+#include "cli_ineffective_options.hpp"
 #include "cli_panel_report.hpp"
 #include "cli_text.hpp"
 #include "intake/intake.hpp"
@@ -158,6 +159,8 @@ int runValidate(const ValidateOptions& options, const CLI::App& command)
     if (auto ok = checkOutputs(options, *analysis); !ok)
         return reportError(ok.error());
     for (const auto& warning : settingsWarnings)
+        std::cerr << "plumbline-cli: warning: " << warning << '\n';
+    for (const auto& warning : ineffectiveOptionWarnings(command, *analysis))
         std::cerr << "plumbline-cli: warning: " << warning << '\n';
     auto result = runIntake(analysis->intake);
     if (!result)

@@ -22,6 +22,15 @@ expect() { # expect STATUS "needle in stderr" -- command...
 }
 
 sample=$samples/readmissions.csv
+# Options that cannot act on this run are not silently ignored: a warning names what they need.
+expect 0 "--cusum-odds has no effect without --period" -- "$cli" validate "$sample" --outcome readmitted_30d \
+  --score supplier_score --cusum-odds 3,0.4
+expect 0 "--cusum-years has no effect without --period" -- "$cli" validate "$sample" --outcome readmitted_30d \
+  --score supplier_score --cusum-years 2
+expect 0 "--acceptable has no effect without --cluster" -- "$cli" validate "$sample" --outcome readmitted_30d \
+  --score supplier_score --acceptable c=0.7
+out=$("$cli" validate "$sample" --outcome readmitted_30d --score supplier_score 2>&1 >/dev/null)
+if [[ $out == *"has no effect"* ]]; then echo "FAIL: a plain run warns of an ineffective option: $out"; failures=$((failures+1)); fi
 # Done, and the JSON holds the interface's blocks with a balanced audit.
 expect 0 "" -- "$cli" validate "$sample" --outcome readmitted_30d --score supplier_score --score local_score \
   --bootstrap 200 --seed 11 --threads 1 --json "$work/r.json"
