@@ -37,8 +37,9 @@ void printMonitoring(std::ostream& out, const ValidationResult& result)
                 << (chart.limit.reached ? "" : " [target not reached]") << "; " << chart.signalList.size() << " signal"
                 << (chart.signalList.size() == 1 ? "" : "s");
             if (!chart.signalList.empty())
-                out << ", last on " << chart.signalList.back().date
-                    << (chart.signalList.back().site.empty() || !scope.site.empty() ? "" : " at " + chart.signalList.back().site);
+                // No site for the whole-network scope: the patient who tipped a pooled sum says
+                // nothing about where the excess lies.
+                out << ", last on " << chart.signalList.back().date;
             out << '\n';
         }
         if (scope.latestYearPsi)

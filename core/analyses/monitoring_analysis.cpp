@@ -96,7 +96,8 @@ void fillCaseMix(MonitoringScope& scope, const std::vector<double>& p, const std
         scope.latestYearPsi = populationStabilityIndex(edges, firstP, latestP);
         scope.codingShift = checkCodingShift(riskAndRate(firstP, firstY, confidence), riskAndRate(latestP, latestY, confidence), rise);
         if (scope.codingShift->flagged)
-            scope.question = "Predicted risk rose while the observed rate did not: has coding or documentation changed?";
+            scope.question = "Predicted risk rose while the observed rate did not (PSI measures the spread of the scores, not their "
+                             "level): has coding or documentation changed?";
     }
 }
 

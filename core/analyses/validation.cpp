@@ -1,5 +1,6 @@
 #include "analyses/validation.hpp"
 
+#include "analyses/monitoring_warnings.hpp"
 #include "analyses/subgroup_analysis.hpp"
 #include "metrics/panel_keys.hpp"
 
@@ -123,6 +124,10 @@ ValidationResult runValidation(const Cohort& cohort, const PanelSettings& settin
         result.warnings.insert(result.warnings.end(), result.sites->warnings.begin(), result.sites->warnings.end());
     for (const auto& model : result.models)
         result.warnings.insert(result.warnings.end(), model.warnings.begin(), model.warnings.end());
+    // Monitoring's findings belong in the summary, not only in its own section.
+    if (result.monitoring)
+        for (auto& warning : monitoringWarnings(*result.monitoring))
+            result.warnings.push_back(std::move(warning));
     return result;
 }
 

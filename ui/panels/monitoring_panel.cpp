@@ -30,7 +30,7 @@ MonitoringPanel::MonitoringPanel(QWidget* parent)
     : QWidget(parent)
     , m_model(new QComboBox)
     , m_scope(new QComboBox)
-    , m_vlad(new MonitoringPathView(tr("Cumulative expected − observed"), tr("Events (expected − observed)")))
+    , m_vlad(new MonitoringPathView(tr("Cumulative expected − observed"), tr("Expected − observed")))
     , m_caseMix(new CaseMixView)
     , m_worse(new MonitoringPathView(tr("CUSUM: worse than predicted"), tr("CUSUM")))
     , m_better(new MonitoringPathView(tr("CUSUM: better than predicted"), tr("CUSUM")))
@@ -171,20 +171,28 @@ void MonitoringPanel::showScope()
             QStringList listed;
             for (std::size_t s = 0; s < std::min(signalsListed, chart.signalList.size()); ++s) {
                 const CusumSignal& signal = chart.signalList[s];
-                listed << tr("%1%2 after %3 patients")
-                              .arg(text(signal.date), signal.site.empty() || !scope->site.empty() ? QString() : tr(" at %1").arg(text(signal.site)))
-                              .arg(signal.patientsSinceReset);
+                // No site for the whole-network scope: the patient who tipped a pooled sum says
+                // nothing about where the excess lies.
+                listed << tr("%1 after %2 patients").arg(text(signal.date)).arg(signal.patientsSinceReset);
             }
             line += tr(" %n signal(s): ", nullptr, int(chart.signalList.size())) + listed.join(QStringLiteral("; "))
-                    + (chart.signalList.size() > signalsListed ? tr("; …") : QString()) + QLatin1Char('.');
+                    + (chart.signalList.size() > signalsListed
+                           ? tr("; and %1 more").arg(chart.signalList.size() - signalsListed)
+                           : QString())
+                    + QLatin1Char('.');
         }
         lines << line;
     }
     if (scope->latestYearPsi)
         lines << tr("Scores in the latest year against the first: PSI %1 (%2 shift; the bands 0.1 and 0.25 are common practice).")
                      .arg(text(fixedText(*scope->latestYearPsi, 3)), text(psiBand(*scope->latestYearPsi)));
-    if (!scope->question.empty())
-        lines << text(scope->question);
+    if (!scope->question.empty() && scope->codingShift)
+        lines << text(scope->question)
+                     + tr(" Mean predicted risk %1 in the first year, %2 in the latest; observed rate %3 then, %4 now.")
+                           .arg(text(fixedText(scope->codingShift->firstYear.meanPredicted, 3)),
+                                text(fixedText(scope->codingShift->latestYear.meanPredicted, 3)),
+                                text(fixedText(scope->codingShift->firstYear.observedRate, 3)),
+                                text(fixedText(scope->codingShift->latestYear.observedRate, 3)));
     m_note->setText(lines.join(QLatin1Char('\n')));
 }
 

@@ -3,7 +3,9 @@
 #include "metrics/population_stability.hpp"
 #include "reporting/value_text.hpp"
 
+#include <algorithm>
 #include <string>
+#include <vector>
 
 namespace plumbline {
 
@@ -25,6 +27,9 @@ ReportCell count(std::size_t value, std::size_t minimumCell)
         return {"suppressed", std::nullopt, true};
     return {std::to_string(value), double(value)};
 }
+
+// Signals listed per chart and scope in the report; the rest are in the result file.
+constexpr std::size_t signalsPerChart = 10;
 
 std::string scopeName(const MonitoringScope& scope)
 {
@@ -49,6 +54,7 @@ void addMonitoring(ReportSection& section, const ValidationResult& v, std::size_
     ReportTable questions{"monitoring_questions", "Monitoring: case mix and coding, latest year against the first",
                           {"Model", "Scope", "PSI", "Shift", "Mean predicted, first year", "Mean predicted, latest year", "Question"},
                           {}, {}, {}};
+    std::vector<std::vector<ReportCell>> worseSignals, betterSignals;
     for (const auto& scope : m.scopes) {
         for (const auto& chart : scope.charts) {
             summary.rows.push_back({text(scope.model), text(scopeName(scope)), count(scope.patients, minimumCell),
@@ -57,10 +63,21 @@ void addMonitoring(ReportSection& section, const ValidationResult& v, std::size_
                                     text(fixedText(chart.limit.averageRunLength, 0) + " ± " + fixedText(chart.limit.standardError, 0)
                                          + (chart.limit.reached ? "" : " (target not reached)")),
                                     number(chart.targetRunLength, 0), number(double(chart.signalList.size()), 0)});
-            for (const auto& signal : chart.signalList)
-                signalsTable.rows.push_back({text(scope.model), text(scopeName(scope)), text(cusumDirectionKey(chart.direction)),
-                                             text(signal.date.substr(0, 7)), text(signal.site),
-                                             count(signal.patientsSinceReset, minimumCell)});
+            // At most the first few signals per chart and scope; the worse chart's first. The
+            // whole-network scope shows no site: the patient who tipped a pooled sum says nothing
+            // about where the excess lies.
+            auto& rows = chart.direction == CusumDirection::Worse ? worseSignals : betterSignals;
+            const std::size_t shown = std::min(chart.signalList.size(), signalsPerChart);
+            for (std::size_t k = 0; k < shown; ++k) {
+                const CusumSignal& signal = chart.signalList[k];
+                rows.push_back({text(scope.model), text(scopeName(scope)), text(cusumDirectionKey(chart.direction)),
+                                text(signal.date.substr(0, 7)), text(scope.site.empty() ? "-" : signal.site),
+                                count(signal.patientsSinceReset, minimumCell)});
+            }
+            if (chart.signalList.size() > shown)
+                rows.push_back({text(scope.model), text(scopeName(scope)), text(cusumDirectionKey(chart.direction)),
+                                text("and " + std::to_string(chart.signalList.size() - shown) + " more (all in the JSON)"), text(""),
+                                text("")});
         }
         for (const auto& row : scope.periods)
             caseMix.rows.push_back({text(scope.model), text(scopeName(scope)), text(row.period), number(row.values.meanPredicted, 3),
@@ -71,6 +88,8 @@ void addMonitoring(ReportSection& section, const ValidationResult& v, std::size_
                                       number(scope.codingShift->latestYear.meanPredicted, 3),
                                       text(scope.question.empty() ? "-" : scope.question)});
     }
+    signalsTable.rows = std::move(worseSignals);
+    signalsTable.rows.insert(signalsTable.rows.end(), betterSignals.begin(), betterSignals.end());
     std::string notes;
     for (const auto& note : m.notes)
         notes += note + " ";

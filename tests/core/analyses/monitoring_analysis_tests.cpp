@@ -250,7 +250,8 @@ TEST_CASE("The coding-shift question is asked when predicted risk is inflated in
         CHECK(all.codingShift->flagged);
         CHECK(all.codingShift->predictedRatio > 1.2);
         CHECK_FALSE(all.codingShift->observedRose);
-        CHECK(all.question == "Predicted risk rose while the observed rate did not: has coding or documentation changed?");
+        CHECK(all.question == "Predicted risk rose while the observed rate did not (PSI measures the spread of the scores, not their level): "
+                              "has coding or documentation changed?");
         CHECK(*all.latestYearPsi > 0.1);
         // Months of ~90 patients are noisy (a same-distribution month gives about 9/90): compared as averages.
         double firstYear = 0.0, secondYear = 0.0;
@@ -285,4 +286,29 @@ TEST_CASE("runValidation fills the monitoring from the period column, with the s
     Cohort undated = cohort;
     undated.period.reset();
     CHECK_FALSE(runValidation(undated, settings).monitoring);
+}
+
+TEST_CASE("runValidation puts monitoring's findings in the run's warnings: a worse signal and the coding-shift question", "[monitoring]")
+{
+    // Deterioration (odds ×2) from the second year: the worse chart signals, and the summary says so.
+    Simulation worse;
+    worse.changeDay = 365;
+    worse.trueOdds = 2.0;
+    PanelSettings settings;
+    settings.monitoring.simulatedRuns = 50;
+    const ValidationResult result = runValidation(simulatedCohort(worse, 5), settings);
+    REQUIRE(result.monitoring);
+    const auto& signals = result.monitoring->scopes.at(0).charts.at(0).signalList;
+    REQUIRE_FALSE(signals.empty());
+    const std::string expected = "Monitoring: risk overall (all patients): the CUSUM for worse outcomes than predicted signalled on "
+                                 + signals.front().date + " (";
+    CHECK(std::any_of(result.warnings.begin(), result.warnings.end(), [&](const std::string& w) { return w.starts_with(expected); }));
+    // Scores inflated in year two: the question appears among the warnings with its numbers.
+    Simulation inflated;
+    inflated.inflateDay = 366;
+    inflated.inflate = 0.5;
+    const ValidationResult coded = runValidation(simulatedCohort(inflated, 1), settings);
+    CHECK(std::any_of(coded.warnings.begin(), coded.warnings.end(), [](const std::string& w) {
+        return w.find("has coding or documentation changed?") != std::string::npos && w.find("Mean predicted risk 0.") != std::string::npos;
+    }));
 }

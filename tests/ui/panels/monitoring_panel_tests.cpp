@@ -6,9 +6,11 @@
 #include "charts/monitoring_path_view.hpp"
 #include "panels/monitoring_panel.hpp"
 #include "panels/settings_panel.hpp"
+#include "reporting/value_text.hpp"
 #include "resampling/random_stream.hpp"
 #include "support/fresh_settings_main.hpp"
 
+#include <QAbstractAxis>
 #include <QChart>
 #include <QComboBox>
 #include <QDoubleSpinBox>
@@ -104,6 +106,27 @@ private slots:
         QVERIFY(vlad);
         QCOMPARE(vlad->at(vlad->count() - 1).y(), all.finalExpectedMinusObserved);
         QVERIFY(panel.noteText().contains(QStringLiteral("has coding or documentation changed?")));
+        // The question carries its numbers and says what PSI measures.
+        QVERIFY(all.codingShift);
+        QVERIFY(panel.noteText().contains(QStringLiteral("PSI measures the spread of the scores, not their level")));
+        QVERIFY2(panel.noteText().contains(QStringLiteral("Mean predicted risk %1 in the first year, %2 in the latest; observed rate %3 then, %4 now.")
+                                               .arg(QString::fromStdString(fixedText(all.codingShift->firstYear.meanPredicted, 3)),
+                                                    QString::fromStdString(fixedText(all.codingShift->latestYear.meanPredicted, 3)),
+                                                    QString::fromStdString(fixedText(all.codingShift->firstYear.observedRate, 3)),
+                                                    QString::fromStdString(fixedText(all.codingShift->latestYear.observedRate, 3)))),
+                 qPrintable(panel.noteText()));
+        // The whole cohort's signals name no site, and a long list ends in a count, not "….".
+        QVERIFY(all.charts[0].signalList.size() + all.charts[1].signalList.size() > 0);
+        QVERIFY2(!panel.noteText().contains(QStringLiteral(" at East")) && !panel.noteText().contains(QStringLiteral(" at West")),
+                 qPrintable(panel.noteText()));
+        QVERIFY(!panel.noteText().contains(QStringLiteral("….")));
+        for (const auto& chart : all.charts)
+            if (chart.signalList.size() > 8)
+                QVERIFY(panel.noteText().contains(QStringLiteral("; and %1 more.").arg(chart.signalList.size() - 8)));
+        // The cumulative chart's y-axis title is short enough for a 1280×720 window.
+        const auto vertical = panel.expectedMinusObservedChart()->chart()->axes(Qt::Vertical);
+        QVERIFY(!vertical.isEmpty());
+        QCOMPARE(vertical.first()->titleText(), QStringLiteral("Expected − observed"));
         QVERIFY(panel.noteText().contains(QStringLiteral("in-control run length")));
         // A person picks the second site with the keyboard: the charts follow its scope.
         panel.scopePicker()->setFocus();

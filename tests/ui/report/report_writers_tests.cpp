@@ -322,10 +322,30 @@ private slots:
         // Signals by month only: no day of a patient reaches the report.
         if (signalTable)
             for (const auto& row : signalTable->rows)
-                QVERIFY(std::regex_match(row[3].text, std::regex("\\d{4}-\\d{2}")));
+                QVERIFY(std::regex_match(row[3].text, std::regex("\\d{4}-\\d{2}|and \\d+ more \\(all in the JSON\\)")));
         const QString content = pdfText(snapshot, document, {});
         QVERIFY(content.contains(QStringLiteral("CUSUM watching for worse outcomes")));
         QVERIFY(content.contains(QStringLiteral("Monitoring: expected minus observed and the CUSUMs")));
+        // Many signals: at most 10 per chart and scope, the worse chart's first, the rest
+        // counted; the whole-network scope names no site (the tipping patient's site misleads).
+        auto& monitoring = *snapshot->validation.monitoring;
+        for (auto& scope : monitoring.scopes)
+            for (auto& chart : scope.charts)
+                chart.signalList.clear();
+        monitoring.scopes[0].charts[1].signalList.assign(25, CusumSignal{9, "2024-02-01", "North", CusumDirection::Better, 9});
+        monitoring.scopes[0].charts[0].signalList.assign(3, CusumSignal{5, "2024-03-02", "South", CusumDirection::Worse, 5});
+        const ReportDocument many = buildReport(*snapshot, {}, 11, "2026-01-01T00:00:00Z");
+        const ReportTable* listed = nullptr;
+        for (const ReportTable* t : many.tables())
+            listed = t->id == "monitoring_signals" ? t : listed;
+        QVERIFY(listed);
+        QCOMPARE(listed->rows.size(), std::size_t(3 + 10 + 1));
+        for (std::size_t r = 0; r < 3; ++r)
+            QCOMPARE(listed->rows[r][2].text, std::string("worse"));
+        QCOMPARE(listed->rows[3][2].text, std::string("better"));
+        QCOMPARE(listed->rows[13][3].text, std::string("and 15 more (all in the JSON)"));
+        for (std::size_t r = 0; r < 13; ++r)
+            QCOMPARE(listed->rows[r][4].text, std::string("-"));
     }
 
     void pageOneIsADecisionSummaryWithTheKeyNumbersAndEveryWarning()
