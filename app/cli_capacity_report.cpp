@@ -36,10 +36,11 @@ void printCapacity(std::ostream& out, const ValidationResult& result)
     out << "\nCapacity " << c.text << " (flagged if risk >= threshold, highest risk first):\n  " << c.definition << '\n';
     for (const auto& r : c.overall) {
         out << "  " << r.model << ": capacity " << r.at.requested << " patients; threshold " << fixed(r.at.threshold, 4) << " flags "
-            << r.at.flagged << (r.at.exact() ? " (exactly the capacity)" : "") << '\n';
-        if (r.at.threshold && !r.at.exact() && r.at.requested <= r.patients)
-            out << "    ties: " << r.at.tiedAtThreshold << " patients share the threshold's risk, so no threshold flags exactly "
-                << r.at.requested << "; the next threshold up flags " << r.at.flaggedAboveTies << '\n';
+            << r.at.flagged << (r.at.exact() ? " (exactly the capacity)" : r.at.flagged < r.at.requested ? " (at most the capacity)" : "") << '\n';
+        // A capacity is a ceiling: with a tie across it the threshold is the next risk up.
+        if (r.at.tiesCrossCapacity())
+            out << "    ties: " << r.at.tiedAtNextRiskDown << " patients share the next risk down (" << fixed(r.at.nextRiskDown, 4)
+                << "), which would flag " << r.at.flaggedAtNextRiskDown << ", more than the capacity\n";
         out << "    sensitivity " << withInterval(r.sensitivity) << ", specificity " << withInterval(r.specificity) << ", PPV "
             << withInterval(r.ppv) << '\n'
             << "    net benefit " << fixed(r.netBenefit, 4) << ", events reached per 100 flagged " << fixed(r.eventsPer100Flagged, 1) << '\n';
@@ -55,7 +56,9 @@ void printCapacity(std::ostream& out, const ValidationResult& result)
             << r.patients << std::setw(10) << r.at.requested << std::setw(11) << fixed(r.at.threshold, 4) << std::setw(9) << r.at.flagged
             << std::setw(7) << fixed(r.sensitivity.value) << std::setw(7) << fixed(r.ppv.value) << std::setw(10)
             << (r.flaggedByOverallThreshold ? std::to_string(*r.flaggedByOverallThreshold) : "-")
-            << (r.overallThresholdOverflows ? "  [over capacity]" : "") << (r.at.exact() ? "" : "  [ties]") << '\n';
+            << (r.overallThresholdOverflows ? "  [over capacity]" : "") << (r.at.tiesCrossCapacity() ? "  [ties]" : "") << '\n';
+    out << "    [over capacity]: the whole-cohort threshold flags more than the period's capacity by more than "
+        << int(overCapacityMargin * 100 + 0.5) << "%; [ties]: patients tied where the capacity ends, the threshold flags fewer\n";
 }
 
 } // namespace plumbline::cli

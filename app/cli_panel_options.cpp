@@ -43,7 +43,7 @@ void PanelOptions::addTo(CLI::App& command)
         ->check(CLI::IsMember({"iso", "dmy", "mdy"}));
     command.add_option("--capacity", capacity,
                        "Patients the team can act on: a share (10%) or a number per day, week or month (40/week, needs --period); "
-                       "gives the threshold that flags that many");
+                       "gives the threshold that flags at most that many");
     command.add_option("--cusum-odds", cusumOdds, "Monitoring with --period: odds ratios the two CUSUMs watch for, worse,better (default 2,0.5)");
     command.add_option("--cusum-years", cusumYears, "Monitoring with --period: in-control run length of the CUSUMs in years of this volume (default 5)");
 }

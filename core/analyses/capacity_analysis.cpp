@@ -110,6 +110,11 @@ std::string countText(double value)
 
 } // namespace
 
+bool overflowsCapacity(std::size_t flagged, std::size_t requested)
+{
+    return double(flagged) > double(requested) * (1.0 + overCapacityMargin);
+}
+
 std::optional<DateSpan> cohortDateSpan(const Cohort& cohort, std::optional<DateFormat> dateFormat)
 {
     if (!cohort.period || !checkPeriodDates(cohort, *cohort.period, dateFormat))
@@ -198,8 +203,8 @@ std::expected<CapacityAnalysis, InputError> analyseCapacity(const Cohort& cohort
                          + ", rounded down; a period's capacity is that share of its own patients. Flagged means risk at or "
                            "above the threshold, highest risk first.";
     if (rate && out.undated > 0)
-        out.warnings.push_back("Capacity: " + std::to_string(out.undated) + " patients have no usable date; they count among the "
-                               "cohort's patients but in no period.");
+        out.warnings.push_back("Capacity: some patients have no usable date; they count "
+                               "among the cohort's patients but in no period.");
     // Periods in time order ("2025-03" and "2025-Q1" both sort as text), with their days inside the span.
     std::vector<std::string> periodNames;
     std::vector<std::uint32_t> periodOfLevel(levels.size(), RowSubsets::none);
@@ -250,16 +255,18 @@ std::expected<CapacityAnalysis, InputError> analyseCapacity(const Cohort& cohort
             r.model = whole.model;
             r.period = periodNames[k];
             r.flaggedByOverallThreshold = whole.at.threshold ? flaggedAtOrAbove(p, periodOrders[k], *whole.at.threshold) : 0;
-            r.overallThresholdOverflows = *r.flaggedByOverallThreshold > r.at.requested;
+            r.overallThresholdOverflows = overflowsCapacity(*r.flaggedByOverallThreshold, r.at.requested);
             out.periods.push_back(std::move(r));
         }
         out.overall.push_back(std::move(whole));
     }
+    // Warnings reach the report's summary, which shows no small counts: they name no count of
+    // tied patients (the capacity section gives them under the small-cell rule).
     for (const auto& r : out.overall)
-        if (r.at.threshold && !r.at.exact() && r.at.requested <= r.patients)
-            out.warnings.push_back("Capacity: model '" + r.model + "' has " + std::to_string(r.at.tiedAtThreshold)
-                                   + " patients tied at the threshold, so no threshold flags exactly " + std::to_string(r.at.requested)
-                                   + ": it flags " + std::to_string(r.at.flagged) + ", the next one up " + std::to_string(r.at.flaggedAboveTies) + ".");
+        if (r.at.tiesCrossCapacity())
+            out.warnings.push_back("Capacity: model '" + r.model + "' has patients tied at the risk where the capacity " + out.text
+                                   + " ends, so no threshold flags exactly the capacity; the threshold is the next risk up, which flags "
+                                   "fewer (the capacity section says how many, and how many the next risk down would flag).");
     return out;
 }
 

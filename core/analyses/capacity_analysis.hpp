@@ -29,10 +29,16 @@ struct CapacityResult {
     std::optional<double> netBenefit;          // probabilities only, at the capacity threshold
     std::optional<double> eventsPer100Flagged; // 100 · TP / flagged
     // Periods only: patients of this period the whole cohort's threshold flags, and whether that
-    // is more than this period's capacity (a busy month overflowing a fixed threshold).
+    // is more than this period's capacity by more than overCapacityMargin (a busy month
+    // overflowing a fixed threshold, not one patient over).
     std::optional<std::size_t> flaggedByOverallThreshold;
     bool overallThresholdOverflows = false;
 };
+
+// A period is "over capacity" when the whole cohort's threshold flags more than its capacity by
+// more than this share: 10 %, common practice for a tolerance on a workload (not from a source).
+inline constexpr double overCapacityMargin = 0.10;
+bool overflowsCapacity(std::size_t flagged, std::size_t requested);
 
 struct CapacityAnalysis {
     CapacitySpec spec;

@@ -68,9 +68,8 @@ std::expected<CapacitySpec, InputError> parseCapacity(std::string_view raw, std:
     std::string_view number;
     if (text.back() == '%') {
         spec.kind = CapacitySpec::Kind::Share;
-        number = text.substr(0, text.size() - 1);
-        if (!number.empty() && (number.back() == ' ' || number.back() == '\t'))
-            return std::unexpected(refusal(raw, name, "has a space before '%'.", "write the share without it, e.g. 10%."));
+        // Spaces before the sign are accepted, as they are before and after '/' ("10 %", "40 / week").
+        number = trimmed(text.substr(0, text.size() - 1));
     } else if (const auto slash = text.find('/'); slash != std::string_view::npos) {
         spec.kind = CapacitySpec::Kind::Rate;
         number = trimmed(text.substr(0, slash));
@@ -91,12 +90,12 @@ std::expected<CapacitySpec, InputError> parseCapacity(std::string_view raw, std:
     }
     const auto value = wholeNumber(number);
     if (!value)
-        return std::unexpected(refusal(raw, name, "needs a plain number before '" + std::string(spec.kind == CapacitySpec::Kind::Share ? "%" : "/") + "'; '" + std::string(number) + "' is not one.", examples));
+        return std::unexpected(refusal(raw, name, "needs a plain number before '" + std::string(spec.kind == CapacitySpec::Kind::Share ? "%" : "/") + "'; '" + std::string(number) + "' is not one (digits with at most one decimal point, no exponent).", examples));
     spec.amount = *value;
     if (spec.kind == CapacitySpec::Kind::Share && !(spec.amount > 0.0 && spec.amount <= 100.0))
         return std::unexpected(refusal(raw, name, "is a share of the patients and must lie above 0% and at most 100%.", "give e.g. 10%."));
     if (spec.kind == CapacitySpec::Kind::Rate && !(spec.amount > 0.0 && spec.amount <= maxCapacityRate))
-        return std::unexpected(refusal(raw, name, "must be a number of patients above 0 (at most 1e9).", "give e.g. 40/week."));
+        return std::unexpected(refusal(raw, name, "must be a number of patients above 0 and at most 1000000000.", "give e.g. 40/week."));
     return spec;
 }
 

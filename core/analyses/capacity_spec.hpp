@@ -27,8 +27,8 @@ struct CapacitySpec {
 // The largest rate accepted, so that no typed number can overflow a count.
 inline constexpr double maxCapacityRate = 1e9;
 
-// "10%", "2.5%", "40/week", "5/day", "120/month" (no spaces inside the number; spaces around the
-// text ignored). A share must lie in (0, 100], a rate in (0, 1e9]. `name` is how the user gave it
+// "10%", "2.5%", "40/week", "5/day", "120/month" (a plain decimal number, no exponent; spaces
+// around the text and before '%' or around '/' ignored). A share must lie in (0, 100], a rate in (0, 1e9]. `name` is how the user gave it
 // ("--capacity"), for the message.
 std::expected<CapacitySpec, InputError> parseCapacity(std::string_view text, std::string_view name);
 

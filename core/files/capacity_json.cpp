@@ -35,6 +35,9 @@ Json resultJson(const CapacityResult& r, bool period)
     row["tied_at_threshold"] = r.at.tiedAtThreshold;
     row["flagged_above_ties"] = r.at.flaggedAboveTies;
     row["exact"] = r.at.exact();
+    row["next_risk_down"] = numberOrNull(r.at.nextRiskDown);
+    row["tied_at_next_risk_down"] = r.at.tiedAtNextRiskDown;
+    row["flagged_at_next_risk_down"] = r.at.flaggedAtNextRiskDown;
     row["tp"] = r.tp;
     row["fp"] = r.fp;
     row["tn"] = r.tn;

@@ -159,7 +159,7 @@ std::expected<void, InputError> checkAnalysisSettings(const AnalysisFile& a, Set
         if (share && !(std::isfinite(c->amount) && c->amount > 0.0 && c->amount <= 100.0))
             return check.refuse(Setting::Capacity, capacityText(*c), "is a share of the patients and must lie above 0% and at most 100%.", "give e.g. 10%.");
         if (!share && !(std::isfinite(c->amount) && c->amount > 0.0 && c->amount <= maxCapacityRate))
-            return check.refuse(Setting::Capacity, capacityText(*c), "must be a number of patients above 0 (at most 1e9) per day, week or month.", "give e.g. 40/week.");
+            return check.refuse(Setting::Capacity, capacityText(*c), "must be a number of patients above 0 and at most 1000000000 per day, week or month.", "give e.g. 40/week.");
         // A rate becomes a number of patients only over the cohort's dates.
         if (!share && !a.intake.periodColumn)
             return check.refuse(Setting::Capacity, capacityText(*c), "counts patients per unit of time and needs the cohort's dates.",

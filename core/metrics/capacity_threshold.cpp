@@ -20,9 +20,22 @@ CapacityThreshold capacityThreshold(std::span<const double> risk, std::span<cons
     if (take == 0)
         return out;
     const double t = risk[order[n - take]];
-    out.threshold = t;
-    const auto below = std::partition_point(order.begin(), order.end(), [&](std::uint32_t row) { return risk[row] < t; });
-    const auto above = std::partition_point(below, order.end(), [&](std::uint32_t row) { return risk[row] <= t; });
+    auto below = std::partition_point(order.begin(), order.end(), [&](std::uint32_t row) { return risk[row] < t; });
+    auto above = std::partition_point(below, order.end(), [&](std::uint32_t row) { return risk[row] <= t; });
+    if (std::size_t(order.end() - below) > take) {
+        // The tie at t crosses the capacity: t would flag too many, so the threshold moves up to
+        // the next risk (if any), and t is reported as the next risk down.
+        out.nextRiskDown = t;
+        out.tiedAtNextRiskDown = std::size_t(above - below);
+        out.flaggedAtNextRiskDown = std::size_t(order.end() - below);
+        if (above == order.end())
+            return out;
+        const double up = risk[*above];
+        below = above;
+        above = std::partition_point(below, order.end(), [&](std::uint32_t row) { return risk[row] <= up; });
+        out.threshold = up;
+    } else
+        out.threshold = t;
     out.flagged = std::size_t(order.end() - below);
     out.tiedAtThreshold = std::size_t(above - below);
     out.flaggedAboveTies = std::size_t(order.end() - above);

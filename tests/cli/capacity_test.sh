@@ -62,7 +62,21 @@ def expect_row(row, sub, col, requested, label):
     if requested == 0:
         check(row["threshold"] is None and row["flagged"] == 0, f"{label}: nobody requested but something flagged")
         return
-    t = risks[min(requested, len(risks)) - 1]
+    k = min(requested, len(risks))
+    kth = risks[k - 1]
+    # A capacity is a ceiling: the lowest risk whose threshold flags at most k (pandas, by hand).
+    candidates = [v for v in sorted(set(risks)) if int((sub[col] >= v).sum()) <= k]
+    over = int((sub[col] >= kth).sum())
+    if over > k:
+        check(row["next_risk_down"] == kth, f"{label}: next risk down {row['next_risk_down']} != {kth}")
+        check(row["tied_at_next_risk_down"] == int((sub[col] == kth).sum()), f"{label}: tied at next risk down")
+        check(row["flagged_at_next_risk_down"] == over, f"{label}: flagged at next risk down")
+    else:
+        check(row["tied_at_next_risk_down"] == 0 and row["next_risk_down"] is None, f"{label}: ties reported without a tie")
+    if not candidates:
+        check(row["threshold"] is None and row["flagged"] == 0, f"{label}: nothing fits yet something flagged")
+        return None
+    t = candidates[0]
     flagged = sub[col] >= t
     tp = int((flagged & (sub["event"] == 1)).sum())
     n_flagged = int(flagged.sum())
@@ -80,8 +94,8 @@ def expect_row(row, sub, col, requested, label):
     # Net benefit = TP/N - FP/N * t/(1-t) (Vickers & Elkin 2006, Med Decis Making 26:565).
     nb = tp / len(sub) - (n_flagged - tp) / len(sub) * t / (1 - t)
     check(abs(row["net_benefit"] - nb) < 1e-12, f"{label}: net benefit {row['net_benefit']} != {nb}")
-    # The threshold flags at least the capacity, and when it flags more, ties are the reason.
-    check(n_flagged >= requested and (n_flagged == requested or tied > 1), f"{label}: more flagged without ties")
+    # The threshold flags at most the capacity, and when it flags fewer, a tie crossing it is the reason.
+    check(n_flagged <= requested and (n_flagged == k or over > k), f"{label}: fewer flagged without ties")
     return t
 
 share = json.load(open(f"{work}/share.json"))
@@ -115,7 +129,8 @@ def rate_checks(path, per_unit, unit_days, quarter):
         expect_row(row, sub, col, requested, f"{path} {row['period']} {col}")
         by_overall = int((sub[col] >= overall[col]).sum())
         check(row["flagged_by_overall_threshold"] == by_overall, f"{path} {row['period']}: by overall threshold")
-        check(row["overall_threshold_overflows"] == (by_overall > requested), f"{path} {row['period']}: overflow")
+        # Over capacity: more than the capacity by more than the stated 10 % margin (common practice).
+        check(row["overall_threshold_overflows"] == (by_overall > 1.1 * requested), f"{path} {row['period']}: overflow")
     return r
 
 rate = rate_checks(f"{work}/rate.json", 40, 7, False)
@@ -138,6 +153,13 @@ PY
 # The printed summary says the capacity, the rule and, per period, the overflow column.
 grep -q "^Capacity 10% (flagged if risk >= threshold" "$work/share.out" || { echo "FAIL: no capacity line in the summary"; failures=$((failures+1)); }
 grep -q "note: A threshold chosen to flag a capacity" "$work/share.out" || { echo "FAIL: no capacity caution in the summary"; failures=$((failures+1)); }
+# A capacity is a ceiling: every printed "capacity C patients; threshold T flags F" has F <= C.
+awk '/: capacity [0-9]+ patients; threshold .* flags [0-9]+/ { c = $0; sub(/.*: capacity /, "", c); sub(/ .*/, "", c);
+     f = $0; sub(/.* flags /, "", f); sub(/ .*/, "", f); n++; if (f + 0 > c + 0) bad++ }
+     END { exit (n == 0 || bad > 0) }' "$work/share.out" "$work/rate.out" \
+  || { echo "FAIL: a printed capacity threshold flags more than the capacity"; failures=$((failures+1)); }
+grep -q "\[over capacity\]: the whole-cohort threshold flags more than the period's capacity by more than 10%" "$work/rate.out" \
+  || { echo "FAIL: no legend for [over capacity]"; failures=$((failures+1)); }
 grep -q "whole-cohort threshold" "$work/rate.out" || { echo "FAIL: no per-period capacity table"; failures=$((failures+1)); }
 
 expect_refusal() { # expect_refusal "needle" -- capacity arguments...
@@ -150,7 +172,16 @@ expect_refusal() { # expect_refusal "needle" -- capacity arguments...
     echo "ok: $* refused"
   fi
 }
-expect_refusal "has a space before '%'" -- --capacity "10 %"
+expect_refusal "no exponent" -- --capacity "1e9/day"
+expect_refusal "at most 1000000000" -- --capacity "0/week"
+# Spaces are accepted alike before '%' and around '/'.
+for spaced in "10 %" "40 / week"; do
+  if "$cli" validate "$sample" --outcome readmitted_30d --score supplier_score --period discharge_date --capacity "$spaced" >/dev/null 2>&1; then
+    echo "ok: --capacity '$spaced' accepted"
+  else
+    echo "FAIL: --capacity '$spaced' refused"; failures=$((failures+1))
+  fi
+done
 expect_refusal "'fortnight' is none of them" -- --capacity 40/fortnight
 expect_refusal "must lie above 0% and at most 100%" -- --capacity 0%
 expect_refusal "must lie above 0% and at most 100%" -- --capacity 101%

@@ -95,6 +95,10 @@ expect 2 "--cusum-odds takes two odds ratios: the first from 1.1 to 20" -- "$cli
 # Odds ratios so near 1 that a chart could never signal are refused.
 expect 2 "nearer 1 a chart cannot signal" -- "$cli" validate "$x" "${columns[@]}" --cusum-odds 1.0001,0.9999
 expect 2 "--cusum-years must lie between 0.1 and 50" -- "$cli" validate "$x" "${columns[@]}" --cusum-years 1000000
+# The capacity's bound and its number form are said alike (plain digits, no exponent).
+expect 2 "at most 1000000000" -- "$cli" validate "$x" "${columns[@]}" --capacity 0/week
+expect 2 "no exponent" -- "$cli" validate "$x" "${columns[@]}" --capacity 1e9/day
+expect 2 "at most 1000000000" -- "$cli" validate "$x" "${columns[@]}" --capacity 1000000001/day
 
 echo "== 6. a changed or unfingerprinted input is a warning of the result"
 edit nohash 'del a["inputs"][0]["sha256"]'

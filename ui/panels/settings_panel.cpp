@@ -141,8 +141,11 @@ QWidget* SettingsPanel::buildAnalysisBox()
     form->addRow(tr("Decision curve r&ange:"), m_decisionRange);
     form->addRow(tr("Over time, &by:"), m_periodUnit);
     form->addRow(tr("Dates &written as:"), m_dateFormat);
-    m_capacity->setPlaceholderText(tr("e.g. 10% or 40/week (needs a period column); empty: none"));
-    m_capacity->setToolTip(tr("The patients the team can act on: the run adds the threshold that flags that many, per model and period"));
+    // A short placeholder that fits the field at 1280x720; the rest is in the tooltip.
+    m_capacity->setPlaceholderText(tr("10% or 40/week"));
+    m_capacity->setToolTip(tr("The patients the team can act on: the run adds the threshold that flags at most that many, per model "
+                              "and period. A share such as 10%, or a number per day, week or month such as 40/week (needs a "
+                              "period column). Empty: none."));
     form->addRow(tr("Capacit&y:"), m_capacity);
     form->addRow(tr("CUSUM &odds ratios:"), m_cusumOdds);
     form->addRow(tr("CUSUM run length (in control):"), m_cusumYears);

@@ -67,7 +67,10 @@ ThresholdPanel::ThresholdPanel(QWidget* parent)
     connect(m_slider, &QSlider::valueChanged, this, [this](int value) { setThreshold(double(value) / steps); });
     connect(m_spin, &QDoubleSpinBox::valueChanged, this, [this](double value) { setThreshold(value); });
     connect(m_capacity, &QLineEdit::returnPressed, this, &ThresholdPanel::applyCapacity);
-    connect(m_capacityModel, &QComboBox::currentIndexChanged, this, [this] { showCapacity(); });
+    connect(m_capacityModel, &QComboBox::currentIndexChanged, this, [this] {
+        m_typed.clear();
+        showCapacity();
+    });
     setThreshold(PanelSettings{}.decisionThreshold);
 }
 
@@ -87,6 +90,18 @@ void ThresholdPanel::setSnapshot(SnapshotPointer snapshot)
     m_capacity->setEnabled(usable);
     m_capacityModel->setEnabled(usable);
     m_capacityNote->setEnabled(usable);
+    // A run with a capacity (Settings → Capacity): the box shows it and the slider moves to its
+    // threshold, once per run.
+    const void* run = m_snapshot ? static_cast<const void*>(m_snapshot->cohort.get()) : nullptr;
+    if (usable && m_snapshot->validation.capacity && run != m_capacityRun) {
+        m_capacityRun = run;
+        {
+            const QSignalBlocker block(m_capacity);
+            m_capacity->setText(QString::fromStdString(m_snapshot->validation.capacity->text));
+        }
+        applyCapacity();
+        return;
+    }
     showCapacity();
 }
 
@@ -101,7 +116,14 @@ void ThresholdPanel::showCapacity()
     }
     const CapacityLookup& lookup = m_snapshot->capacity;
     const QSignalBlocker block(m_capacity);
-    m_capacity->setText(QString::fromStdString(capacityText(lookup.capacityAt(std::size_t(model), m_threshold))));
+    // What the user typed stays while the threshold is the one it set; the note beside it says
+    // what that threshold achieves. A moved slider shows what the new threshold flags instead.
+    if (!m_typed.isEmpty() && m_threshold == m_typedThreshold && model == m_typedModel)
+        m_capacity->setText(m_typed);
+    else {
+        m_typed.clear();
+        m_capacity->setText(QString::fromStdString(capacityText(lookup.capacityAt(std::size_t(model), m_threshold))));
+    }
     m_capacityNote->setText(tr("flags %1 of %2")
                                 .arg(QLocale().toString(qulonglong(lookup.flaggedAt(std::size_t(model), m_threshold))))
                                 .arg(QLocale().toString(qulonglong(lookup.patients))));
@@ -129,7 +151,11 @@ void ThresholdPanel::applyCapacity()
         return;
     }
     const double before = m_threshold;
-    setThreshold(lookup.thresholdFor(std::size_t(model), *allowed));
+    const double target = double(std::lround(std::clamp(lookup.thresholdFor(std::size_t(model), *allowed), 0.0, 1.0) * steps)) / steps;
+    m_typed = m_capacity->text().trimmed();
+    m_typedThreshold = target;
+    m_typedModel = model;
+    setThreshold(target);
     if (m_threshold == before)
         showCapacity(); // no change of threshold: still show what it flags
 }

@@ -45,6 +45,13 @@ private:
     QLineEdit* m_capacity;
     QLabel* m_capacityNote;
     SnapshotPointer m_snapshot;
+    // The capacity as the user typed it, kept in the box while the threshold is the one it set.
+    QString m_typed;
+    double m_typedThreshold = -1.0;
+    int m_typedModel = -1;
+    // The run whose capacity (Settings → Capacity) the box last took, so a refreshed snapshot of
+    // the same run does not move a slider the user has moved since.
+    const void* m_capacityRun = nullptr;
     double m_threshold = -1.0;
 };
 

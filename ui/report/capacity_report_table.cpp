@@ -37,7 +37,7 @@ std::optional<ReportTable> capacityTable(const ValidationResult& v, const Disclo
     const CapacityAnalysis& c = *v.capacity;
     const std::size_t minimumCell = plan.minimumCell;
     ReportTable table{"capacity", "Operating by capacity: " + c.text + " (flagged if risk >= threshold, highest risk first)",
-                      {"Model", "Period", "Capacity", "Threshold", "Flagged", "Tied at it", "TP", "FP", "TN", "FN", "Sensitivity",
+                      {"Model", "Period", "Capacity", "Threshold", "Flagged", "Tied at the next risk down (it would flag)", "TP", "FP", "TN", "FN", "Sensitivity",
                        "Specificity", "PPV", "Events per 100 flagged", "Net benefit", "Whole-cohort threshold flags"},
                       {}, {}, {}};
     // Periods the report suppresses elsewhere (their patients or events), by model and period.
@@ -66,9 +66,15 @@ std::optional<ReportTable> capacityTable(const ValidationResult& v, const Disclo
                 row.push_back(withheld());
         } else {
             row.push_back(count(r.at.flagged));
-            // One patient at the threshold is the threshold itself (already printed); a tie of a few is
-            // a small cell of its own, and neither it nor what flags above it is printed.
-            row.push_back(r.at.tiedAtThreshold > 1 && small(r.at.tiedAtThreshold, minimumCell) ? suppressed() : count(r.at.tiedAtThreshold));
+            // Ties across the capacity: how many share the next risk down and how many it would flag.
+            // Every count of 1 to minimumCell − 1 is a small cell, in every row alike.
+            const auto& at = r.at;
+            if (!at.tiesCrossCapacity())
+                row.push_back(count(0));
+            else if (small(at.tiedAtNextRiskDown, minimumCell) || small(at.flaggedAtNextRiskDown, minimumCell))
+                row.push_back(suppressed());
+            else
+                row.push_back(text(std::to_string(at.tiedAtNextRiskDown) + " (" + std::to_string(at.flaggedAtNextRiskDown) + ")"));
             for (std::size_t n : {r.tp, r.fp, r.tn, r.fn})
                 row.push_back(count(n));
             row.push_back(number(r.sensitivity.value, 3));
@@ -91,8 +97,10 @@ std::optional<ReportTable> capacityTable(const ValidationResult& v, const Disclo
             if (p.model == r.model)
                 addRow(p, true);
     }
-    table.note = c.definition + " When patients are tied at the threshold it flags more than the capacity; the column 'Tied at it' says how "
-                 "many share its risk. Counts of 1 to " + std::to_string(minimumCell - 1) + " are suppressed with what is built on them. " + std::string(capacityCaution);
+    table.note = c.definition + " A capacity is a ceiling: when patients are tied where the capacity ends, the threshold is the next risk "
+                 "up and flags fewer; the column 'Tied at the next risk down' says how many share that lower risk and, in brackets, how "
+                 "many a threshold there would flag. '(over capacity)': the whole-cohort threshold flags more than the period's "
+                 "capacity by more than " + std::to_string(int(overCapacityMargin * 100 + 0.5)) + "% (a tolerance, common practice). Counts of 1 to " + std::to_string(minimumCell - 1) + " are suppressed with what is built on them. " + std::string(capacityCaution);
     return table;
 }
 

@@ -160,6 +160,21 @@ private:
     QString m_header;
 };
 
+// A cell that is a number or a few numbers (digits with signs, points, ±, brackets, %, dates):
+// kept on one line in a table.
+bool unbreakable(const std::string& text)
+{
+    if (text.empty() || text.size() > 40)
+        return false;
+    bool digit = false;
+    for (const QChar c : QString::fromStdString(text)) {
+        if (c.isLetter())
+            return false;
+        digit = digit || c.isDigit();
+    }
+    return digit;
+}
+
 QString tableHtml(const ReportTable& table, std::size_t from, std::size_t to)
 {
     QString html = QStringLiteral("<p><b>%1</b>%2</p><table border=\"1\" cellpadding=\"3\" cellspacing=\"0\" width=\"100%\"><tr>")
@@ -169,10 +184,17 @@ QString tableHtml(const ReportTable& table, std::size_t from, std::size_t to)
     html += QStringLiteral("</tr>");
     for (std::size_t r = from; r < to; ++r) {
         html += QStringLiteral("<tr>");
-        for (const auto& cell : table.rows[r])
-            html += QStringLiteral("<td%1>%2</td>")
+        for (const auto& cell : table.rows[r]) {
+            // A number (or numbers with ± and brackets) never breaks across lines ("0.\n317",
+            // "60848 ±\n4878"): no wrap inside it; a wide table is set smaller instead (above).
+            const bool numeric = unbreakable(cell.text);
+            html += QStringLiteral("<td%1%2>%3</td>")
                         .arg(cell.number || cell.suppressed ? QStringLiteral(" align=\"right\"") : QString(),
-                             cell.suppressed ? QStringLiteral("<i>%1</i>").arg(escaped(cell.text)) : escaped(cell.text));
+                             numeric ? QStringLiteral(" nowrap style=\"white-space:nowrap\"") : QString(),
+                             cell.suppressed ? QStringLiteral("<i>%1</i>").arg(escaped(cell.text))
+                             : numeric       ? escaped(cell.text).replace(QLatin1Char(' '), QStringLiteral("&nbsp;"))
+                                             : escaped(cell.text));
+        }
         html += QStringLiteral("</tr>");
     }
     html += QStringLiteral("</table>");

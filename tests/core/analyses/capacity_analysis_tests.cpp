@@ -10,6 +10,7 @@
 #include <cstdio>
 #include <functional>
 #include <map>
+#include <optional>
 #include <vector>
 
 using namespace plumbline;
@@ -84,6 +85,25 @@ double kthHighest(const Cohort& cohort, std::size_t k, const std::string& prefix
     return risks[k - 1];
 }
 
+// The threshold that flags at most k of the rows of `prefix`, by hand: the k-th highest risk, or,
+// when patients share it beyond the k-th, the lowest risk above it (nullopt when there is none).
+std::optional<double> ceilingThreshold(const Cohort& cohort, std::size_t k, const std::string& prefix = {})
+{
+    std::vector<double> risks;
+    for (std::size_t i = 0; i < cohort.rows(); ++i)
+        if (prefix.empty() || cohort.period->levels[cohort.period->codes[i]].starts_with(prefix))
+            risks.push_back(cohort.models[0].values[i]);
+    std::sort(risks.begin(), risks.end(), std::greater<>());
+    const double kth = risks[k - 1];
+    if (k == risks.size() || risks[k] != kth)
+        return kth;
+    std::optional<double> above;
+    for (double r : risks)
+        if (r > kth)
+            above = r; // descending: the last one above is the lowest
+    return above;
+}
+
 // Wilson's score interval written out (Wilson 1927, JASA 22:209); z for 95 % is
 // scipy.stats.norm.ppf(0.975) = 1.959963984540054 (scipy 1.10).
 std::pair<double, double> wilson(double x, double n)
@@ -138,27 +158,37 @@ TEST_CASE("A share capacity flags that share of the patients and its metrics mat
     CHECK_THAT(r.ppv.ci->upper, WithinAbs(ppvHigh, 1e-12));
 }
 
-TEST_CASE("A share capacity on tied risks reports the number flagged and the number tied", "[capacity]")
+TEST_CASE("A share capacity on tied risks flags at most the capacity and reports the tie below", "[capacity]")
 {
     const Cohort cohort = datedCohort(1000, true, 6);
     const CapacityAnalysis a = analyse(cohort, "12.5%");
     const CapacityResult& r = a.overall[0];
     CHECK(r.at.requested == 125);
-    const double t = kthHighest(cohort, 125);
-    CHECK(*r.at.threshold == t);
-    const DirectCount d = countDirectly(cohort, t);
-    const std::size_t tied = std::size_t(std::count(cohort.models[0].values.begin(), cohort.models[0].values.end(), t));
+    const double kth = kthHighest(cohort, 125);
+    const DirectCount atKth = countDirectly(cohort, kth);
+    // With fifteen risk values among 1000 patients the 125th sits inside a tie (seed 6).
+    REQUIRE(atKth.flagged != 125);
+    const auto t = ceilingThreshold(cohort, 125);
+    REQUIRE(t);
+    REQUIRE(r.at.threshold);
+    CHECK(*r.at.threshold == *t);
+    const DirectCount d = countDirectly(cohort, *t);
     CHECK(r.at.flagged == d.flagged);
-    CHECK(r.at.tiedAtThreshold == tied);
-    CHECK(r.at.flaggedAboveTies == d.flagged - tied);
+    CHECK(r.at.flagged < 125); // a capacity is a ceiling
+    const std::size_t tiedBelow = std::size_t(std::count(cohort.models[0].values.begin(), cohort.models[0].values.end(), kth));
+    CHECK(*r.at.nextRiskDown == kth);
+    CHECK(r.at.tiedAtNextRiskDown == tiedBelow);
+    CHECK(r.at.flaggedAtNextRiskDown == atKth.flagged);
     CHECK(r.tp == d.tp);
     CHECK(r.fp == d.fp);
-    // With fifteen risk values among 1000 patients the 125th sits inside a tie (seed 6).
-    REQUIRE(d.flagged != 125);
     CHECK(!r.at.exact());
+    // The warning reaches the report's summary: it names no count of tied patients.
     bool said = false;
-    for (const auto& w : a.warnings)
-        said = said || (w.find("tied at the threshold") != std::string::npos && w.find("flags " + std::to_string(d.flagged)) != std::string::npos);
+    for (const auto& w : a.warnings) {
+        said = said || w.find("tied at the risk where the capacity") != std::string::npos;
+        CHECK(w.find(std::to_string(tiedBelow)) == std::string::npos);
+        CHECK(w.find(std::to_string(atKth.flagged)) == std::string::npos);
+    }
     CHECK(said);
 }
 
@@ -174,7 +204,7 @@ TEST_CASE("A rate capacity is the rate times the span of the dates and each mont
         CHECK(*a.lastDate == "2025-03-20");
         const CapacityResult& r = a.overall[0];
         CHECK(r.at.requested == 400);
-        CHECK(*r.at.threshold == kthHighest(cohort, 400));
+        CHECK(*r.at.threshold == *ceilingThreshold(cohort, 400));
         CHECK(r.at.flagged == countDirectly(cohort, *r.at.threshold).flagged);
         if (!tied)
             CHECK(r.at.flagged == 400);
@@ -185,7 +215,7 @@ TEST_CASE("A rate capacity is the rate times the span of the dates and each mont
             const double capacity = 40.0 * days.at(p.period) / 7.0;
             CHECK_THAT(p.capacity, WithinAbs(capacity, 1e-9));
             CHECK(p.at.requested == std::size_t(std::floor(capacity)));
-            const double t = kthHighest(cohort, p.at.requested, p.period);
+            const double t = *ceilingThreshold(cohort, p.at.requested, p.period);
             CHECK(*p.at.threshold == t);
             const DirectCount d = countDirectly(cohort, t, p.period);
             CHECK(p.patients == d.n);
@@ -199,7 +229,9 @@ TEST_CASE("A rate capacity is the rate times the span of the dates and each mont
             // The whole cohort's threshold applied to this month, counted directly.
             const std::size_t byOverall = countDirectly(cohort, *r.at.threshold, p.period).flagged;
             CHECK(*p.flaggedByOverallThreshold == byOverall);
-            CHECK(p.overallThresholdOverflows == (byOverall > p.at.requested));
+            CHECK(p.at.flagged <= p.at.requested);
+            // Over capacity only beyond the stated 10 % margin (common practice), not one patient over.
+            CHECK(p.overallThresholdOverflows == (double(byOverall) > 1.1 * double(p.at.requested)));
         }
     }
 }
@@ -213,9 +245,22 @@ TEST_CASE("A share capacity per month is that share of the month's patients", "[
         const DirectCount all = countDirectly(cohort, -1.0, p.period);
         CHECK(p.patients == all.n);
         CHECK(p.at.requested == std::size_t(std::floor(0.2 * double(all.n) + 1e-9)));
-        const double t = kthHighest(cohort, p.at.requested, p.period);
+        const double t = *ceilingThreshold(cohort, p.at.requested, p.period);
         CHECK(p.at.flagged == countDirectly(cohort, t, p.period).flagged);
+        CHECK(p.at.flagged <= p.at.requested);
     }
+}
+
+TEST_CASE("A month is over capacity only when the whole-cohort threshold exceeds it by more than the margin", "[capacity]")
+{
+    // The stated margin is 10 % (common practice, docs/methods.md §21c): one patient over is no overflow.
+    CHECK(overCapacityMargin == 0.10);
+    CHECK_FALSE(overflowsCapacity(101, 100));
+    CHECK_FALSE(overflowsCapacity(110, 100));
+    CHECK(overflowsCapacity(111, 100));
+    CHECK_FALSE(overflowsCapacity(2, 2));
+    CHECK(overflowsCapacity(3, 2));
+    CHECK(overflowsCapacity(1, 0));
 }
 
 TEST_CASE("A rate capacity without dates is refused and runValidation says why", "[capacity]")

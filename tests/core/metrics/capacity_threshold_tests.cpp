@@ -6,6 +6,7 @@
 
 #include <algorithm>
 #include <functional>
+#include <optional>
 #include <vector>
 
 using namespace plumbline;
@@ -48,7 +49,7 @@ TEST_CASE("Without ties the capacity threshold flags exactly the requested numbe
     CHECK(!more.exact());
 }
 
-TEST_CASE("With ties at the boundary the counts say exactly how many the threshold flags", "[capacity]")
+TEST_CASE("With ties at the boundary the threshold flags at most the capacity and reports the tie below", "[capacity]")
 {
     // Risks on a grid of twenty values, so each is shared by about fifty patients.
     RandomStream random(12);
@@ -56,28 +57,50 @@ TEST_CASE("With ties at the boundary the counts say exactly how many the thresho
     for (int i = 0; i < 1000; ++i)
         risk.push_back(double(1 + random.below(20)) / 25.0);
     const ScoreOrder order = ascendingOrder(risk);
-    std::vector<double> sorted = risk;
-    std::sort(sorted.begin(), sorted.end(), std::greater<>());
+    std::vector<double> distinct = risk;
+    std::sort(distinct.begin(), distinct.end(), std::greater<>());
+    const std::vector<double> sorted = distinct;
+    distinct.erase(std::unique(distinct.begin(), distinct.end()), distinct.end());
     std::size_t exactSeen = 0, tiedSeen = 0;
     for (std::size_t k = 1; k <= risk.size(); k += 7) {
         const CapacityThreshold c = capacityThreshold(risk, order, k);
-        REQUIRE(c.threshold);
-        const double t = sorted[k - 1];
-        CHECK(*c.threshold == t);
-        const std::size_t atOrAbove = countAtOrAbove(risk, t);
-        const std::size_t tied = std::size_t(std::count(risk.begin(), risk.end(), t));
-        CHECK(c.flagged == atOrAbove);
-        CHECK(c.tiedAtThreshold == tied);
-        CHECK(c.flaggedAboveTies == atOrAbove - tied);
-        // All the k highest are flagged; no threshold flags exactly k unless the tie ends at k.
-        CHECK(c.flagged >= k);
-        CHECK(c.flaggedAboveTies < k);
-        CHECK(c.exact() == (atOrAbove == k));
-        (c.exact() ? exactSeen : tiedSeen) += 1;
+        // By brute force over every distinct risk: the lowest threshold flagging at most k.
+        std::optional<double> best;
+        for (double t : distinct)
+            if (countAtOrAbove(risk, t) <= k)
+                best = t;
+        REQUIRE(c.threshold.has_value() == best.has_value());
+        if (best) {
+            CHECK(*c.threshold == *best);
+            CHECK(c.flagged == countAtOrAbove(risk, *best));
+            CHECK(c.tiedAtThreshold == std::size_t(std::count(risk.begin(), risk.end(), *best)));
+        }
+        CHECK(c.flagged <= k); // a capacity is a ceiling
+        const double kth = sorted[k - 1];
+        const std::size_t atOrAboveKth = countAtOrAbove(risk, kth);
+        CHECK(c.exact() == (atOrAboveKth == k));
+        if (c.exact()) {
+            CHECK(!c.tiesCrossCapacity());
+            ++exactSeen;
+        } else {
+            // The tie crossing the capacity is at the k-th highest risk, the next one down.
+            REQUIRE(c.nextRiskDown);
+            CHECK(*c.nextRiskDown == kth);
+            CHECK(c.tiedAtNextRiskDown == std::size_t(std::count(risk.begin(), risk.end(), kth)));
+            CHECK(c.flaggedAtNextRiskDown == atOrAboveKth);
+            CHECK(c.flaggedAtNextRiskDown > k);
+            ++tiedSeen;
+        }
     }
     CHECK(tiedSeen > 0);
+    CHECK(exactSeen > 0);
     // A capacity that ends exactly where a risk's patients end is met exactly.
     const std::size_t topValue = countAtOrAbove(risk, sorted.front());
     CHECK(capacityThreshold(risk, order, topValue).exact());
+    // Fewer places than the top risk's patients: nobody can be flagged without going over.
+    const CapacityThreshold none = capacityThreshold(risk, order, topValue - 1);
+    CHECK(!none.threshold);
+    CHECK(none.flagged == 0);
+    CHECK(none.tiedAtNextRiskDown == topValue);
     CHECK(exactSeen + tiedSeen == (risk.size() - 1) / 7 + 1);
 }

@@ -14,7 +14,10 @@
 #include <QLabel>
 #include <QLineEdit>
 #include <QLocale>
+#include <QPushButton>
+#include <QSignalSpy>
 #include <QSlider>
+#include <QTabWidget>
 #include <QTest>
 
 #include <algorithm>
@@ -36,6 +39,14 @@ std::size_t flaggedAt(const Cohort& cohort, std::size_t m, double t)
 double step(double t, int by)
 {
     return double(std::lround(t * 200.0) + by) / 200.0;
+}
+
+// What the note beside the box says at threshold t for the first model.
+QString flagsNote(const Cohort& cohort, double t)
+{
+    return QStringLiteral("flags %1 of %2")
+        .arg(QLocale().toString(qulonglong(flaggedAt(cohort, 0, t))))
+        .arg(QLocale().toString(qulonglong(cohort.rows())));
 }
 
 void typeCapacity(QLineEdit* box, const QString& text)
@@ -76,9 +87,13 @@ private slots:
         QCOMPARE(panel->slider()->value(), int(std::lround(t * 200)));
         QVERIFY(flaggedAt(cohort, 0, t) <= allowed);
         QVERIFY(t == 0.0 || flaggedAt(cohort, 0, step(t, -1)) > allowed);
-        QCOMPARE(panel->capacityNote()->text(), QStringLiteral("flags %1 of %2")
-                                                     .arg(QLocale().toString(qulonglong(flaggedAt(cohort, 0, t))))
-                                                     .arg(QLocale().toString(qulonglong(cohort.rows()))));
+        QCOMPARE(panel->capacityNote()->text(), flagsNote(cohort, t));
+        // What was typed stays in the box after Return; the note beside it says what is achieved.
+        QCOMPARE(box->text(), QStringLiteral("10%"));
+        // Spaces are accepted as on the command line.
+        typeCapacity(box, QStringLiteral("10 %"));
+        QCOMPARE(panel->threshold(), t);
+        QCOMPARE(box->text(), QStringLiteral("10 %"));
         // The slider moved with the keys: the box follows, and no loop moves the slider back.
         panel->slider()->setFocus();
         QTest::keyClick(panel->slider(), Qt::Key_Right);
@@ -95,7 +110,7 @@ private slots:
         QCOMPARE(box->text(), QString::fromStdString(capacityText({CapacitySpec::Kind::Share,
                                                                    std::round(1000.0 * double(flaggedAt(cohort, 1, moved)) / n) / 10.0})));
         // Bad texts move nothing and say why; a rate without dates asks for them.
-        for (const QString& bad : {QStringLiteral("10 %"), QStringLiteral("40/fortnight"), QStringLiteral("0%"), QStringLiteral("101%")}) {
+        for (const QString& bad : {QStringLiteral("1e9/day"), QStringLiteral("40/fortnight"), QStringLiteral("0%"), QStringLiteral("101%")}) {
             typeCapacity(box, bad);
             QCOMPARE(panel->threshold(), moved);
             QCOMPARE(panel->capacityNote()->text(), QStringLiteral("not a capacity"));
@@ -129,8 +144,10 @@ private slots:
         QVERIFY(flaggedAt(cohort, 0, t) <= allowed);
         QVERIFY(t == 0.0 || flaggedAt(cohort, 0, step(t, -1)) > allowed);
         const double perWeek = std::round(double(flaggedAt(cohort, 0, t)) * 7.0 / days * 10.0) / 10.0;
-        QCOMPARE(box->text(), QString::fromStdString(capacityText({CapacitySpec::Kind::Rate, perWeek, CapacitySpec::Unit::Week})));
         QVERIFY(perWeek <= 40.0);
+        // The box keeps "40/week" as typed (not the 39.9/week achieved); the note gives the count.
+        QCOMPARE(box->text(), QStringLiteral("40/week"));
+        QCOMPARE(panel->capacityNote()->text(), flagsNote(cohort, t));
         panel->slider()->setFocus();
         QTest::keyClick(panel->slider(), Qt::Key_Left);
         const double lower = panel->threshold();
@@ -140,13 +157,55 @@ private slots:
         QVERIFY(more >= 40.0); // the next threshold down flags more than the capacity
     }
 
+    void aCapacityFromTheSettingsTabMovesTheBoxAndTheSliderOnReRun()
+    {
+        MainWindow window;
+        window.resize(1280, 720);
+        window.show();
+        QVERIFY(runAndWait(window, sampleRequest(0)));
+        ThresholdPanel* panel = window.thresholdPanel();
+        const double before = panel->threshold();
+        // Settings → Capacity, typed as a person does, then the tab's Re-run button.
+        window.tabs()->setCurrentWidget(window.settingsPanel());
+        QLineEdit* field = nullptr;
+        for (QLineEdit* f : window.settingsPanel()->findChildren<QLineEdit*>())
+            if (f->placeholderText() == QStringLiteral("10% or 40/week"))
+                field = f;
+        QVERIFY(field);
+        // The placeholder fits the field at 1280x720 (it was clipped).
+        QVERIFY2(field->fontMetrics().horizontalAdvance(field->placeholderText()) + 12 <= field->width(),
+                 qPrintable(QStringLiteral("placeholder wider than the field's %1 px").arg(field->width())));
+        field->setFocus();
+        QTest::keyClicks(field, QStringLiteral("10%"));
+        QPushButton* rerun = nullptr;
+        for (QPushButton* b : window.settingsPanel()->findChildren<QPushButton*>())
+            if (b->text().remove(QLatin1Char('&')).startsWith(QStringLiteral("Re-run")))
+                rerun = b;
+        QVERIFY(rerun);
+        QSignalSpy finished(window.task(), &ValidationTask::finished);
+        QTest::mouseClick(rerun, Qt::LeftButton);
+        QVERIFY(finished.wait(180000));
+        QTRY_VERIFY(window.snapshot()->validation.capacity.has_value());
+        const Cohort& cohort = *window.snapshot()->cohort;
+        // The box shows the run's capacity and the slider sits at the lowest grid threshold
+        // flagging at most 10 % (counted here), not at the old value.
+        QTRY_COMPARE(panel->capacityBox()->text(), QStringLiteral("10%"));
+        const std::size_t allowed = std::size_t(std::floor(0.10 * double(cohort.rows())));
+        const double t = panel->threshold();
+        QVERIFY(t != before);
+        QCOMPARE(panel->slider()->value(), int(std::lround(t * 200)));
+        QVERIFY(flaggedAt(cohort, 0, t) <= allowed);
+        QVERIFY(t == 0.0 || flaggedAt(cohort, 0, step(t, -1)) > allowed);
+        QCOMPARE(panel->capacityNote()->text(), flagsNote(cohort, t));
+    }
+
     void theSettingsTabTakesACapacityForTheRunAndRefusesABadOne()
     {
         SettingsPanel panel;
         panel.show();
         QLineEdit* field = nullptr;
         for (QLineEdit* f : panel.findChildren<QLineEdit*>())
-            if (f->placeholderText().startsWith(QStringLiteral("e.g. 10%")))
+            if (f->placeholderText() == QStringLiteral("10% or 40/week"))
                 field = f;
         QVERIFY(field);
         QVERIFY(!panel.request()->panel.capacity); // none by default, as on the command line
