@@ -113,11 +113,14 @@ std::string measureWords(const std::string& measure)
 void pooledCountWarnings(SitePooling& out, const std::string& column)
 {
     std::vector<std::pair<std::size_t, std::string>> few;
+    std::size_t measures = 0, fewMeasures = 0;
     for (const auto& model : out.models)
         for (const auto& measure : model.measures) {
+            ++measures;
             const std::size_t k = measure.sites.size();
             if (k < 2 || k >= fewestSitesForTau2)
                 continue;
+            ++fewMeasures;
             const std::string what = measureWords(measure.measure) + (out.models.size() > 1 ? " of " + model.model : "");
             auto it = std::find_if(few.begin(), few.end(), [&](const auto& f) { return f.first == k; });
             if (it == few.end())
@@ -125,6 +128,8 @@ void pooledCountWarnings(SitePooling& out, const std::string& column)
             else
                 it->second += ", " + what;
         }
+    if (few.size() == 1 && fewMeasures == measures) // the same number for every measure: said once, shortly
+        few[0].second = "every measure";
     for (const auto& [k, what] : few)
         out.warnings.push_back("Only " + std::to_string(k) + " sites of column '" + column + "' pooled for " + what
                                + ": the between-site variance τ² is poorly estimated below 5 sites (common practice), so the "
@@ -152,6 +157,8 @@ PooledMeasure pooledMeasure(std::string measure, std::string scale, std::vector<
     out.pooled = back(out.pool->pooled);
     out.hksjLower = back(out.pool->hksjLower);
     out.hksjUpper = back(out.pool->hksjUpper);
+    out.hksjUnmodifiedLower = back(out.pool->hksjUnmodifiedLower);
+    out.hksjUnmodifiedUpper = back(out.pool->hksjUnmodifiedUpper);
     if (out.pool->predictionLower) {
         out.predictionLower = back(*out.pool->predictionLower);
         out.predictionUpper = back(*out.pool->predictionUpper);

@@ -310,7 +310,7 @@ TEST_CASE("The tau2 caution counts the sites pooled for the measure, not the lev
     const Cohort cohort = sitesWith({{"A", {300, -1}}, {"B", {300, -1}}, {"C", {300, -1}}, {"D", {300, -1}}, {"E", {300, 0}}});
     const ValidationResult result = runValidation(cohort, PanelSettings{});
     REQUIRE(result.sites);
-    CHECK(anyContains(result.sites->warnings, "Only 4 sites of column 'hospital' pooled for C, O/E, the calibration slope"));
+    CHECK(anyContains(result.sites->warnings, "Only 4 sites of column 'hospital' pooled for every measure: the between-site variance"));
 }
 
 TEST_CASE("A site column whose levels are mostly below the small-cell number is questioned", "[pooling][sites]")
