@@ -2,6 +2,7 @@
 
 #include "metrics/metric_reading.hpp"
 #include "reporting/cautions.hpp"
+#include "reporting/site_pooling_text.hpp"
 #include "reporting/value_text.hpp"
 
 namespace plumbline::cli {
@@ -21,21 +22,24 @@ void printSitePooling(std::ostream& out, const ValidationResult& result)
         return;
     const SitePooling& s = *result.sites;
     const int percent = int(result.settings.confidence * 100.0 + 0.5);
-    out << "\nAcross sites (" << s.column << ", " << s.sites << " sites; random effects, REML; " << percent
+    out << "\nAcross sites (" << s.column << ", " << siteCountText(s.sites) << "; random effects, REML; " << percent
         << " % HKSJ interval and prediction interval for a new site):\n";
     for (const auto& model : s.models) {
         out << "  " << model.model << '\n';
         for (const auto& m : model.measures) {
             out << "    " << metricLabel(m.measure) << ": ";
             if (!m.pool) {
-                out << "not pooled: " << m.sites.size() << " sites with an estimate, 2 needed; " << m.sitesLeftOut << " left out ("
+                out << "not pooled: " << siteCountText(m.sites.size()) << " with an estimate, 2 needed; " << m.sitesLeftOut << " left out ("
                     << (m.leftOut.empty() ? std::string("-") : m.leftOut.front()) << ")\n";
                 continue;
             }
             out << fixedText(m.pooled, 3) << " (" << range(m.hksjLower, m.hksjUpper, 3) << "), new site "
                 << range(m.predictionLower, m.predictionUpper, 3) << "; tau2 " << fixedText(m.pool->tau2Reml, 4) << " (DL "
                 << fixedText(m.pool->tau2DerSimonianLaird, 4) << "), I2 " << fixedText(m.pool->i2 * 100.0, 0) << " %, "
-                << m.sites.size() << " sites" << (m.sitesLeftOut == 0 ? "" : ", " + std::to_string(m.sitesLeftOut) + " left out") << '\n';
+                << siteCountText(m.sites.size()) << (m.sitesLeftOut == 0 ? "" : ", " + std::to_string(m.sitesLeftOut) + " left out");
+            if (const auto why = noPredictionIntervalReason(m))
+                out << "; " << *why;
+            out << '\n';
         }
         const NewSiteAcceptability& a = model.acceptability;
         if (a.joint) {
@@ -46,7 +50,7 @@ void printSitePooling(std::ostream& out, const ValidationResult& result)
                 << (a.correlated ? "correlated" : "independent") << ")\n";
         }
     }
-    for (const auto caution : siteCautions)
+    for (const auto caution : siteCautionsFor(s))
         out << "  note: " << caution << '\n';
 }
 

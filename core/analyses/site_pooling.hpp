@@ -33,6 +33,7 @@ struct PooledMeasure {
     std::size_t sitesLeftOut = 0;
     std::optional<RandomEffectsPool> pool; // on the pooled scale; none with fewer than 2 sites
     std::optional<double> pooled, hksjLower, hksjUpper, predictionLower, predictionUpper;
+    std::optional<double> hksjUnmodifiedLower, hksjUnmodifiedUpper; // without the max(1, q) scaling (§25)
 };
 
 // The probability that a new site's true performance meets the criteria, each measure's own and

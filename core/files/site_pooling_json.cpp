@@ -30,6 +30,7 @@ Json measureJson(const PooledMeasure& m)
     out["q"] = p ? numberOrNull(p->q) : Json(nullptr);
     out["q_df"] = p ? Json(p->df) : Json(nullptr);
     out["hksj_interval"] = pairOrNull(m.hksjLower, m.hksjUpper);
+    out["hksj_interval_unmodified"] = pairOrNull(m.hksjUnmodifiedLower, m.hksjUnmodifiedUpper);
     out["prediction_interval"] = pairOrNull(m.predictionLower, m.predictionUpper);
     out["warnings"] = p ? Json(p->warnings) : Json::array({"fewer than 2 sites with an estimate: nothing is pooled."});
     return out;

@@ -4,6 +4,7 @@
 #include "intake/typed_table_intake.hpp"
 
 #include <algorithm>
+#include <cctype>
 #include <array>
 
 namespace plumbline {
@@ -61,9 +62,15 @@ ColumnRoles guessColumnRoles(const TableProfile& profile)
         else if (it->type == "integer" && hi > 1.0)
             roles.scale = ScoreScale::Points;
     }
+    std::vector<std::string> free;
+    for (const auto& c : columns)
+        if (!(roles.outcome && c.name == *roles.outcome) && std::find(roles.scores.begin(), roles.scores.end(), c.name) == roles.scores.end())
+            free.push_back(c.name);
+    roles.site = guessSiteColumn(free);
     for (const auto& c : columns) {
         const bool taken = (roles.outcome && c.name == *roles.outcome)
-            || std::find(roles.scores.begin(), roles.scores.end(), c.name) != roles.scores.end();
+            || std::find(roles.scores.begin(), roles.scores.end(), c.name) != roles.scores.end()
+            || (roles.site && c.name == *roles.site); // "hospital_id" names a site, not a patient
         if (taken)
             continue;
         if (!roles.id && c.type == "text" && (nameHas(c.name, {"id", "encounter", "mrn", "number"}) || c.distinct == c.nonMissing))
@@ -120,6 +127,32 @@ std::expected<TablePreview, InputError> previewTable(TypedTable& table, std::siz
     if (!visited)
         return std::unexpected(visited.error());
     return preview;
+}
+
+} // namespace plumbline
+
+namespace plumbline {
+
+bool looksLikeSiteColumn(std::string_view name)
+{
+    std::string lower;
+    for (const char ch : name)
+        lower.push_back(char(std::tolower(static_cast<unsigned char>(ch))));
+    for (const std::string_view suffix : {"_id", "_name"})
+        if (lower.size() > suffix.size() && lower.ends_with(suffix)) {
+            lower.resize(lower.size() - suffix.size());
+            break;
+        }
+    static constexpr std::array<std::string_view, 7> words{"hospital", "site", "facility", "centre", "center", "clinic", "practice"};
+    return std::find(words.begin(), words.end(), lower) != words.end();
+}
+
+std::optional<std::string> guessSiteColumn(const std::vector<std::string>& header)
+{
+    for (const auto& name : header)
+        if (looksLikeSiteColumn(name))
+            return name;
+    return std::nullopt;
 }
 
 } // namespace plumbline

@@ -5,6 +5,7 @@
 
 #include <optional>
 #include <string>
+#include <string_view>
 #include <vector>
 
 namespace plumbline {
@@ -17,10 +18,17 @@ struct ColumnRoles {
     std::optional<std::string> id;
     std::vector<std::string> groups;
     std::optional<std::string> period;
+    std::optional<std::string> site; // a column named like a site (looksLikeSiteColumn)
     ScoreScale scale = ScoreScale::Probability;
 };
 
 ColumnRoles guessColumnRoles(const TableProfile& profile);
+
+// A name that is a site-like word (hospital, site, facility, centre, center, clinic, practice),
+// case-insensitive, alone or with an "_id" or "_name" suffix: "Hospital", "site_id", "centre_name".
+bool looksLikeSiteColumn(std::string_view name);
+// The first header name that looks like a site column, if any.
+std::optional<std::string> guessSiteColumn(const std::vector<std::string>& header);
 
 // Numbers, or numbers with stray text the intake will count: a column that can hold scores.
 bool couldHoldScores(const ColumnProfile& column);

@@ -112,8 +112,15 @@ RandomEffectsPool poolRandomEffects(std::span<const double> y, std::span<const d
     out.pooled = mean.mean;
     out.se = mean.se;
     out.hksjSe = mean.hksjSe;
+    out.hksjUnmodifiedLower = mean.hksjLower;
+    out.hksjUnmodifiedUpper = mean.hksjUpper;
     out.hksjLower = mean.hksjLower;
     out.hksjUpper = mean.hksjUpper;
+    if (y.size() >= 2 && mean.hksjSe < mean.se) { // q < 1: widen to the plain random-effects SE
+        const double t = studentTQuantile(0.5 + confidence / 2.0, double(y.size() - 1));
+        out.hksjLower = mean.mean - t * mean.se;
+        out.hksjUpper = mean.mean + t * mean.se;
+    }
     const std::size_t k = y.size();
     out.df = int(k) - 1;
     out.q = k >= 2 ? cochranQ(y, v) : 0.0;

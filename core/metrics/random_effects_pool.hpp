@@ -26,7 +26,12 @@ struct RandomEffectsPool {
     int df = 0;                       // k − 1
     double i2 = 0.0;                  // max(0, (Q − df)/Q), a proportion
     double hksjSe = 0.0;              // √(Σwᵢ(yᵢ − μ̂)²/((k − 1)Σwᵢ))
-    double hksjLower = 0.0, hksjUpper = 0.0;  // μ̂ ± t_{k−1}·hksjSe
+    // The reported interval: μ̂ ± t_{k−1}·max(hksjSe, se), i.e. HKSJ with its scale factor
+    // q = Σwᵢ(yᵢ − μ̂)²/(k − 1) raised to at least 1, so it is never narrower than the plain
+    // random-effects interval (the modification in Röver, Knapp & Friede 2015, BMC Med Res
+    // Methodol 15:99 — from memory). The unmodified one is kept beside it.
+    double hksjLower = 0.0, hksjUpper = 0.0;
+    double hksjUnmodifiedLower = 0.0, hksjUnmodifiedUpper = 0.0;  // μ̂ ± t_{k−1}·hksjSe
     std::optional<double> predictionLower, predictionUpper; // μ̂ ± t_{k−2}·√(τ² + SE²); none when k < 3
     double confidence = 0.95;
     std::vector<std::string> warnings;

@@ -77,10 +77,16 @@ with open(sys.argv[1], 'w') as f:
 " "$work/site_per_row.csv"
 if "$cli" validate "$work/site_per_row.csv" --outcome y --score p --cluster site --json "$work/per_row.json" >"$work/per_row.txt" 2>&1; then
   grep -q "3000 left out" "$work/per_row.txt" || { echo "FAIL: the sites left out are not counted"; failures=$((failures+1)); }
+  grep -q "Most sites (3000 of 3000) have fewer than 11 patients: is 'site' a site column?" "$work/per_row.txt" \
+    || { echo "FAIL: a site per row is not questioned"; failures=$((failures+1)); }
   /usr/bin/python3 -c "
 import json, sys
-m = json.load(open(sys.argv[1]))['site_pooling']['models'][0]['measures'][0]
-assert m['sites_left_out'] == 3000 and len(m['left_out']) == 21 and m['pooled'] is None, m['sites_left_out']
+r = json.load(open(sys.argv[1]))
+m = r['site_pooling']['models'][0]['measures'][0]
+# Sites below the small-cell number are counted, never named with their outcome.
+assert m['sites_left_out'] == 3000 and m['pooled'] is None, m['sites_left_out']
+assert m['left_out'] == ['3000 sites with fewer than 11 patients (not named: small-cell rule).'], m['left_out']
+assert not any('row' in w for w in r['warnings'] + m['left_out']), r['warnings']
 print('ok: a site per row is counted, not listed')
 " "$work/per_row.json" || failures=$((failures+1))
 else

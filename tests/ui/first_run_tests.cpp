@@ -286,6 +286,30 @@ private slots:
             QVERIFY2(button == dialog.runButton() || !button->autoDefault(), qPrintable(button->text()));
     }
 
+    void theSiteColumnIsPrefilledAndOffersNoOutcomeOrScore()
+    {
+        ImportDialog dialog;
+        QVERIFY(dialog.loadFile(sampleFile));
+        auto* site = dialog.findChild<QComboBox*>(QStringLiteral("siteColumn"));
+        QVERIFY(site);
+        QCOMPARE(site->currentText(), QStringLiteral("hospital")); // a site-like name, guessed in core
+        QStringList offered;
+        for (int i = 0; i < site->count(); ++i)
+            offered << site->itemText(i);
+        for (const char* taken : {"readmitted_30d", "supplier_score", "local_score", "encounter_id"})
+            QVERIFY2(!offered.contains(QLatin1String(taken)), taken);
+        QVERIFY(offered.contains(QStringLiteral("payer")));
+        QCOMPARE(dialog.intakeSettings().clusterColumn, std::optional<std::string>("hospital"));
+        // Unticking a score offers it again; the site choice stays.
+        auto* scores = dialog.findChild<QListWidget*>(QStringLiteral("scoreColumns"));
+        QVERIFY(scores);
+        for (int i = 0; i < scores->count(); ++i)
+            if (scores->item(i)->text() == QStringLiteral("local_score"))
+                scores->item(i)->setCheckState(Qt::Unchecked);
+        QVERIFY(site->findText(QStringLiteral("local_score")) >= 0);
+        QCOMPARE(site->currentText(), QStringLiteral("hospital"));
+    }
+
     void aTypedOutcomesPathIsReadLikeTheCohortPath()
     {
         ImportDialog dialog;

@@ -109,6 +109,8 @@ ImportDialog::ImportDialog(QWidget* parent)
     m_file->installEventFilter(this);
     m_outcomesFile->setObjectName(QStringLiteral("outcomesPath"));
     m_twoFiles->setObjectName(QStringLiteral("twoFiles"));
+    m_cluster->setObjectName(QStringLiteral("siteColumn"));
+    m_scores->setObjectName(QStringLiteral("scoreColumns"));
     m_outcomesFile->setPlaceholderText(tr("Type or paste a path and press Return, or Browse…"));
     // A typed outcomes path is read on Return or when the box is left, like the cohort's.
     connect(m_outcomesFile, &QLineEdit::editingFinished, this, [this] {
@@ -157,10 +159,12 @@ ImportDialog::ImportDialog(QWidget* parent)
         connect(box, &QComboBox::currentIndexChanged, this, [this, names] {
             refreshScoreChoices(names(checkedItems(m_scores)));
             refreshGroupChoices(names(checkedItems(m_groups)));
+            refreshSiteChoices(chosen(m_cluster));
             stale();
         });
     connect(m_scores, &QListWidget::itemChanged, this, [this, names] {
         refreshGroupChoices(names(checkedItems(m_groups)));
+        refreshSiteChoices(chosen(m_cluster));
         stale();
     });
     connect(m_groups, &QListWidget::itemChanged, this, &ImportDialog::stale);
@@ -581,17 +585,14 @@ void ImportDialog::fillColumnChoices(const std::vector<std::string>& header, con
         m_outcome->clear();
         m_id->clear();
         m_period->clear();
-        m_cluster->clear();
         m_outcome->addItem(none);
         m_id->addItem(none);
         m_period->addItem(none);
-        m_cluster->addItem(none);
         for (const auto& name : header) {
             const QString column = QString::fromStdString(name);
             m_outcome->addItem(column);
             m_id->addItem(column);
             m_period->addItem(column);
-            m_cluster->addItem(column);
         }
         if (roles.outcome)
             m_outcome->setCurrentText(QString::fromStdString(*roles.outcome));
@@ -601,8 +602,28 @@ void ImportDialog::fillColumnChoices(const std::vector<std::string>& header, con
     if (roles.period)
         m_period->setCurrentText(QString::fromStdString(*roles.period));
     m_scale->setCurrentText(QString::fromLatin1(scaleName(roles.scale).data()));
+    m_header = header;
     refreshScoreChoices(roles.scores);
     refreshGroupChoices(roles.groups);
+    refreshSiteChoices(roles.site);
+}
+
+void ImportDialog::refreshSiteChoices(const std::optional<std::string>& wanted)
+{
+    const QSignalBlocker block(m_cluster);
+    m_cluster->clear();
+    m_cluster->addItem(none);
+    const auto outcome = chosen(m_outcome), id = chosen(m_id);
+    const QStringList scores = checkedItems(m_scores);
+    bool kept = false;
+    for (const auto& name : m_header) {
+        if (name == outcome || name == id || scores.contains(QString::fromStdString(name)))
+            continue;
+        m_cluster->addItem(QString::fromStdString(name));
+        kept = kept || name == wanted;
+    }
+    // A choice now taken as the outcome, the id or a score falls back to none.
+    m_cluster->setCurrentText(kept ? QString::fromStdString(*wanted) : none);
 }
 
 void ImportDialog::refreshScoreChoices(const std::vector<std::string>& wanted)
@@ -694,7 +715,7 @@ void ImportDialog::setMapping(const IntakeSettings& settings)
     refreshScoreChoices(settings.scoreColumns);
     refreshGroupChoices(settings.groupColumns);
     m_period->setCurrentText(settings.periodColumn ? QString::fromStdString(*settings.periodColumn) : none);
-    m_cluster->setCurrentText(settings.clusterColumn ? QString::fromStdString(*settings.clusterColumn) : none);
+    refreshSiteChoices(settings.clusterColumn);
     m_scale->setCurrentText(QString::fromLatin1(scaleName(settings.scale).data()));
     m_event->setText(settings.eventValue ? QString::fromStdString(*settings.eventValue) : QString());
     stale();

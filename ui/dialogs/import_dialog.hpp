@@ -67,6 +67,8 @@ private:
     void fillColumnChoices(const std::vector<std::string>& header, const struct ColumnRoles& roles);
     void refreshScoreChoices(const std::vector<std::string>& wanted);
     void refreshGroupChoices(const std::vector<std::string>& wanted);
+    // The site column's choices: every column but the outcome, the id and the scores.
+    void refreshSiteChoices(const std::optional<std::string>& wanted);
     void showPreview(const TablePreview& preview);
     void showProblem(const QString& text);
     // The file read and split into fields; on failure the problem is shown and nullopt returned.
@@ -115,6 +117,7 @@ private:
     QString m_loadedOutcomesPath;
     std::vector<std::string> m_numericColumns;
     std::vector<std::string> m_categoryColumns;
+    std::vector<std::string> m_header;
     bool m_runAfterCheck = false;
 };
 

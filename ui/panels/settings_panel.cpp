@@ -1,5 +1,6 @@
 #include "panels/settings_panel.hpp"
 
+#include "intake/acceptable_criteria.hpp"
 #include "intake/option_lists.hpp"
 #include "files/settings_check.hpp"
 #include "analyses/capacity_spec.hpp"
@@ -67,6 +68,7 @@ SettingsPanel::SettingsPanel(QWidget* parent)
     , m_dateFormat(new QComboBox)
     , m_capacity(textField(24))
     , m_cusumOdds(textField(24))
+    , m_acceptable(textField(30))
     , m_cusumYears(new QDoubleSpinBox)
     , m_problem(new QLabel)
 {
@@ -148,6 +150,11 @@ QWidget* SettingsPanel::buildAnalysisBox()
                               "period column). Empty: none."));
     form->addRow(tr("Capacit&y:"), m_capacity);
     form->addRow(tr("CUSUM &odds ratios:"), m_cusumOdds);
+    m_acceptable->setObjectName(QStringLiteral("acceptable"));
+    m_acceptable->setPlaceholderText(tr("c=0.7, oe=0.8:1.2, slope=0.8:1.2"));
+    m_acceptable->setToolTip(tr("Acceptable performance in a new site, used with a site column: C at least c, O/E and the "
+                                "calibration slope within their ranges; a measure not named keeps its default"));
+    form->addRow(tr("Acceptable in a new sit&e:"), m_acceptable);
     form->addRow(tr("CUSUM run length (in control):"), m_cusumYears);
     form->addRow(tr("Suppress counts &below:"), m_minimumCell);
     return box;
@@ -195,6 +202,7 @@ void SettingsPanel::setRequest(const AnalysisRequest& request)
     m_capacity->setText(request.panel.capacity ? QString::fromStdString(capacityText(*request.panel.capacity)) : QString());
     m_cusumOdds->setText(QString::fromStdString(riskListText({request.panel.monitoring.worseOdds, request.panel.monitoring.betterOdds})));
     m_cusumYears->setValue(request.panel.monitoring.targetYears);
+    m_acceptable->setText(QString::fromStdString(acceptableCriteriaText(request.panel.acceptable)));
     m_problem->clear();
 }
 
@@ -231,6 +239,15 @@ std::optional<AnalysisRequest> SettingsPanel::request() const
         m_problem->setText(QString::fromStdString(odds.error().message()));
         return std::nullopt;
     }
+    // The same parser as --acceptable and the analysis file; empty keeps the defaults.
+    const std::string acceptableText = m_acceptable->text().trimmed().toStdString();
+    const auto acceptable = acceptableText.empty() ? std::expected<AcceptableCriteria, InputError>(AcceptableCriteria{})
+                                                   : parseAcceptableCriteria(acceptableText, "Acceptable in a new site");
+    if (!acceptable) {
+        m_problem->setText(QString::fromStdString(acceptable.error().message()));
+        return std::nullopt;
+    }
+    out.panel.acceptable = *acceptable;
     out.panel.monitoring.worseOdds = odds->worse;
     out.panel.monitoring.betterOdds = odds->better;
     out.panel.monitoring.targetYears = m_cusumYears->value();

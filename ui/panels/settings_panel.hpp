@@ -57,6 +57,7 @@ private:
     QComboBox* m_dateFormat;
     QLineEdit* m_capacity; // --capacity: empty for none
     QLineEdit* m_cusumOdds;
+    QLineEdit* m_acceptable; // --acceptable: what a new site must reach (pooling across sites)
     QDoubleSpinBox* m_cusumYears;
     QLabel* m_problem;
 };

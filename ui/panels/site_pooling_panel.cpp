@@ -3,6 +3,7 @@
 #include "charts/site_forest_view.hpp"
 #include "metrics/metric_reading.hpp"
 #include "reporting/cautions.hpp"
+#include "reporting/site_pooling_text.hpp"
 #include "reporting/value_text.hpp"
 
 #include <QComboBox>
@@ -149,10 +150,9 @@ void SitePoolingPanel::showModel(int index)
     }
     m_table->resizeColumnsToContents();
     QStringList lines;
-    lines << tr("Site column '%1': %2 sites, pooled by random effects (REML τ², DerSimonian–Laird beside it); the diamond spans "
+    lines << tr("Site column '%1': %2, pooled by random effects (REML τ², DerSimonian–Laird beside it); the diamond spans "
                 "the Hartung–Knapp–Sidik–Jonkman interval and the bar beneath it the prediction interval for a new site.")
-                 .arg(QString::fromStdString(sites.column))
-                 .arg(sites.sites);
+                 .arg(QString::fromStdString(sites.column), QString::fromStdString(siteCountText(sites.sites)));
     if (a.joint)
         lines << tr("Probability that a new site meets all criteria (%1): %2 — %3; %4 draws, seed %5.")
                      .arg(QString::fromStdString(acceptableCriteriaText(sites.criteria)), QString::fromStdString(fixedText(*a.joint, 2)),
@@ -165,16 +165,17 @@ void SitePoolingPanel::showModel(int index)
         lines << QString::fromStdString(w);
     for (const PooledMeasure& m : model.measures) {
         if (m.sitesLeftOut > 0)
-            lines << tr("%1: %2 sites left out (%3)")
-                         .arg(QString::fromStdString(metricLabel(m.measure)))
-                         .arg(m.sitesLeftOut)
-                         .arg(QString::fromStdString(m.leftOut.front()));
+            lines << tr("%1: %2 left out (%3)")
+                         .arg(QString::fromStdString(metricLabel(m.measure)), QString::fromStdString(siteCountText(m.sitesLeftOut)),
+                              QString::fromStdString(m.leftOut.empty() ? std::string("-") : m.leftOut.front()));
+        if (const auto why = noPredictionIntervalReason(m))
+            lines << QString::fromStdString(metricLabel(m.measure) + ": " + *why + ".");
         if (m.pool)
             for (const auto& w : m.pool->warnings)
                 if (w.find("poorly estimated") == std::string::npos) // said once above, for the column
                     lines << QString::fromStdString(metricLabel(m.measure) + ": " + w);
     }
-    for (const auto caution : siteCautions)
+    for (const auto caution : siteCautionsFor(sites))
         lines << QString::fromUtf8(caution.data(), qsizetype(caution.size()));
     m_note->setText(lines.join(QLatin1Char('\n')));
 }

@@ -2,6 +2,7 @@
 
 #include "metrics/metric_reading.hpp"
 #include "reporting/cautions.hpp"
+#include "reporting/site_pooling_text.hpp"
 #include "reporting/value_text.hpp"
 
 namespace plumbline {
@@ -11,6 +12,12 @@ namespace {
 ReportCell number(std::optional<double> value, int digits)
 {
     return value ? ReportCell{fixedText(*value, digits), *value} : ReportCell{"-"};
+}
+
+// I² as a percentage, as the text output and the window show it.
+ReportCell percent(std::optional<double> share)
+{
+    return share ? ReportCell{fixedText(*share * 100.0, 0) + " %", *share * 100.0} : ReportCell{"-"};
 }
 
 ReportCell range(std::optional<double> low, std::optional<double> high, int digits)
@@ -32,10 +39,10 @@ void addSitePooling(ReportSection& section, const ValidationResult& shown)
             section.charts.push_back({kind, int(m)});
     ReportTable sites{"site_estimates", "Performance per site (" + s.column + ")", {"Model", "Measure", "Site", "Estimate", "Interval"}, {}, {}, {}};
     ReportTable pooled{"site_pooling", "Pooled across sites and expected in a new site",
-                       {"Model", "Measure", "Sites", "Pooled", "HKSJ interval", "Prediction interval", "tau2 (REML)", "tau2 (DL)", "I2",
+                       {"Model", "Measure", "Sites", "Pooled", "HKSJ interval", "Prediction interval", "tau2 (REML)", "tau2 (DL)", "I2 (%)",
                         "P(acceptable)"},
                        {}, {}, {}};
-    std::string notes;
+    std::string notes, siteNotes;
     for (const auto& model : s.models) {
         for (const auto& m : model.measures) {
             const std::string label = metricLabel(m.measure);
@@ -50,9 +57,11 @@ void addSitePooling(ReportSection& section, const ValidationResult& shown)
                                    number(m.pooled, 3), range(m.hksjLower, m.hksjUpper, 3), range(m.predictionLower, m.predictionUpper, 3),
                                    number(m.pool ? std::optional(m.pool->tau2Reml) : std::nullopt, 4),
                                    number(m.pool ? std::optional(m.pool->tau2DerSimonianLaird) : std::nullopt, 4),
-                                   number(m.pool ? std::optional(m.pool->i2) : std::nullopt, 2), number(probability, 2)});
+                                   percent(m.pool ? std::optional(m.pool->i2) : std::nullopt), number(probability, 2)});
+            if (const auto why = noPredictionIntervalReason(m))
+                notes += " " + model.model + ", " + label + ": " + *why + ".";
             for (const auto& note : m.leftOut)
-                notes += " " + model.model + ", " + label + ": " + note;
+                siteNotes += " " + model.model + ", " + label + ": " + note;
         }
         if (model.acceptability.joint)
             pooled.rows.push_back({ReportCell{model.model}, ReportCell{"all criteria at once"}, ReportCell{""}, ReportCell{"-"},
@@ -60,7 +69,7 @@ void addSitePooling(ReportSection& section, const ValidationResult& shown)
                                    number(model.acceptability.joint, 2)});
     }
     sites.note = "Each site's interval is built on the pooled scale (logit C, log O/E) and back-transformed. Sites below the "
-                 "small-cell rule keep no estimate of their own here." + notes;
+                 "small-cell rule keep no estimate of their own here." + siteNotes;
     const auto& criteria = s.criteria;
     std::string method;
     for (const auto& model : s.models)
@@ -74,9 +83,10 @@ void addSitePooling(ReportSection& section, const ValidationResult& shown)
         + acceptableCriteriaText(criteria) + ". " + method;
     for (const auto& w : s.warnings)
         pooled.note += " " + w;
+    pooled.note += notes;
     section.tables.push_back(sites);
     section.tables.push_back(pooled);
-    for (const auto caution : siteCautions)
+    for (const auto caution : siteCautionsFor(s))
         section.closing.emplace_back(caution);
 }
 

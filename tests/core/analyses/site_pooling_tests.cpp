@@ -10,6 +10,7 @@
 
 #include <catch2/catch.hpp>
 
+#include <algorithm>
 #include <cmath>
 #include <numbers>
 
@@ -254,4 +255,73 @@ TEST_CASE("The sample cohort pools each model's C O/E and slope across its hospi
         for (double p : model.acceptability.probabilities)
             CHECK(*model.acceptability.joint <= p);
     }
+}
+
+namespace {
+
+// Sites of `n` patients each: "events" − 1 means half events, 0 none, 1 all.
+Cohort sitesWith(const std::vector<std::pair<std::string, std::pair<int, int>>>& spec)
+{
+    Cohort cohort;
+    cohort.models.push_back({"m", {}});
+    CategoricalColumn cluster{"hospital", {}, {}};
+    RandomStream random(11);
+    for (const auto& [name, shape] : spec) {
+        const auto code = std::uint32_t(cluster.levels.size());
+        cluster.levels.push_back(name);
+        for (int i = 0; i < shape.first; ++i) {
+            const double p = 0.05 + 0.9 * random.uniform();
+            cohort.models[0].values.push_back(p);
+            cohort.outcome.push_back(shape.second == 0 ? 0 : shape.second == 1 ? 1 : (random.uniform() < p ? 1 : 0));
+            cluster.codes.push_back(code);
+        }
+    }
+    cohort.cluster = cluster;
+    return cohort;
+}
+
+bool anyContains(const std::vector<std::string>& list, const std::string& part)
+{
+    return std::any_of(list.begin(), list.end(), [&](const auto& s) { return s.find(part) != std::string::npos; });
+}
+
+} // namespace
+
+TEST_CASE("A site with no events is named in a result warning, a small one only counted", "[pooling][sites]")
+{
+    const Cohort cohort = sitesWith({{"A", {300, -1}}, {"B", {300, -1}}, {"Saltmarsh", {2848, 0}}, {"Tiny", {6, 1}},
+                                     {"D", {300, -1}}, {"E", {300, -1}}, {"F", {300, -1}}});
+    PanelSettings settings;
+    const ValidationResult result = runValidation(cohort, settings);
+    REQUIRE(result.sites);
+    CHECK(anyContains(result.warnings, "Saltmarsh (2848 patients) has no events, so its C and O/E cannot be estimated"));
+    CHECK(anyContains(result.warnings, "1 site with fewer than 11 patients has no events or only events"));
+    CHECK_FALSE(anyContains(result.warnings, "Tiny"));
+    for (const auto& measure : result.sites->models[0].measures) {
+        CHECK_FALSE(anyContains(measure.leftOut, "Tiny"));
+        CHECK(anyContains(measure.leftOut, "1 site with fewer than 11 patients (not named: small-cell rule)"));
+    }
+    // 7 levels, 5 pooled: no τ² caution (it counts pooled sites, not levels).
+    CHECK_FALSE(anyContains(result.warnings, "poorly estimated"));
+}
+
+TEST_CASE("The tau2 caution counts the sites pooled for the measure, not the levels of the column", "[pooling][sites]")
+{
+    const Cohort cohort = sitesWith({{"A", {300, -1}}, {"B", {300, -1}}, {"C", {300, -1}}, {"D", {300, -1}}, {"E", {300, 0}}});
+    const ValidationResult result = runValidation(cohort, PanelSettings{});
+    REQUIRE(result.sites);
+    CHECK(anyContains(result.sites->warnings, "Only 4 sites of column 'hospital' pooled for every measure: the between-site variance"));
+}
+
+TEST_CASE("A site column whose levels are mostly below the small-cell number is questioned", "[pooling][sites]")
+{
+    std::vector<std::pair<std::string, std::pair<int, int>>> spec{{"A", {300, -1}}};
+    for (int i = 0; i < 30; ++i)
+        spec.push_back({"KB" + std::to_string(1000 + i), {1, i % 2}});
+    const ValidationResult result = runValidation(sitesWith(spec), PanelSettings{});
+    REQUIRE(result.sites);
+    CHECK(anyContains(result.warnings, "Most sites (30 of 31) have fewer than 11 patients: is 'hospital' a site column?"));
+    CHECK_FALSE(anyContains(result.warnings, "KB10"));
+    for (const auto& measure : result.sites->models[0].measures)
+        CHECK_FALSE(anyContains(measure.leftOut, "KB10"));
 }

@@ -84,3 +84,17 @@ TEST_CASE("A three-valued outcome-named column is neither the outcome nor a pre-
     CHECK_FALSE(roles.outcome.has_value());
     CHECK(roles.groups == std::vector<std::string>{"ward"});
 }
+
+TEST_CASE("A column named like a site is guessed as the site column, case-insensitive, alone or with _id/_name", "[intake][sites]")
+{
+    for (const char* name : {"hospital", "Site", "FACILITY", "centre", "center_id", "clinic_name", "Practice_ID", "hospital_id"})
+        CHECK(looksLikeSiteColumn(name));
+    for (const char* name : {"encounter_id", "hospital_score", "sites", "website", "site_", "_id", "centre_code", "readmitted_30d"})
+        CHECK_FALSE(looksLikeSiteColumn(name));
+    CHECK(guessSiteColumn({"encounter_id", "score", "Hospital_Name", "site"}) == std::optional<std::string>("Hospital_Name"));
+    CHECK_FALSE(guessSiteColumn({"encounter_id", "score", "outcome"}));
+    // In a table, "hospital_id" is the site guess and is not taken for the patient id.
+    const ColumnRoles roles = guessColumnRoles(profileOf("encounter_id,hospital_id,risk,died\nE1,H1,0.2,0\nE2,H2,0.7,1\nE3,H1,0.4,0\nE4,H2,0.1,1\n"));
+    CHECK(roles.site == std::optional<std::string>("hospital_id"));
+    CHECK(roles.id == std::optional<std::string>("encounter_id"));
+}

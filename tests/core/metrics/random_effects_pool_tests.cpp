@@ -70,8 +70,9 @@ TEST_CASE("REML tau2 the pooled mean HKSJ and the prediction interval match a sc
         const RandomEffectsPool pool = poolRandomEffects(y, v, 0.95);
         CHECK_THAT(pool.pooled, WithinAbs(reml["mean"].get<double>(), 1e-7));
         CHECK_THAT(pool.se, WithinAbs(reml["se"].get<double>(), 1e-7));
-        CHECK_THAT(pool.hksjLower, WithinAbs(reml["hksj_lower"].get<double>(), 1e-6));
-        CHECK_THAT(pool.hksjUpper, WithinAbs(reml["hksj_upper"].get<double>(), 1e-6));
+        // The reference computes plain HKSJ: the unmodified interval is compared.
+        CHECK_THAT(pool.hksjUnmodifiedLower, WithinAbs(reml["hksj_lower"].get<double>(), 1e-6));
+        CHECK_THAT(pool.hksjUnmodifiedUpper, WithinAbs(reml["hksj_upper"].get<double>(), 1e-6));
         // Riley, Higgins & Deeks 2011 (BMJ 342:d549) with scipy 1.10 stats.t.ppf(0.975, k − 2).
         REQUIRE(pool.predictionLower);
         CHECK_THAT(*pool.predictionLower, WithinAbs(reml["prediction_lower"].get<double>(), 1e-6));
@@ -104,4 +105,25 @@ TEST_CASE("Equal within-site variances give the closed-form REML tau2", "[poolin
     for (double x : y)
         s2 += (x - mean) * (x - mean) / 5.0;
     CHECK_THAT(remlTau2(y, v).tau2, WithinAbs(s2 - 0.01, 1e-10));
+}
+
+TEST_CASE("When q < 1 the reported HKSJ interval is widened to the plain random-effects interval, the unmodified one kept", "[pooling]")
+{
+    // Four estimates far closer than their SEs (0.2): equal vᵢ, so τ²_REML = max(0, s² − v) = 0,
+    // μ̂ = 0.1, SE = √(1/Σw) = √(0.04/4) = 0.1 (hand computation), and q = Σw(y − μ̂)²/3 < 1.
+    const std::vector<double> y{0.1, 0.11, 0.09, 0.1}, v(4, 0.04);
+    const RandomEffectsPool pool = poolRandomEffects(y, v, 0.95);
+    REQUIRE(pool.tau2Reml == 0.0);
+    REQUIRE(pool.hksjSe < pool.se);
+    // scipy 1.10 stats.t.ppf(0.975, 3) = 3.182446305284263; max(1, q) modification, Röver, Knapp &
+    // Friede 2015 (BMC Med Res Methodol 15:99 — from memory).
+    CHECK_THAT(pool.hksjLower, WithinAbs(0.1 - 3.182446305284263 * 0.1, 1e-12));
+    CHECK_THAT(pool.hksjUpper, WithinAbs(0.1 + 3.182446305284263 * 0.1, 1e-12));
+    CHECK_THAT(pool.hksjUnmodifiedLower, WithinAbs(0.1 - 3.182446305284263 * pool.hksjSe, 1e-12));
+    CHECK(pool.hksjUnmodifiedUpper - pool.hksjUnmodifiedLower < pool.hksjUpper - pool.hksjLower);
+    // Spread beyond the SEs (q > 1): the two are the same.
+    const RandomEffectsPool wide = poolRandomEffects(std::vector<double>{-0.5, 0.2, 0.9, 0.1}, v, 0.95);
+    CHECK(wide.hksjSe > wide.se);
+    CHECK(wide.hksjLower == wide.hksjUnmodifiedLower);
+    CHECK(wide.hksjUpper == wide.hksjUnmodifiedUpper);
 }

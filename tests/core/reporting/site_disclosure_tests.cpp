@@ -27,3 +27,16 @@ TEST_CASE("A site below the small-cell rule keeps no estimate of its own in repo
     CHECK(siteBelowMinimumCell(measure.sites[2], 11));
     CHECK_FALSE(siteBelowMinimumCell(measure.sites[0], 11));
 }
+
+TEST_CASE("A site with fewer patients than the small-cell number is counted in reports, never named", "[pooling][disclosure]")
+{
+    PooledMeasure measure;
+    measure.measure = "c_statistic";
+    measure.sites = {{"A", 500, 60, 0.7, 0.65, 0.75, 0.85, 0.1}, {"KB0000001", 4, 2, 0.5, 0.1, 0.9, 0.0, 1.0}, {"KB0000002", 3, 1, 0.5, 0.1, 0.9, 0.0, 1.0}};
+    SitePooling pooling;
+    pooling.models.push_back({"m", {measure}, {}});
+    withholdSmallSites(pooling, 11);
+    const PooledMeasure& shown = pooling.models[0].measures[0];
+    REQUIRE(shown.leftOut.size() == 1);
+    CHECK(shown.leftOut[0].rfind("2 sites with fewer than 11 patients: estimate withheld in reports and not named", 0) == 0);
+}

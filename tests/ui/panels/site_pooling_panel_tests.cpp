@@ -4,10 +4,14 @@
 #include "support/window_test_support.hpp"
 
 #include "charts/site_forest_view.hpp"
+#include "intake/acceptable_criteria.hpp"
+#include "panels/settings_panel.hpp"
 #include "panels/site_pooling_panel.hpp"
 #include "reporting/value_text.hpp"
 
 #include <QComboBox>
+#include <QLabel>
+#include <QLineEdit>
 #include <QTabWidget>
 #include <QTableWidget>
 #include <QTest>
@@ -51,6 +55,32 @@ private slots:
             QVERIFY(panel->noteText().contains(QStringLiteral("joint simulation from the predictive distribution")));
             QVERIFY(panel->noteText().contains(QStringLiteral("seed 7")));
         }
+    }
+
+    void theSettingsTabTakesTheAcceptabilityCriteriaAndRefusesBadOnes()
+    {
+        SettingsPanel panel;
+        panel.show();
+        auto* field = panel.findChild<QLineEdit*>(QStringLiteral("acceptable"));
+        QVERIFY(field);
+        QCOMPARE(panel.request()->panel.acceptable, AcceptableCriteria{}); // the defaults, as on the command line
+        field->setFocus();
+        field->selectAll();
+        QTest::keyClicks(field, QStringLiteral("c=0.75, oe=0.9:1.1"));
+        // The same core parser as --acceptable reads what was typed.
+        QCOMPARE(panel.request()->panel.acceptable, parseAcceptableCriteria("c=0.75,oe=0.9:1.1", "x").value());
+        field->selectAll();
+        QTest::keyClicks(field, QStringLiteral("c=1.5"));
+        QVERIFY(!panel.request());
+        bool said = false;
+        for (QLabel* label : panel.findChildren<QLabel*>())
+            said = said || label->text().contains(QStringLiteral("Acceptable in a new site takes c as a C statistic strictly between 0 and 1"));
+        QVERIFY(said);
+        // A saved analysis's criteria show in the field.
+        AnalysisRequest saved;
+        saved.panel.acceptable = parseAcceptableCriteria("slope=0.9:1.1", "x").value();
+        panel.setRequest(saved);
+        QCOMPARE(panel.request()->panel.acceptable, saved.panel.acceptable);
     }
 
     void withoutASiteColumnTheTabSaysHowToChooseOne()
