@@ -69,11 +69,13 @@ ColumnRoles guessColumnRoles(const TableProfile& profile)
     roles.site = guessSiteColumn(free);
     for (const auto& c : columns) {
         const bool taken = (roles.outcome && c.name == *roles.outcome)
-            || std::find(roles.scores.begin(), roles.scores.end(), c.name) != roles.scores.end()
-            || (roles.site && c.name == *roles.site); // "hospital_id" names a site, not a patient
+            || std::find(roles.scores.begin(), roles.scores.end(), c.name) != roles.scores.end();
         if (taken)
             continue;
-        if (!roles.id && c.type == "text" && (nameHas(c.name, {"id", "encounter", "mrn", "number"}) || c.distinct == c.nonMissing))
+        // The site column stays a subgroup too (its Cochran's Q and funnel), but "hospital_id"
+        // names a site, not a patient, so it is never the id.
+        const bool site = roles.site && c.name == *roles.site;
+        if (!roles.id && !site && c.type == "text" && (nameHas(c.name, {"id", "encounter", "mrn", "number"}) || c.distinct == c.nonMissing))
             roles.id = c.name;
         else if (!roles.period && c.type == "date")
             roles.period = c.name;
