@@ -103,7 +103,7 @@ TEST_CASE("The capacity block is null without a capacity and carries the counts 
     CapacityResult r;
     r.model = "score";
     r.patients = 1000;
-    r.at = {400, 0.25, 410, 30, 380};
+    r.at = {400, 0.25, 410, 30, 380, std::nullopt, 0, 0};
     r.tp = 100;
     r.fp = 310;
     c.overall.push_back(r);

@@ -28,7 +28,7 @@ CapacityResult row(const std::string& model, const std::string& period, std::siz
     r.patients = tp + fp + tn + fn;
     r.events = tp + fn;
     // A capacity one above the flagged: `tied` patients (when any) share the next risk down.
-    r.at = {tp + fp, 0.3, tp + fp, 1, tp + fp - 1};
+    r.at = {tp + fp, 0.3, tp + fp, 1, tp + fp - 1, std::nullopt, 0, 0};
     if (tied > 0) {
         r.at.requested = tp + fp + 1;
         r.at.nextRiskDown = 0.29;
